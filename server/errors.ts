@@ -1,0 +1,25 @@
+export interface FieldError {
+  path: string
+  message: string
+}
+
+/**
+ * An error the client is meant to see: a stable machine-readable code, the HTTP status and a
+ * message safe to show. Anything thrown that is not an AppError becomes a 500 with no detail.
+ */
+export class AppError extends Error {
+  constructor(
+    readonly code: string,
+    readonly httpStatus: number,
+    message: string,
+    readonly details?: { fields?: FieldError[] } & Record<string, unknown>,
+  ) {
+    super(message)
+    this.name = 'AppError'
+  }
+}
+
+export const notFound = (what = 'Resource'): AppError => new AppError('not_found', 404, `${what} not found`)
+export const forbidden = (message = 'You do not have access to this'): AppError => new AppError('forbidden', 403, message)
+export const unauthorized = (message = 'Sign in first'): AppError => new AppError('unauthorized', 401, message)
+export const conflict = (message: string): AppError => new AppError('conflict', 409, message)

@@ -1,0 +1,66 @@
+// The HTTP process: configuration, database, app, listener and an orderly shutdown.
+import type { Server } from 'node:http'
+import { join } from 'node:path'
+import { createApp } from './app'
+import { createDb, createPool } from './db/client'
+import { describeDbError } from './db/describe-error'
+import { loadEnv, REPO_ROOT } from './env'
+import { createLogger } from './logger'
+import type { QueueCheck } from './modules/health/health.service'
+
+const config = loadEnv()
+const log = createLogger(config.logLevel)
+const pool = createPool(config.databaseUrl)
+const db = createDb(pool)
+
+function fail(line: string): never {
+  console.error(`sonoweave: ${line}`)
+  process.exit(1)
+}
+
+try {
+  await pool.query('select 1')
+} catch (err) {
+  fail(describeDbError(err, config.databaseUrl))
+}
+
+// ---- job service (pg-boss + embedded worker): built by the jobs issue --------------------------
+// Start it here when config.embeddedWorker is true (config.workerCount solver threads), set
+// queueCheck so /api/health reports the queue, and push its stop() onto `stoppers` below so that
+// SIGTERM stops taking jobs before the HTTP server and the pool close.
+const queueCheck: QueueCheck | undefined = undefined
+const stoppers: Array<() => Promise<void>> = []
+// -------------------------------------------------------------------------------------------------
+
+const app = createApp({ db, pool, log, queueCheck, distDir: join(REPO_ROOT, 'dist') })
+
+const server: Server = app.listen(config.port, config.host)
+server.on('error', (err: NodeJS.ErrnoException) => {
+  if (err.code === 'EADDRINUSE') fail(`port ${config.port} on ${config.host} is already in use; stop the other program or set PORT to a free port (e.g. PORT=${config.port + 1} npm start)`)
+  if (err.code === 'EADDRNOTAVAIL') fail(`HOST=${config.host} is not an address of this machine; set HOST to 127.0.0.1 or 0.0.0.0`)
+  if (err.code === 'EACCES') fail(`no permission to listen on port ${config.port}; set PORT to a number above 1023`)
+  fail(`could not listen on ${config.host}:${config.port}: ${err.message}`)
+})
+server.on('listening', () => {
+  log.info({ host: config.host, port: config.port }, 'listening')
+  console.log(`Sonoweave is running at http://${config.host === '0.0.0.0' ? '127.0.0.1' : config.host}:${config.port}/`)
+})
+
+let shuttingDown = false
+async function shutdown(signal: string): Promise<void> {
+  if (shuttingDown) return
+  shuttingDown = true
+  log.info({ signal }, 'shutting down')
+  // A stuck connection must not keep the process alive forever.
+  const force = setTimeout(() => process.exit(1), 10_000)
+  force.unref()
+  for (const stop of stoppers) await stop().catch((err) => log.error({ err }, 'stopping a service failed'))
+  const closed = new Promise<void>((resolve) => server.close(() => resolve()))
+  // Open streams (server-sent events) would hold close() open; give them a moment, then cut them.
+  setTimeout(() => server.closeAllConnections(), 2_000).unref()
+  await closed
+  await pool.end()
+  process.exit(0)
+}
+process.on('SIGTERM', () => void shutdown('SIGTERM'))
+process.on('SIGINT', () => void shutdown('SIGINT'))

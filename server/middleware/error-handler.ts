@@ -1,0 +1,49 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express'
+import { ZodError } from 'zod'
+import type { ApiErrorBody } from '@shared/api-error'
+import { AppError, type FieldError } from '../errors'
+
+type ErrorBody = ApiErrorBody['error']
+
+/** Unknown /api paths answer in JSON, not with the SPA page. */
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new AppError('not_found', 404, `No API route for ${req.method} ${req.originalUrl.split('?')[0]}`))
+}
+
+export function zodFields(err: ZodError): FieldError[] {
+  return err.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }))
+}
+
+// body-parser marks its own failures with `type`; these are the client's mistakes, not ours.
+const BODY_ERRORS: Record<string, { status: number; code: string; message: string }> = {
+  'entity.parse.failed': { status: 400, code: 'malformed_json', message: 'The request body is not valid JSON' },
+  'entity.too.large': { status: 413, code: 'payload_too_large', message: 'The request body is too large' },
+  'encoding.unsupported': { status: 415, code: 'unsupported_encoding', message: 'The request body encoding is not supported' },
+  'charset.unsupported': { status: 415, code: 'unsupported_charset', message: 'The request body charset is not supported' },
+  'request.aborted': { status: 400, code: 'request_aborted', message: 'The request was aborted' },
+}
+
+/** The one place errors become responses. Only AppError and validation messages reach the client. */
+export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
+  if (res.headersSent) return next(err)
+  const requestId = req.id
+  let status: number
+  let body: ErrorBody
+
+  if (err instanceof ZodError) {
+    status = 400
+    body = { code: 'invalid_input', message: 'Some fields are not valid', fields: zodFields(err) }
+  } else if (err instanceof AppError) {
+    status = err.httpStatus
+    body = { code: err.code, message: err.message, ...(err.details?.fields ? { fields: err.details.fields } : {}) }
+  } else if (typeof err?.type === 'string' && BODY_ERRORS[err.type]) {
+    const known = BODY_ERRORS[err.type]
+    status = known.status
+    body = { code: known.code, message: known.message }
+  } else {
+    status = 500
+    body = { code: 'internal', message: `Something went wrong on our side; quote request id ${requestId} when reporting it` }
+    ;(req.log ?? console).error({ err, method: req.method, url: req.originalUrl }, 'unhandled error')
+  }
+  res.status(status).json({ error: { ...body, requestId } } satisfies ApiErrorBody)
+}
