@@ -1,0 +1,125 @@
+// What a run will cost before it starts: cells, steps, cell-updates, memory and expected time, and the
+// refusal of runs over the limits with the knob to turn. Cost model: physics.md §4 (N_ch·N_z·N_t·N_real).
+import type { SimulationConfig } from './simulation-config'
+
+/** Grid counts as chosen by shared/grid-step.ts. */
+export interface GridCounts {
+  dtS: number
+  nz: number
+  nt: number
+}
+
+/**
+ * Throughput of the SVEA scheme on one core of the reference machine (cell-updates per second), as printed
+ * by `npm run bench` (benchmarks/README.md). Slower options are expressed as factors of it.
+ */
+export const CELL_UPDATES_PER_S_SVEA = 30e6
+/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); from the benchmark. */
+export const SPEED_FACTOR_HIGHER_ORDER = 0.5
+/** Relative speed with thermal noise (one complex normal deviate per cell and step); from the benchmark. */
+export const SPEED_FACTOR_NOISE = 0.5
+/** Relative speed with Kerr phases (two complex rotations per cell); estimate. */
+export const SPEED_FACTOR_KERR = 0.8
+
+/**
+ * Bytes of solver state per cell and channel: pump, Stokes and acoustic envelopes plus their predictor copies,
+ * complex float64 (6 × 16 B), and ∂b/∂t with its copy when the higher-order term is on (2 × 16 B).
+ */
+export const STATE_BYTES_PER_CELL = 96
+export const STATE_BYTES_PER_CELL_HIGHER_ORDER = 32
+/** Full-resolution complex traces per channel: pump and Stokes in and out (4 × complex float64 per step). */
+export const TRACE_BYTES_PER_STEP = 4 * 16
+/** Pump power, Stokes power and acoustic energy maps, float64. */
+export const MAPS_PER_CHANNEL = 3
+
+export interface ResourceLimits {
+  maxCellUpdates: number
+  maxMemoryBytes: number
+}
+
+export const DEFAULT_RESOURCE_LIMITS: ResourceLimits = { maxCellUpdates: 2e10, maxMemoryBytes: 2 * 1024 ** 3 }
+
+export interface ResourceEstimate {
+  channels: number
+  realisations: number
+  cells: number
+  steps: number
+  timeStepPs: number
+  cellUpdates: number
+  memoryBytes: { state: number; maps: number; traces: number; total: number }
+  /** Throughput assumed for this option set (cell-updates per second). */
+  cellUpdatesPerS: number
+  expectedSeconds: number
+  /** Inputs the refusal message needs to propose new values. */
+  windowNs: number
+  lengthM: number
+  maxTimeStepPs?: number
+}
+
+export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1): ResourceEstimate {
+  const channels = config.channels.length
+  const o = config.options
+  const cellUpdates = channels * realisations * grid.nz * grid.nt
+  const stateBytesPerCell = STATE_BYTES_PER_CELL + (o.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
+  const state = channels * grid.nz * stateBytesPerCell
+  const maps = channels * MAPS_PER_CHANNEL * Math.min(grid.nt, config.grid.mapRows) * Math.min(grid.nz, config.grid.mapCols) * 8
+  // Axes (t and z, float64) count with the traces.
+  const traces = channels * grid.nt * TRACE_BYTES_PER_STEP + 8 * (grid.nt + grid.nz)
+  const cellUpdatesPerS =
+    CELL_UPDATES_PER_S_SVEA *
+    (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
+    (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
+    (o.kerr ? SPEED_FACTOR_KERR : 1)
+  return {
+    channels,
+    realisations,
+    cells: grid.nz,
+    steps: grid.nt,
+    timeStepPs: grid.dtS * 1e12,
+    cellUpdates,
+    memoryBytes: { state, maps, traces, total: state + maps + traces },
+    cellUpdatesPerS,
+    expectedSeconds: cellUpdates / cellUpdatesPerS,
+    windowNs: config.windowNs,
+    lengthM: config.waveguide.lengthM,
+    // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (physics.md §3).
+    maxTimeStepPs: o.higherOrderAcoustic ? 1000 / (20 * config.waveguide.brillouinShiftGHz) : undefined,
+  }
+}
+
+export type LimitCheck = { ok: true } | { ok: false; message: string; reasons: string[] }
+
+const sig = (x: number) => x.toPrecision(3)
+const gib = (bytes: number) => `${sig(bytes / 1024 ** 3)} GiB`
+
+/** Refuses an estimate over the limits; the message says which knob to turn and by how much. */
+export function checkLimits(e: ResourceEstimate, limits: ResourceLimits = DEFAULT_RESOURCE_LIMITS): LimitCheck {
+  const reasons: string[] = []
+  if (e.cellUpdates > limits.maxCellUpdates) {
+    const f = e.cellUpdates / limits.maxCellUpdates
+    // Cost ∝ N_ch · L · T_window / Δt² (N_z ∝ L/Δt, N_t ∝ T/Δt).
+    const knobs = [`shorten the window from ${sig(e.windowNs)} ns to ≤ ${sig(e.windowNs / f)} ns`]
+    const coarserPs = e.timeStepPs * Math.sqrt(f)
+    if (e.maxTimeStepPs === undefined || coarserPs <= e.maxTimeStepPs) {
+      knobs.push(`use a coarser time step, ≥ ${sig(coarserPs)} ps instead of ${sig(e.timeStepPs)} ps`)
+    }
+    knobs.push(`use a shorter waveguide, ≤ ${sig(e.lengthM / f)} m instead of ${sig(e.lengthM)} m`)
+    const fewer = Math.floor(e.channels / f)
+    if (fewer >= 1 && fewer < e.channels) knobs.push(`use ${fewer} channel${fewer > 1 ? 's' : ''} instead of ${e.channels}`)
+    reasons.push(
+      `The run needs ${sig(e.cellUpdates)} cell-updates (${e.channels} channel(s) × ${e.cells} cells × ${e.steps} steps` +
+        `${e.realisations > 1 ? ` × ${e.realisations} realisations` : ''}), over the limit of ${sig(limits.maxCellUpdates)}: ${knobs.join('; or ')}.`,
+    )
+  }
+  const m = e.memoryBytes
+  if (m.total > limits.maxMemoryBytes) {
+    const largest = m.traces >= m.state && m.traces >= m.maps ? 'traces' : m.state >= m.maps ? 'state' : 'maps'
+    const knob = {
+      traces: 'the full-resolution traces dominate: shorten the window or use a coarser time step',
+      state: 'the grid state dominates: use a shorter waveguide or a coarser time step',
+      maps: 'the space–time maps dominate: keep fewer map rows and columns',
+    }[largest]
+    reasons.push(`The run needs about ${gib(m.total)} of memory, over the limit of ${gib(limits.maxMemoryBytes)}; ${knob}.`)
+  }
+  return reasons.length === 0 ? { ok: true } : { ok: false, message: reasons.join(' '), reasons }
+}
