@@ -1,0 +1,106 @@
+// NPY format version 1.0 (numpy's open standard, numpy.org/neps/nep-0001-npy-format.html):
+//   bytes 0–5   magic "\x93NUMPY"
+//   bytes 6–7   version major, minor = 1, 0
+//   bytes 8–9   header length HLEN, unsigned 16-bit little-endian
+//   HLEN bytes  ASCII Python dict literal {'descr': …, 'fortran_order': False, 'shape': (…), } padded with
+//               spaces and ended by '\n' so that 10 + HLEN is a multiple of 64 (the data starts aligned)
+//   then the raw data in C order.
+// Pure byte work, no fs: the CLI writes the returned bytes. Complex data are interleaved (re, im) float64.
+
+export type NpyDescr = '<c16' | '<f8' | '<f4'
+
+export const NPY_MAGIC = Uint8Array.of(0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59)
+const PREAMBLE_BYTES = 10
+const ALIGNMENT = 64
+const MAX_V1_HEADER = 0xffff
+
+export interface NpyArray {
+  descr: NpyDescr
+  shape: number[]
+  /** Float64Array for '<f8' and '<c16' (two numbers per element), Float32Array for '<f4'. */
+  data: Float64Array | Float32Array
+}
+
+const isLittleEndian = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1
+
+function valuesPerElement(descr: NpyDescr): number {
+  return descr === '<c16' ? 2 : 1
+}
+
+/** Python tuple literal: () for 0-d, (n,) for 1-d, (a, b) otherwise. */
+function shapeLiteral(shape: number[]): string {
+  if (shape.length === 1) return `(${shape[0]},)`
+  return `(${shape.join(', ')})`
+}
+
+/** Preamble + header for an array; data of prod(shape) elements of `descr` follows it. */
+export function npyHeader(descr: NpyDescr, shape: number[]): Uint8Array {
+  for (const d of shape) if (!Number.isInteger(d) || d < 0) throw new Error(`NPY shape entries must be non-negative integers, got ${shape}`)
+  const dict = `{'descr': '${descr}', 'fortran_order': False, 'shape': ${shapeLiteral(shape)}, }`
+  // Pad with spaces; the final '\n' is part of the header.
+  const unpadded = PREAMBLE_BYTES + dict.length + 1
+  const headerLength = dict.length + 1 + ((ALIGNMENT - (unpadded % ALIGNMENT)) % ALIGNMENT)
+  if (headerLength > MAX_V1_HEADER) throw new Error('NPY v1.0 header too long')
+  const out = new Uint8Array(PREAMBLE_BYTES + headerLength)
+  out.set(NPY_MAGIC, 0)
+  out[6] = 1
+  out[7] = 0
+  out[8] = headerLength & 0xff
+  out[9] = headerLength >> 8
+  const text = dict.padEnd(headerLength - 1, ' ') + '\n'
+  for (let i = 0; i < text.length; i++) out[PREAMBLE_BYTES + i] = text.charCodeAt(i)
+  return out
+}
+
+function checkArray(a: NpyArray): void {
+  const expectedType = a.descr === '<f4' ? Float32Array : Float64Array
+  if (!(a.data instanceof expectedType)) throw new Error(`NPY ${a.descr} needs a ${expectedType.name}`)
+  const elements = a.shape.reduce((p, d) => p * d, 1)
+  if (a.data.length !== elements * valuesPerElement(a.descr)) {
+    throw new Error(`NPY data has ${a.data.length} numbers; shape ${shapeLiteral(a.shape)} of ${a.descr} needs ${elements * valuesPerElement(a.descr)}`)
+  }
+  // Typed arrays use the platform byte order; NPY here promises little-endian.
+  if (!isLittleEndian) throw new Error('NPY writing needs a little-endian platform')
+}
+
+/** Header and data as two byte views (no copy of the data), for streaming to a file. */
+export function npyParts(a: NpyArray): [Uint8Array, Uint8Array] {
+  checkArray(a)
+  return [npyHeader(a.descr, a.shape), new Uint8Array(a.data.buffer, a.data.byteOffset, a.data.byteLength)]
+}
+
+/** The whole file in one buffer. */
+export function encodeNpy(a: NpyArray): Uint8Array {
+  const [head, body] = npyParts(a)
+  const out = new Uint8Array(head.length + body.length)
+  out.set(head, 0)
+  out.set(body, head.length)
+  return out
+}
+
+/** Reads an NPY v1.0 file written by encodeNpy or numpy (little-endian, C order, the three dtypes above). */
+export function decodeNpy(bytes: Uint8Array): NpyArray & { headerLength: number } {
+  for (let i = 0; i < NPY_MAGIC.length; i++) if (bytes[i] !== NPY_MAGIC[i]) throw new Error('Not an NPY file (bad magic)')
+  if (bytes[6] !== 1 || bytes[7] !== 0) throw new Error(`Unsupported NPY version ${bytes[6]}.${bytes[7]}`)
+  const headerLength = bytes[8] | (bytes[9] << 8)
+  let text = ''
+  for (let i = PREAMBLE_BYTES; i < PREAMBLE_BYTES + headerLength; i++) text += String.fromCharCode(bytes[i])
+  const descr = /'descr':\s*'([^']+)'/.exec(text)?.[1]
+  const fortran = /'fortran_order':\s*(True|False)/.exec(text)?.[1]
+  const shapeText = /'shape':\s*\(([^)]*)\)/.exec(text)?.[1]
+  if (descr !== '<c16' && descr !== '<f8' && descr !== '<f4') throw new Error(`Unsupported NPY dtype ${descr}`)
+  if (fortran !== 'False') throw new Error('Only C-order NPY arrays are supported')
+  if (shapeText === undefined) throw new Error('NPY header has no shape')
+  const shape = shapeText
+    .split(',')
+    .map((s) => s.trim())
+    .filter((s) => s.length > 0)
+    .map(Number)
+  const start = PREAMBLE_BYTES + headerLength
+  // Copy so the typed array is aligned whatever the source buffer's offset.
+  const body = bytes.slice(start)
+  const data = descr === '<f4' ? new Float32Array(body.buffer, 0, body.byteLength / 4) : new Float64Array(body.buffer, 0, body.byteLength / 8)
+  const a = { descr, shape, data } as NpyArray
+  checkArray(a)
+  return { ...a, headerLength }
+}
