@@ -1,0 +1,116 @@
+import { z } from 'zod'
+import { MapReduction, Port } from './simulation-config'
+
+/**
+ * Complex arrays (dtype 'c16') are interleaved: element k is (re, im) = (data[2k], data[2k+1]), in √W for
+ * optical envelopes, so |A|² is power in W. This is also numpy's '<c16' byte order.
+ */
+export const COMPLEX_LAYOUT = 'interleaved re,im float64 pairs (numpy <c16); optical envelopes in √W, |A|² = W'
+
+export const ArrayDtype = z.enum(['c16', 'f8', 'f4'])
+export type ArrayDtype = z.infer<typeof ArrayDtype>
+
+/** How one result array is laid out; the CLI writes one NPY file per descriptor. */
+export const ArrayDescriptor = z.object({
+  name: z.string().min(1),
+  dtype: ArrayDtype,
+  /** Row-major (C order). Maps are [rows = time, cols = z]. */
+  shape: z.array(z.number().int().nonnegative()),
+  units: z.string(),
+  description: z.string(),
+})
+export type ArrayDescriptor = z.infer<typeof ArrayDescriptor>
+
+export const RunStatus = z.enum(['finished', 'aborted', 'failed'])
+export type RunStatus = z.infer<typeof RunStatus>
+
+export const RunCounters = z.object({
+  steps: z.number().int().nonnegative(),
+  cellUpdates: z.number().nonnegative().describe('Node-steps: one node advanced by one time step, per channel'),
+  wallTimeS: z.number().nonnegative(),
+  cellUpdatesPerS: z.number().nonnegative(),
+})
+export type RunCounters = z.infer<typeof RunCounters>
+
+export const ResultGrid = z.object({
+  dtS: z.number().positive(),
+  dzM: z.number().positive(),
+  nz: z.number().int().positive().describe('Cells along z (nz + 1 nodes)'),
+  nt: z.number().int().positive().describe('Time steps (nt + 1 samples)'),
+  reasons: z.array(z.string()).describe('Step-size rules that bounded Δt, the binding one first'),
+  mapRows: z.number().int().positive(),
+  mapCols: z.number().int().positive(),
+  /** Time steps merged into one map row, and grid nodes into one map column. */
+  mapRowSteps: z.number().int().positive(),
+  mapColNodes: z.number().int().positive(),
+  /** Steps actually sampled per map row (evenly spaced inside the row block). */
+  mapSamplesPerRow: z.number().int().positive(),
+  mapReduction: MapReduction,
+  acousticMapUnits: z.literal('phonons/m').describe('|b|²/(ħω_s), summed over channels'),
+})
+export type ResultGrid = z.infer<typeof ResultGrid>
+
+const nullableNumber = z.number().nullable()
+
+export const PortEnergies = z.object({ pumpIn: z.number(), stokesIn: z.number(), pumpOut: z.number(), stokesOut: z.number() })
+
+export const ChannelFigures = z.object({
+  channel: z.number().int().nonnegative(),
+  energyJ: PortEnergies,
+  /** 10·log10(max P_s,out / max P_s,in); null without a Stokes input. */
+  peakStokesGainDb: nullableNumber,
+  /** E_s,out/E_p,in (for CW, P_s(0)/P_p(0)); null without a pump input. */
+  reflectivity: nullableNumber,
+  /** Centroid shift of output vs input power beyond the free transit time (ns). */
+  pumpDelayNs: nullableNumber,
+  stokesDelayNs: nullableNumber,
+  pumpOutFwhmNs: nullableNumber,
+  stokesOutFwhmNs: nullableNumber,
+  /**
+   * |(E_p,in − E_p,out − E_p,left) − r(E_s,out + E_s,left − E_s,in)| / (E_p,in + r E_s,in), light still in the
+   * waveguide at the end counted as "left"; null when α > 0 (photons are then lost on purpose).
+   */
+  manleyRoweResidual: nullableNumber,
+  /** Pump-port output energy in the read window / data input energy; null unless pulses are labelled data and read. */
+  retrievalEfficiency: nullableNumber,
+  /** Phase of the retrieved pump-port field relative to the data pulse, in [0, 2π). */
+  retrievedPhaseRad: nullableNumber,
+  readWindowNs: z.tuple([z.number(), z.number()]).nullable(),
+})
+export type ChannelFigures = z.infer<typeof ChannelFigures>
+
+export const WindowEnergy = z.object({
+  label: z.string(),
+  port: Port,
+  startNs: z.number(),
+  endNs: z.number(),
+  energyJPerChannel: z.array(z.number()),
+  energyJ: z.number(),
+})
+export type WindowEnergy = z.infer<typeof WindowEnergy>
+
+export const FiguresOfMerit = z.object({
+  channels: z.array(ChannelFigures),
+  windows: z.array(WindowEnergy),
+  wallTimeS: z.number(),
+  cellUpdatesPerS: z.number(),
+})
+export type FiguresOfMerit = z.infer<typeof FiguresOfMerit>
+
+export const SolverWarning = z.object({ code: z.string(), message: z.string() })
+export type SolverWarning = z.infer<typeof SolverWarning>
+
+/** The JSON part of a result: what manifest.json holds and the API stores. Arrays are described, not inlined. */
+export const SimulationManifest = z.object({
+  solverVersion: z.string(),
+  status: RunStatus,
+  message: z.string(),
+  issues: z.array(z.object({ path: z.string(), message: z.string() })).default([]),
+  warnings: z.array(SolverWarning),
+  counters: RunCounters,
+  grid: ResultGrid.nullable(),
+  figures: FiguresOfMerit.nullable(),
+  complexLayout: z.literal(COMPLEX_LAYOUT),
+  arrays: z.array(ArrayDescriptor),
+})
+export type SimulationManifest = z.infer<typeof SimulationManifest>

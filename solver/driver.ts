@@ -1,0 +1,169 @@
+// The time loop: interaction at every node, port recording, maps, then exact transport along the
+// characteristics with the new boundary inputs. Status and counters; no I/O, no event loop.
+import { chooseGrid, type GridChoice } from '@shared/grid-step'
+import type { SimulationConfig } from '@shared/simulation-config'
+import type { SolverWarning } from '@shared/simulation-result'
+import { sampleInput } from './grid/input-traces'
+import { SeededRandom } from './noise/random'
+import { computeFigures, type ChannelTraces } from './observers/figures-of-merit'
+import { MapRecorder, mapLayout } from './observers/map-recorder'
+import { preRunWarnings } from './observers/warnings'
+import { buildModel, type Model } from './problem/coupled-modes'
+import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, type FieldState } from './steppers/interaction-kernel'
+
+/** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
+export const SOLVER_LIMITS = {
+  maxNodes: 20_000_000,
+  /** Bytes of full-resolution traces: 4 complex traces per channel. */
+  maxTraceBytes: 1.6e9,
+  maxCellUpdates: 2e12,
+} as const
+
+export class SimulationRun {
+  readonly model: Model
+  readonly state: FieldState
+  readonly traces: ChannelTraces[]
+  readonly maps: MapRecorder
+  readonly warnings: SolverWarning[]
+  /** Next time index to integrate (0..nt). */
+  n = 0
+  private readonly rng: SeededRandom | null
+  private readonly fast: boolean
+  private readonly forceGeneral: boolean
+
+  constructor(
+    readonly config: SimulationConfig,
+    readonly grid: GridChoice,
+    options: { forceGeneralKernel?: boolean } = {},
+  ) {
+    const m = (this.model = buildModel(config, grid))
+    this.state = allocateState(m)
+    this.traces = config.channels.map((ch) => ({
+      pumpIn: sampleInput(ch.pump, m.nt, m.dtS),
+      stokesIn: sampleInput(ch.stokes, m.nt, m.dtS),
+      pumpOut: new Float64Array(2 * (m.nt + 1)),
+      stokesOut: new Float64Array(2 * (m.nt + 1)),
+    }))
+    this.maps = new MapRecorder(mapLayout(m.nt, m.nodes, config.grid.mapRows, config.grid.mapCols), m, config.grid.mapReduction === 'max')
+    this.warnings = preRunWarnings(config, m)
+    this.rng = config.options.noise.enabled ? new SeededRandom(config.options.noise.seed) : null
+    this.forceGeneral = options.forceGeneralKernel ?? false
+    this.fast = !this.forceGeneral && fastPathApplies(m)
+    if (this.rng) this.thermalStart(this.rng)
+    this.inject(0)
+  }
+
+  get done(): boolean {
+    return this.n > this.model.nt
+  }
+
+  get cellUpdates(): number {
+    return this.n * this.model.nodes * this.model.nCh
+  }
+
+  /** Integrate up to `count` time indices; returns how many were done. */
+  advance(count: number): number {
+    const m = this.model
+    const s = this.state
+    const end = Math.min(m.nt + 1, this.n + count)
+    const start = this.n
+    const nz = m.nz
+    for (let n = start; n < end; n++) {
+      if (this.fast) {
+        const c = m.exchangePerB
+        const K = m.driveK, Er = m.svea.eRe, Ei = m.svea.eIm, h = m.dtS
+        interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, 1, nz - 1, K, 0.5 * c, Er, Ei, h)
+        interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, 0, 0, K, 0.25 * c, Er, Ei, h)
+        interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, nz, nz, K, 0.25 * c, Er, Ei, h)
+      } else {
+        for (let j = 0; j <= nz; j++) interactGeneral(m, s, j, j === 0 || j === nz ? 0.5 : 1, this.rng)
+      }
+      for (let k = 0; k < m.nCh; k++) {
+        const base = k * m.nodes
+        const t = this.traces[k]
+        t.pumpOut[2 * n] = m.sqrtKappaP * s.uRe[base + nz]
+        t.pumpOut[2 * n + 1] = m.sqrtKappaP * s.uIm[base + nz]
+        t.stokesOut[2 * n] = m.sqrtKappa * s.vRe[base]
+        t.stokesOut[2 * n + 1] = m.sqrtKappa * s.vIm[base]
+      }
+      if (m.advectionCourant > 0) advectAcoustic(m, s)
+      this.maps.record(n, s)
+      if (n < m.nt) {
+        this.transport()
+        this.inject(n + 1)
+      }
+    }
+    this.n = end
+    return end - start
+  }
+
+  /** True if every value written so far is finite (a guard: never hand out a NaN result). */
+  isFinite(fromN: number): boolean {
+    for (const t of this.traces)
+      for (let i = 2 * fromN; i < 2 * this.n; i++) if (!Number.isFinite(t.pumpOut[i]) || !Number.isFinite(t.stokesOut[i])) return false
+    const b = this.state.bRe
+    for (let i = 0; i < b.length; i += Math.max(1, Math.floor(b.length / 64))) if (!Number.isFinite(b[i]) || !Number.isFinite(this.state.bIm[i])) return false
+    return true
+  }
+
+  /** Light still inside the waveguide (J), per channel: what would leave in the coming steps. */
+  leftInside(): { pump: number; stokes: number }[] {
+    const m = this.model
+    const s = this.state
+    return this.config.channels.map((_, k) => {
+      const base = k * m.nodes
+      let p = 0, q = 0
+      for (let j = 0; j < m.nz; j++) p += s.uRe[base + j] ** 2 + s.uIm[base + j] ** 2
+      for (let j = 1; j <= m.nz; j++) q += s.vRe[base + j] ** 2 + s.vIm[base + j] ** 2
+      return { pump: m.kappaP * p * m.dtS, stokes: m.rates.kappa * q * m.dtS }
+    })
+  }
+
+  figures(wallTimeS: number) {
+    return computeFigures(this.config, this.model, this.traces, this.leftInside(), wallTimeS, this.cellUpdates)
+  }
+
+  private transport(): void {
+    const m = this.model
+    const s = this.state
+    const nz = m.nz
+    const loss = m.lossPerCell
+    for (let k = 0; k < m.nCh; k++) {
+      const base = k * m.nodes
+      s.uRe.copyWithin(base + 1, base, base + nz)
+      s.uIm.copyWithin(base + 1, base, base + nz)
+      s.vRe.copyWithin(base, base + 1, base + nz + 1)
+      s.vIm.copyWithin(base, base + 1, base + nz + 1)
+      if (loss !== 1) {
+        for (let j = base + 1; j <= base + nz; j++) (s.uRe[j] *= loss), (s.uIm[j] *= loss)
+        for (let j = base; j < base + nz; j++) (s.vRe[j] *= loss), (s.vIm[j] *= loss)
+      }
+    }
+  }
+
+  private inject(n: number): void {
+    const m = this.model
+    const s = this.state
+    for (let k = 0; k < m.nCh; k++) {
+      const base = k * m.nodes
+      const t = this.traces[k]
+      s.uRe[base] = t.pumpIn[2 * n] / m.sqrtKappaP
+      s.uIm[base] = t.pumpIn[2 * n + 1] / m.sqrtKappaP
+      s.vRe[base + m.nz] = t.stokesIn[2 * n] / m.sqrtKappa
+      s.vIm[base + m.nz] = t.stokesIn[2 * n + 1] / m.sqrtKappa
+    }
+  }
+
+  /** Thermal initial state, ⟨|b|²⟩ = ħω_s n_th/Δz (physics brief §3); ∂t b starts at 0. */
+  private thermalStart(rng: SeededRandom): void {
+    const sd = this.model.thermalRms * Math.SQRT1_2
+    for (let i = 0; i < this.state.bRe.length; i++) {
+      this.state.bRe[i] = sd * rng.normal()
+      this.state.bIm[i] = sd * rng.normal()
+    }
+  }
+}
+
+export function planGrid(config: SimulationConfig): GridChoice {
+  return chooseGrid(config)
+}

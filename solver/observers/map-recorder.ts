@@ -1,0 +1,115 @@
+// Decimated space–time maps (rows = time, cols = z) of pump power, Stokes power and phonon density,
+// summed over channels, reduced by block max or mean. Memory is O(rows·cols), independent of the grid.
+import type { Model } from '../problem/coupled-modes'
+import type { FieldState } from '../steppers/interaction-kernel'
+
+/** Time samples taken inside one row block: a few evenly spaced steps resolve any pulse the Δt rules allow. */
+const MAX_SAMPLES_PER_ROW = 4
+
+export interface MapLayout {
+  rows: number
+  cols: number
+  rowSteps: number
+  colNodes: number
+  samplesPerRow: number
+  sampleStride: number
+}
+
+export function mapLayout(nt: number, nodes: number, wantRows: number, wantCols: number): MapLayout {
+  const samples = nt + 1
+  const rowSteps = Math.ceil(samples / Math.min(wantRows, samples))
+  const rows = Math.ceil(samples / rowSteps)
+  const colNodes = Math.ceil(nodes / Math.min(wantCols, nodes))
+  const cols = Math.ceil(nodes / colNodes)
+  const sampleStride = Math.max(1, Math.floor(rowSteps / MAX_SAMPLES_PER_ROW))
+  return { rows, cols, rowSteps, colNodes, samplesPerRow: Math.ceil(rowSteps / sampleStride), sampleStride }
+}
+
+export class MapRecorder {
+  readonly pumpPowerW: Float32Array
+  readonly stokesPowerW: Float32Array
+  /** Phonons per metre, |b|²/(ħω_s). */
+  readonly acousticPhononsPerM: Float32Array
+  rowsDone = 0
+  private readonly accP: Float64Array
+  private readonly accS: Float64Array
+  private readonly accB: Float64Array
+  private samplesInRow = 0
+
+  constructor(
+    readonly layout: MapLayout,
+    private readonly model: Model,
+    private readonly useMax: boolean,
+  ) {
+    const n = layout.rows * layout.cols
+    this.pumpPowerW = new Float32Array(n)
+    this.stokesPowerW = new Float32Array(n)
+    this.acousticPhononsPerM = new Float32Array(n)
+    this.accP = new Float64Array(layout.cols)
+    this.accS = new Float64Array(layout.cols)
+    this.accB = new Float64Array(layout.cols)
+  }
+
+  /** Called after time sample n is complete. */
+  record(n: number, s: FieldState): void {
+    const L = this.layout
+    const inRow = n % L.rowSteps
+    if (inRow % L.sampleStride === 0) this.sample(s)
+    const last = inRow === L.rowSteps - 1 || n === this.model.nt
+    if (last) this.flushRow()
+  }
+
+  private sample(s: FieldState): void {
+    const m = this.model
+    const { uRe, uIm, vRe, vIm, bRe, bIm } = s
+    const kp = m.kappaP, ks = m.rates.kappa, kb = 1 / m.stokesPhotonJ
+    const cn = this.layout.colNodes
+    const accP = this.accP, accS = this.accS, accB = this.accB
+    const first = this.samplesInRow === 0
+    for (let c = 0; c < this.layout.cols; c++) {
+      const j0 = c * cn
+      const j1 = Math.min(m.nodes, j0 + cn)
+      let sp = first ? 0 : accP[c], ss = first ? 0 : accS[c], sb = first ? 0 : accB[c]
+      for (let j = j0; j < j1; j++) {
+        let p = 0, q = 0, b = 0
+        for (let k = 0; k < m.nCh; k++) {
+          const i = k * m.nodes + j
+          p += kp * (uRe[i] * uRe[i] + uIm[i] * uIm[i])
+          q += ks * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+          b += kb * (bRe[i] * bRe[i] + bIm[i] * bIm[i])
+        }
+        if (this.useMax) {
+          if (p > sp) sp = p
+          if (q > ss) ss = q
+          if (b > sb) sb = b
+        } else {
+          sp += p
+          ss += q
+          sb += b
+        }
+      }
+      accP[c] = sp
+      accS[c] = ss
+      accB[c] = sb
+    }
+    this.samplesInRow++
+  }
+
+  private flushRow(): void {
+    const L = this.layout
+    const r = this.rowsDone
+    const m = this.model
+    for (let c = 0; c < L.cols; c++) {
+      let scale = 1
+      if (!this.useMax) {
+        const nodesInCol = Math.min(m.nodes, (c + 1) * L.colNodes) - c * L.colNodes
+        scale = 1 / (nodesInCol * Math.max(1, this.samplesInRow))
+      }
+      this.pumpPowerW[r * L.cols + c] = this.accP[c] * scale
+      this.stokesPowerW[r * L.cols + c] = this.accS[c] * scale
+      this.acousticPhononsPerM[r * L.cols + c] = this.accB[c] * scale
+    }
+    this.samplesInRow = 0
+    this.rowsDone++
+  }
+}
