@@ -1,0 +1,25 @@
+import type { RouteLocationRaw } from 'vue-router'
+import type { AppRouteName } from './route-names'
+
+export interface NavItem {
+  title: string
+  /** An mdi icon name. */
+  icon: string
+  to: RouteLocationRaw & { name: AppRouteName }
+  /** Shown only to site admins (e.g. the queue view). */
+  adminOnly?: boolean
+  /** Shown only when signed in. */
+  signedInOnly?: boolean
+}
+
+/**
+ * The drawer, top to bottom. One line per page; add yours when its route exists (in this order:
+ * Dashboard, New simulation, Runs, Sweeps, Traces, Waveguides, Group, Queue (admin)).
+ */
+export const navItems: NavItem[] = [
+  { title: 'Dashboard', icon: 'mdi-view-dashboard-outline', to: { name: 'dashboard' } },
+]
+
+export function visibleNavItems(items: NavItem[], who: { signedIn: boolean; admin: boolean }): NavItem[] {
+  return items.filter((i) => (!i.adminOnly || who.admin) && (!i.signedInOnly || who.signedIn))
+}

@@ -1,0 +1,32 @@
+import type { RouteRecordInfo } from 'vue-router'
+
+type NoParams = Record<never, never>
+
+/**
+ * Every named route and its params. Adding a route means one entry here, one in routes.ts and (if it belongs
+ * in the drawer) one line in nav.ts. With this map, `router.push({ name: 'typo' })` fails the type check.
+ */
+export interface RouteNamedMap {
+  dashboard: RouteRecordInfo<'dashboard', '/', NoParams, NoParams>
+  'sign-in': RouteRecordInfo<'sign-in', '/sign-in', NoParams, NoParams>
+  'not-found': RouteRecordInfo<
+    'not-found',
+    '/:pathMatch(.*)*',
+    { pathMatch: string | string[] },
+    { pathMatch: string[] }
+  >
+}
+
+export type AppRouteName = keyof RouteNamedMap
+
+declare module 'vue-router' {
+  interface TypesConfig {
+    RouteNamedMap: RouteNamedMap
+  }
+  interface RouteMeta {
+    /** Document title part; the app appends " · Sonoweave". */
+    title?: string
+    /** Reachable without signing in (sign-in itself, share links, not-found). */
+    public?: boolean
+  }
+}
