@@ -201,3 +201,13 @@ describe('grid summary and warnings', () => {
     }
   })
 })
+
+describe('grid from the shared step rules', () => {
+  it('uses chooseGrid when a config is given without a grid: Δz = v_g Δt tiles L', () => {
+    const cfg = chipConfig({ grid: { timeStepPs: 5 } })
+    const d = deriveQuantities({ waveguide: cfg.waveguide, config: cfg })
+    expect(d.grid!.nz * d.grid!.dzM).toBeCloseTo(0.05, 12)
+    expect(d.grid!.dzM / d.grid!.dtS).toBeCloseTo(299_792_458 / 2.44, 3)
+    expect(d.rows.map((r) => r.quantity)).toContain('spaceStepUm')
+  })
+})

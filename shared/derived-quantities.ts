@@ -5,6 +5,7 @@ import { pulseFeatureNs, type SimulationConfig } from './simulation-config'
 import type { Pulse } from './pulse'
 import { BOLTZMANN_J_PER_K, REDUCED_PLANCK_J_S, SPEED_OF_LIGHT_M_PER_S } from './physical-constants'
 import { DB_PER_NEPER_POWER, dbPerMToPerM } from './units'
+import { chooseGrid } from './grid-step'
 import { laserSafetyAdvisories, type Advisory } from './laser-safety'
 import { MIN_CELLS_PER_PULSE, physicsAdvisories } from './derived-warnings'
 export { DEFAULT_DISPERSION_PS2_PER_KM, MIN_CELLS_PER_PULSE } from './derived-warnings'
@@ -31,6 +32,7 @@ export interface DerivedInput {
   /** Pump power for G₀, Kerr phase and threshold checks; defaults to the largest pump power in the config. */
   pumpPowerW?: number
   material?: AcoustoOpticMaterial
+  /** The grid to report; by default the one chooseGrid picks for `config`. */
   grid?: GridSummary
   temperatureK?: number
 }
@@ -187,13 +189,17 @@ export function deriveQuantities(input: DerivedInput, options: DerivedOptions = 
     warnings: [],
   }
 
-  if (input.grid) {
+  const grid = input.grid ?? (cfg ? chooseGrid(cfg) : undefined)
+  if (grid) {
     const features = cfg ? allPulses(cfg).map(pulseFeatureNs) : []
     const shortestFeatureNs = features.length ? Math.min(...features) : undefined
     d.grid = {
-      ...input.grid,
+      dtS: grid.dtS,
+      dzM: grid.dzM,
+      nz: grid.nz,
+      nt: grid.nt,
       shortestFeatureNs,
-      cellsAcrossShortestPulse: shortestFeatureNs !== undefined ? (shortestFeatureNs * 1e-9) / input.grid.dtS : undefined,
+      cellsAcrossShortestPulse: shortestFeatureNs !== undefined ? (shortestFeatureNs * 1e-9) / grid.dtS : undefined,
     }
   }
 
