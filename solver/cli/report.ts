@@ -1,0 +1,40 @@
+// Human-readable lines printed by the CLI before and after a run.
+import type { ResourceEstimate } from '@shared/resource-estimate'
+import type { Advisory } from '@shared/laser-safety'
+import type { FiguresOfMerit } from '@shared/simulation-result'
+
+const sig = (x: number, p = 4) => x.toPrecision(p)
+const mib = (b: number) => `${(b / 1024 ** 2).toFixed(1)} MiB`
+
+export function estimateLines(e: ResourceEstimate): string[] {
+  return [
+    `grid: ${e.cells} cells × ${e.steps} steps, Δt = ${sig(e.timeStepPs)} ps, ${e.channels} channel(s)`,
+    `work: ${sig(e.cellUpdates, 3)} cell-updates, memory ≈ ${mib(e.memoryBytes.total)} ` +
+      `(state ${mib(e.memoryBytes.state)}, maps ${mib(e.memoryBytes.maps)}, traces ${mib(e.memoryBytes.traces)})`,
+    `expected time ≈ ${sig(e.expectedSeconds, 2)} s at ${sig(e.cellUpdatesPerS / 1e6, 3)} M cell-updates/s`,
+  ]
+}
+
+export function advisoryLines(advisories: Advisory[]): string[] {
+  return advisories.filter((a) => a.severity !== 'info').map((a) => `${a.severity === 'danger' ? 'DANGER' : 'warning'}: ${a.message}`)
+}
+
+const joule = (j: number) => `${sig(j, 4)} J`
+
+export function figureLines(f: FiguresOfMerit): string[] {
+  const lines: string[] = []
+  for (const ch of f.channels) {
+    const e = ch.energyJ
+    lines.push(`channel ${ch.channel + 1}: pump in ${joule(e.pumpIn)}, out ${joule(e.pumpOut)}; Stokes in ${joule(e.stokesIn)}, out ${joule(e.stokesOut)}`)
+    const extra: string[] = []
+    if (ch.peakStokesGainDb !== null) extra.push(`peak Stokes gain ${ch.peakStokesGainDb.toFixed(2)} dB`)
+    if (ch.reflectivity !== null) extra.push(`reflectivity ${sig(ch.reflectivity, 3)}`)
+    if (ch.retrievalEfficiency !== null) extra.push(`retrieval efficiency ${sig(ch.retrievalEfficiency, 4)}`)
+    if (ch.retrievedPhaseRad !== null) extra.push(`retrieved phase ${ch.retrievedPhaseRad.toFixed(3)} rad`)
+    if (ch.manleyRoweResidual !== null) extra.push(`Manley–Rowe residual ${ch.manleyRoweResidual.toExponential(1)}`)
+    if (extra.length) lines.push(`  ${extra.join(', ')}`)
+  }
+  for (const w of f.windows) lines.push(`window "${w.label}" (${w.port}, ${w.startNs}–${w.endNs} ns): ${joule(w.energyJ)}`)
+  lines.push(`wall time ${f.wallTimeS.toFixed(2)} s, ${sig(f.cellUpdatesPerS / 1e6, 3)} M cell-updates/s`)
+  return lines
+}
