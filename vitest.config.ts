@@ -17,6 +17,8 @@ export default defineConfig({
     include: ['{server,solver,shared,tests,src}/**/*.test.ts', 'src/**/*.spec.ts'],
     exclude: ['tests/e2e/**', 'node_modules/**'],
     reporters: ['default', new ClosingLine()],
+    // A throwaway migrated database for the run (tests/setup/global-db.ts).
+    globalSetup: ['tests/setup/global-db.ts'],
     testTimeout: 60_000,
     hookTimeout: 120_000,
     server: { deps: { inline: ['vuetify'] } },

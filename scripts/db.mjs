@@ -6,6 +6,7 @@
 //
 // PGPORT overrides the port (default 55433), so two checkouts on one machine need not clash.
 import { spawnSync } from 'node:child_process'
+import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync, appendFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { dirname, join, resolve } from 'node:path'
@@ -226,6 +227,12 @@ export function databaseExists(name, cluster = defaultCluster()) {
   return r.out === '1'
 }
 
+export function listDatabases(cluster = defaultCluster()) {
+  const r = psql('select datname from pg_database order by 1', cluster)
+  if (r.code !== 0) throw new DbScriptError(`could not reach PostgreSQL on port ${cluster.port}: ${lastLine(r.out)}`)
+  return r.out.split('\n').map((s) => s.trim()).filter(Boolean)
+}
+
 /** Returns true when it created the database, false when it was there already. */
 export function createDb(name, cluster = defaultCluster()) {
   if (databaseExists(name, cluster)) return false
@@ -239,6 +246,12 @@ export function dropDb(name, cluster = defaultCluster()) {
   if (name === APP_DB) throw new DbScriptError(`refusing to drop the app database ${APP_DB}`)
   const r = psql(`drop database if exists "${name}" with (force)`, cluster)
   if (r.code !== 0) throw new DbScriptError(`drop database ${name} failed: ${lastLine(r.out)}`)
+}
+
+/** A unique, sortable name for a throwaway test database: sonoweave_test_<utc time>_<random>. */
+export function testDatabaseName() {
+  const stamp = new Date().toISOString().replace(/[-:T]/g, '').slice(0, 14)
+  return `sonoweave_test_${stamp}_${randomBytes(3).toString('hex')}`
 }
 
 async function main(argv) {

@@ -148,3 +148,6 @@ export function loadDatabaseUrl(): string {
   if (!result.success) exitWith(result.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`))
   return result.data.DATABASE_URL ?? localClusterUrl(result.data.PGPORT)
 }
+
+// `node --import tsx server/env.ts` checks the configuration and prints nothing when it is fine.
+if (process.argv[1] === fileURLToPath(import.meta.url)) loadEnv()
