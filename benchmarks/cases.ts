@@ -1,0 +1,71 @@
+// Fixed benchmark problems. Grids are set through grid.timeStepPs: with Δz = v_g Δt the grid rule of
+// shared/grid-step.ts gives N_z = L/(v_g Δt) and N_t = T_window/Δt, so L and the window follow from N_z, N_t.
+import { SimulationConfig } from '@shared/simulation-config'
+import { SPEED_OF_LIGHT_M_PER_S } from '@shared/physical-constants'
+
+/** The physics brief's "chip" (physics.md §6): n_g = 2.44, G_B = 300 /(W m) via g_B/A_eff, ν_B = 7.7 GHz. */
+const CHIP = {
+  name: 'benchmark chip',
+  groupIndex: 2.44,
+  effectiveAreaUm2: 1,
+  gainCoefficientMPerW: 3e-10,
+  brillouinShiftGHz: 7.7,
+  linewidthMHz: 34,
+  wavelengthNm: 1550,
+}
+/** 1 ps satisfies Δt ≤ 1/(20 ν_B) = 6.5 ps, so the same grid serves the higher-order runs. */
+export const BENCH_STEP_PS = 1
+
+export interface BenchOptions {
+  higherOrderAcoustic?: boolean
+  noise?: boolean
+}
+
+/** A pulsed pump (1 W, 1 ns FWHM) crossing a CW Stokes seed: coupling active over much of the grid. */
+export function gridCase(nz: number, nt: number, o: BenchOptions = {}): SimulationConfig {
+  const dtS = BENCH_STEP_PS * 1e-12
+  const vg = SPEED_OF_LIGHT_M_PER_S / CHIP.groupIndex
+  const windowNs = nt * dtS * 1e9
+  return SimulationConfig.parse({
+    waveguide: { ...CHIP, lengthM: nz * vg * dtS },
+    channels: [
+      {
+        pump: { pulses: [{ shape: 'gaussian', peakPowerW: 1, centreNs: Math.min(5, windowNs / 2), fwhmNs: 1 }], backgroundPowerW: 0.01 },
+        stokes: { pulses: [], backgroundPowerW: 1e-3 },
+      },
+    ],
+    windowNs,
+    grid: { timeStepPs: BENCH_STEP_PS },
+    options: { higherOrderAcoustic: o.higherOrderAcoustic ?? false, noise: { enabled: o.noise ?? false, temperatureK: 295, seed: 7 } },
+  })
+}
+
+/** V4 of physics.md: chip, α = 0, Δν_B = 34 MHz, CW P₀ = 0.5 W, P_L = 1 mW, 150 ns (Tang 1966). */
+export function cwDepletionCase(timeStepPs: number): SimulationConfig {
+  return SimulationConfig.parse({
+    waveguide: { ...CHIP, lengthM: 0.05 },
+    channels: [{ pump: { pulses: [], backgroundPowerW: 0.5 }, stokes: { pulses: [], backgroundPowerW: 1e-3 } }],
+    windowNs: 150,
+    grid: { timeStepPs },
+  })
+}
+
+/**
+ * Exact lossless CW depletion (Tang 1966; physics.md §2): P_s(z) = b₀C e^{−G C z}/(1 − r b₀ e^{−G C z}) with
+ * C = P₀(1 − r b₀); b₀ solved by bisection from P_s(L) = P_L. Returns P_s(0) = b₀ P₀.
+ */
+export function exactDepletionStokesOutW(p0W: number, pLW: number, gainPerWM: number, lengthM: number, r: number): number {
+  const psAtL = (b0: number) => {
+    const c = p0W * (1 - r * b0)
+    const e = Math.exp(-gainPerWM * c * lengthM)
+    return (b0 * c * e) / (1 - r * b0 * e)
+  }
+  let lo = 0
+  let hi = 1 / r
+  for (let i = 0; i < 200; i++) {
+    const mid = 0.5 * (lo + hi)
+    if (psAtL(mid) < pLW) lo = mid
+    else hi = mid
+  }
+  return 0.5 * (lo + hi) * p0W
+}
