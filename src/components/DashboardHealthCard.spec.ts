@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises } from '@vue/test-utils'
 import DashboardHealthCard from './DashboardHealthCard.vue'
 import { mountWithApp, fakeFetch } from '@/test-utils/mount'
-import { getByRole } from '@/test-utils/by-role'
+import { getByRole, queryAllByRole } from '@/test-utils/by-role'
 
 afterEach(() => {
   vi.unstubAllGlobals()
@@ -27,6 +27,7 @@ describe('DashboardHealthCard', () => {
     expect(rows[1]).toMatch(/^Database up/)
     expect(rows[2]).toMatch(/^Job queue not attached/)
     expect(rows[3]).toBe('Version 0.1.0')
+    expect(wrapper.text()).toContain('all up')
   })
 
   it('reads a 503 as a reading with the database down, not as an error', async () => {
@@ -36,8 +37,10 @@ describe('DashboardHealthCard', () => {
     await flushPromises()
 
     const table = getByRole(wrapper.element, 'table', 'Service health')
-    expect(table.textContent).toMatch(/API\s*down/)
+    expect(table.textContent).toMatch(/API\s*up/)
     expect(table.textContent).toMatch(/Database\s*down/)
+    expect(wrapper.text()).toContain('degraded')
+    expect(queryAllByRole(wrapper.element, 'alert')).toHaveLength(0)
   })
 
   it('shows the API error message with a retry that asks again', async () => {

@@ -28,14 +28,14 @@ export const lightPalette: Palette = {
   surfaceMuted: '#e3e8e7',
   primary: '#0f4c55',
   secondary: '#31404a',
-  accent: '#b8652a',
+  accent: '#9e5423',
   success: '#2f6f4e',
   warning: '#9a6a12',
   error: '#a3372b',
   info: '#2e5f86',
   onSurface: '#1b2529',
   border: '#c7d0cf',
-  series: ['#0f4c55', '#b8652a', '#6a5a9c', '#2f6f4e', '#8a4a63'],
+  series: ['#0f4c55', '#c06a2b', '#6a5a9c', '#2f6f4e', '#8a4a63'],
 }
 
 export const darkPalette: Palette = {
