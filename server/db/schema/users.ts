@@ -11,6 +11,8 @@ export const users = pgTable(
     passwordHash: text('password_hash').notNull(),
     emailConfirmedAt: timestamp('email_confirmed_at', { withTimezone: true }),
     isAdmin: boolean('is_admin').notNull().default(false),
+    /** Mail me when a run or sweep of mine finishes (opt-out). */
+    notifyOnFinish: boolean('notify_on_finish').notNull().default(true),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('users_email_lower_key').on(sql`lower(${t.email})`)],
