@@ -1,0 +1,48 @@
+// Pulse envelopes shared by the solver (input sampling) and the browser (input preview).
+import type { Pulse } from './pulse'
+
+const LN2 = Math.LN2
+/** sech² power FWHM = 2·ln(1+√2)·T₀. */
+const SECH2_FWHM_PER_T0 = 2 * Math.log(1 + Math.SQRT2)
+/** A tanh edge (1+tanh(x/τ))/2 rises 10→90 % in 2·atanh(0.8)·τ = ln 9·τ. */
+const TANH_RISE_PER_TAU = Math.log(9)
+
+/** Real amplitude profile √(P(t)/P_peak) of a pulse, t in ns. */
+export function pulseAmplitude(p: Pulse, tNs: number): number {
+  const x = tNs - p.centreNs
+  switch (p.shape) {
+    case 'gaussian': {
+      // A = exp(−x²/2T²), power FWHM = 2√(ln2)·T
+      const T = p.fwhmNs / (2 * Math.sqrt(LN2))
+      return Math.exp((-x * x) / (2 * T * T))
+    }
+    case 'sech2': {
+      const T0 = p.fwhmNs / SECH2_FWHM_PER_T0
+      const y = Math.abs(x / T0)
+      return y > 700 ? 0 : 1 / Math.cosh(y)
+    }
+    case 'superGaussian': {
+      // power exp(−(x/T)^(2m)), FWHM = 2T(ln2)^(1/2m)
+      const m = p.order
+      const T = p.fwhmNs / (2 * Math.pow(LN2, 1 / (2 * m)))
+      return Math.exp(-0.5 * Math.pow(Math.abs(x / T), 2 * m))
+    }
+    case 'rectangular': {
+      const tau = p.riseNs / TANH_RISE_PER_TAU
+      const h = p.fwhmNs / 2
+      const power = 0.25 * (1 + Math.tanh((x + h) / tau)) * (1 - Math.tanh((x - h) / tau))
+      return Math.sqrt(Math.max(0, power))
+    }
+    case 'sampled': {
+      const n = p.powerShape.length
+      const peak = p.powerShape.reduce((a, b) => Math.max(a, b), 0)
+      if (peak <= 0) return 0
+      const pos = (x + ((n - 1) * p.sampleIntervalNs) / 2) / p.sampleIntervalNs
+      if (pos < 0 || pos > n - 1) return 0
+      const i = Math.min(n - 2, Math.floor(pos))
+      const f = pos - i
+      // Linear interpolation of power, not amplitude: the samples are measured powers.
+      return Math.sqrt(((1 - f) * p.powerShape[i] + f * p.powerShape[i + 1]) / peak)
+    }
+  }
+}
