@@ -190,6 +190,14 @@ describe('grid summary and warnings', () => {
     expect(got).not.toContain('damage-intensity')
   })
 
+  it('warns when a CW window is shorter than 20/Γ_B (physics.md §4)', () => {
+    // Γ_B = 2π·34 MHz → 20/Γ_B = 93.6 ns.
+    const short = chipConfig({ windowNs: 80 })
+    expect(codes(deriveQuantities({ waveguide: short.waveguide, config: short }))).toContain('short-cw-window')
+    const long = chipConfig({ windowNs: 100 })
+    expect(codes(deriveQuantities({ waveguide: long.waveguide, config: long }))).not.toContain('short-cw-window')
+  })
+
   it('every table row carries a finite value, a unit and a label', () => {
     const cfg = chipConfig()
     const d = deriveQuantities({ waveguide: cfg.waveguide, config: cfg, grid: { dtS: 5e-12, dzM: 6e-4, nz: 82, nt: 30000 } })

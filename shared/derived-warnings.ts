@@ -14,6 +14,8 @@ export const DISPERSION_LENGTH_FRACTION = 0.1
 export const MIN_CHANNEL_SPACING_LINEWIDTHS = 10
 /** The classical noise model misses spontaneous emission (n_th + 1) below about this temperature (physics.md §3). */
 export const CLASSICAL_NOISE_MIN_TEMPERATURE_K = 20
+/** A CW run reaches steady state after about 20/Γ_B, since b relaxes at Γ_B/2 (physics.md §4). */
+export const CW_STEADY_STATE_DECAY_TIMES = 20
 /** |β₂| ≈ 20 ps²/km, standard single-mode silica fibre at 1550 nm (from memory; Agrawal, Nonlinear Fiber Optics ch. 1). */
 export const DEFAULT_DISPERSION_PS2_PER_KM = 20
 /** Fewer time steps than this across the shortest pulse feature under-resolves it (physics.md §4 asks for ≥ 20). */
@@ -76,6 +78,13 @@ export function physicsAdvisories(
         })
       }
     }
+  }
+  if (pulses.length === 0 && cfg.windowNs * 1e-9 < CW_STEADY_STATE_DECAY_TIMES / d.gammaBRadPerS) {
+    out.push({
+      code: 'short-cw-window',
+      severity: 'warning',
+      message: `A CW steady state needs a window of at least 20/Γ_B = ${((CW_STEADY_STATE_DECAY_TIMES / d.gammaBRadPerS) * 1e9).toPrecision(3)} ns; the outputs at ${cfg.windowNs} ns are still settling.`,
+    })
   }
   const spacingLimitGHz = (MIN_CHANNEL_SPACING_LINEWIDTHS * w.linewidthMHz) / 1000
   for (let i = 0; i < cfg.channels.length; i++) {
