@@ -1,6 +1,8 @@
 /** Turns a pg connection failure into one sentence that says what to change. */
 export function describeDbError(err: unknown, databaseUrl: string): string {
-  const e = err as { code?: string; message?: string }
+  // Drizzle wraps the driver's error ("Failed query: …") and keeps the real one as `cause`.
+  let e = err as { code?: string; message?: string; cause?: unknown }
+  while (!e.code && e.cause) e = e.cause as typeof e
   let where = 'the database'
   try {
     const u = new URL(databaseUrl)
