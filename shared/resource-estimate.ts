@@ -10,14 +10,15 @@ export interface GridCounts {
 }
 
 /**
- * Throughput of the SVEA scheme on one core of the reference machine (cell-updates per second), as printed
- * by `npm run bench` (benchmarks/README.md). Slower options are expressed as factors of it.
+ * Throughput of the SVEA scheme on one core of the reference machine (cell-updates per second), from
+ * `npm run bench` on 2026-12-01 (benchmarks/README.md: 12–30 M/s on a loaded machine); set at the low-middle
+ * so expected times err long. Slower options are expressed as factors of it.
  */
-export const CELL_UPDATES_PER_S_SVEA = 30e6
-/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); from the benchmark. */
-export const SPEED_FACTOR_HIGHER_ORDER = 0.5
-/** Relative speed with thermal noise (one complex normal deviate per cell and step); from the benchmark. */
-export const SPEED_FACTOR_NOISE = 0.5
+export const CELL_UPDATES_PER_S_SVEA = 20e6
+/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.17–0.30. */
+export const SPEED_FACTOR_HIGHER_ORDER = 0.25
+/** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark: 0.20–0.32. */
+export const SPEED_FACTOR_NOISE = 0.25
 /** Relative speed with Kerr phases (two complex rotations per cell); estimate. */
 export const SPEED_FACTOR_KERR = 0.8
 
