@@ -4,46 +4,46 @@
  * seed gives the same sequence on every platform: only 32-bit integer ops and IEEE doubles are used.
  */
 export class SeededRandom {
-  private s0: number
-  private s1: number
-  private s2: number
-  private s3: number
+  // Int32Array state: values above 2³¹ would otherwise be boxed doubles in object fields (slow).
+  private readonly s = new Int32Array(4)
   private spare = 0
   private hasSpare = false
 
   constructor(seed: number) {
-    let x = seed >>> 0
+    let x = seed | 0
     const next = () => {
       // splitmix32
-      x = (x + 0x9e3779b9) >>> 0
+      x = (x + 0x9e3779b9) | 0
       let z = x
-      z = Math.imul(z ^ (z >>> 16), 0x85ebca6b) >>> 0
-      z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35) >>> 0
-      return (z ^ (z >>> 16)) >>> 0
+      z = Math.imul(z ^ (z >>> 16), 0x85ebca6b)
+      z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35)
+      return z ^ (z >>> 16)
     }
-    this.s0 = next()
-    this.s1 = next()
-    this.s2 = next()
-    this.s3 = next()
-    if ((this.s0 | this.s1 | this.s2 | this.s3) === 0) this.s0 = 1
+    for (let i = 0; i < 4; i++) this.s[i] = next()
+    if ((this.s[0] | this.s[1] | this.s[2] | this.s[3]) === 0) this.s[0] = 1
   }
 
-  nextUint32(): number {
-    const result = Math.imul(rotl(Math.imul(this.s1, 5), 7), 9) >>> 0
-    const t = this.s1 << 9
-    this.s2 ^= this.s0
-    this.s3 ^= this.s1
-    this.s1 ^= this.s2
-    this.s0 ^= this.s3
-    this.s2 ^= t
-    this.s3 = rotl(this.s3, 11)
+  /** Next 32 random bits as a signed int32 (xoshiro128**). */
+  nextInt32(): number {
+    const s = this.s
+    const s1 = s[1]
+    const m = Math.imul(s1, 5)
+    const result = Math.imul((m << 7) | (m >>> 25), 9)
+    const t = s1 << 9
+    s[2] ^= s[0]
+    s[3] ^= s[1]
+    s[1] ^= s[2]
+    s[0] ^= s[3]
+    s[2] ^= t
+    const s3 = s[3]
+    s[3] = (s3 << 11) | (s3 >>> 21)
     return result
   }
 
   /** Uniform in [0, 1) with 53 random bits. */
   uniform(): number {
-    const hi = this.nextUint32() >>> 5
-    const lo = this.nextUint32() >>> 6
+    const hi = this.nextInt32() >>> 5
+    const lo = this.nextInt32() >>> 6
     return (hi * 67108864 + lo) / 9007199254740992
   }
 
@@ -64,8 +64,4 @@ export class SeededRandom {
     this.hasSpare = true
     return u * f
   }
-}
-
-function rotl(x: number, k: number): number {
-  return ((x << k) | (x >>> (32 - k))) >>> 0
 }
