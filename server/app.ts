@@ -7,6 +7,9 @@ import { AppError } from './errors'
 import type { Logger } from './logger'
 import { apiNotFound, errorHandler } from './middleware/error-handler'
 import { requestContext } from './middleware/request-id'
+import { accountRoutes } from './modules/auth/account-routes'
+import { authenticate } from './modules/auth/auth.middleware'
+import type { AuthOptions } from './modules/auth/auth-options'
 import { healthRoutes } from './modules/health/health.routes'
 import type { QueueCheck } from './modules/health/health.service'
 import { APP_VERSION } from './version'
@@ -23,6 +26,8 @@ export interface AppDeps {
   distDir?: string
   /** Largest JSON body accepted; bigger bodies get 413. */
   jsonLimit?: string
+  /** Session secret, mailed-link origin and rate limits; tests and dev get a per-process secret. */
+  auth?: Partial<AuthOptions>
   /** Extra routers mounted under /api by later modules: [path, router]. */
   routes?: Array<[string, Router]>
 }
@@ -40,7 +45,10 @@ export function createApp(input: Omit<AppDeps, 'version'> & { version?: string }
   app.use(cookieParser())
 
   const api = express.Router()
+  // req.auth for every API route (session cookie or Bearer token); the policy checks read it.
+  api.use(authenticate(deps))
   api.use(healthRoutes(deps))
+  api.use(accountRoutes(deps))
   for (const [path, router] of deps.routes ?? []) api.use(path, router)
   // New modules mount their routers here (or pass them through deps.routes).
   api.use(apiNotFound)

@@ -1,0 +1,3 @@
+// The share service's public door for other modules.
+export { registerShareable, type Shareable } from './share-registry'
+export { resolveShare } from './shares.service'
