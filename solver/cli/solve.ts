@@ -113,7 +113,7 @@ export async function main(argv: string[]): Promise<number> {
       err('Interrupted while writing; nothing was written.')
       return EXIT.interrupted
     }
-    for (const w of result.manifest.warnings) out(`warning: ${w.message}`)
+    for (const w of result.manifest.warnings) out(`solver warning: ${w.message}`)
     if (result.manifest.figures) figureLines(result.manifest.figures).forEach(out)
     out(`wrote ${manifest.arrays.length} arrays and manifest.json to ${args.outDir}`)
     return EXIT.ok
