@@ -18,10 +18,10 @@ const config = (over: Partial<SimulationConfigInput> = {}) =>
   })
 
 describe('estimateResources', () => {
-  it('counts cell-updates as N_ch·N_z·N_t·N_real (physics.md §4)', () => {
+  it('counts cell-updates as N_ch·N_nodes·N_samples·N_real (physics.md §4), nodes = nz + 1, samples = nt + 1', () => {
     const two = config({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }] })
     const e = estimateResources(two, { dtS: 5e-12, nz: 2000, nt: 20000 }, 3)
-    expect(e.cellUpdates).toBe(2 * 2000 * 20000 * 3)
+    expect(e.cellUpdates).toBe(2 * 2001 * 20001 * 3)
     expect(e.expectedSeconds).toBeCloseTo(e.cellUpdates / CELL_UPDATES_PER_S_SVEA, 9)
   })
 
@@ -29,8 +29,8 @@ describe('estimateResources', () => {
     const c = config()
     const a = estimateResources(c, { dtS: 5e-12, nz: 1000, nt: 10000 })
     const b = estimateResources(c, { dtS: 5e-12, nz: 2000, nt: 20000 })
-    expect(b.memoryBytes.state).toBe(2 * a.memoryBytes.state)
-    expect(a.memoryBytes.state).toBe(1000 * STATE_BYTES_PER_CELL)
+    expect(b.memoryBytes.state / a.memoryBytes.state).toBeCloseTo(2, 2)
+    expect(a.memoryBytes.state).toBe(1001 * STATE_BYTES_PER_CELL)
     // Maps are capped at mapRows × mapCols (512 × 512 by default), so they stop growing.
     expect(b.memoryBytes.maps).toBe(a.memoryBytes.maps)
     expect(b.memoryBytes.total).toBeLessThan(2.1 * a.memoryBytes.total)
@@ -48,7 +48,7 @@ describe('checkLimits', () => {
   })
 
   it('refuses 4e10 cell-updates and proposes a halved window, a step √2 coarser and a halved guide', () => {
-    const e = estimateResources(config({ windowNs: 1000 }), { dtS: 10e-12, nz: 100_000, nt: 400_000 })
+    const e = estimateResources(config({ windowNs: 1000 }), { dtS: 10e-12, nz: 99_999, nt: 399_999 })
     const r = checkLimits(e)
     expect(r.ok).toBe(false)
     if (r.ok) return
@@ -67,7 +67,7 @@ describe('checkLimits', () => {
 
   it('proposes fewer channels when that is enough', () => {
     const c = config({ channels: [0, 5, 10, 15].map((offsetGHz) => ({ offsetGHz })) })
-    const r = checkLimits(estimateResources(c, { dtS: 5e-12, nz: 10_000, nt: 1_000_000 })) // 4e10
+    const r = checkLimits(estimateResources(c, { dtS: 5e-12, nz: 9_999, nt: 999_999 })) // 4e10
     expect(r.ok).toBe(false)
     if (!r.ok) expect(r.message).toMatch(/use 2 channels instead of 4/)
   })

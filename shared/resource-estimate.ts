@@ -30,8 +30,9 @@ export const STATE_BYTES_PER_CELL = 96
 export const STATE_BYTES_PER_CELL_HIGHER_ORDER = 32
 /** Full-resolution complex traces per channel: pump and Stokes in and out (4 × complex float64 per step). */
 export const TRACE_BYTES_PER_STEP = 4 * 16
-/** Pump power, Stokes power and acoustic energy maps, float64. */
+/** Pump power, Stokes power and acoustic energy maps, float32. */
 export const MAPS_PER_CHANNEL = 3
+export const MAP_BYTES_PER_PIXEL = 4
 
 export interface ResourceLimits {
   maxCellUpdates: number
@@ -40,6 +41,7 @@ export interface ResourceLimits {
 
 export const DEFAULT_RESOURCE_LIMITS: ResourceLimits = { maxCellUpdates: 2e10, maxMemoryBytes: 2 * 1024 ** 3 }
 
+/** Memory counts the run's own arrays, not the runtime (Node itself takes ~100 MiB RSS, benchmarks/README.md). */
 export interface ResourceEstimate {
   channels: number
   realisations: number
@@ -60,12 +62,15 @@ export interface ResourceEstimate {
 export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1): ResourceEstimate {
   const channels = config.channels.length
   const o = config.options
-  const cellUpdates = channels * realisations * grid.nz * grid.nt
+  // Counted like the solver's own counter: every node (nz + 1) at every time sample (nt + 1).
+  const nodes = grid.nz + 1
+  const samples = grid.nt + 1
+  const cellUpdates = channels * realisations * nodes * samples
   const stateBytesPerCell = STATE_BYTES_PER_CELL + (o.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
-  const state = channels * grid.nz * stateBytesPerCell
-  const maps = channels * MAPS_PER_CHANNEL * Math.min(grid.nt, config.grid.mapRows) * Math.min(grid.nz, config.grid.mapCols) * 8
+  const state = channels * nodes * stateBytesPerCell
+  const maps = channels * MAPS_PER_CHANNEL * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL
   // Axes (t and z, float64) count with the traces.
-  const traces = channels * grid.nt * TRACE_BYTES_PER_STEP + 8 * (grid.nt + grid.nz)
+  const traces = channels * samples * TRACE_BYTES_PER_STEP + 8 * (samples + nodes)
   const cellUpdatesPerS =
     CELL_UPDATES_PER_S_SVEA *
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
