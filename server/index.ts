@@ -7,6 +7,12 @@ import { describeDbError } from './db/describe-error'
 import { loadEnv, REPO_ROOT } from './env'
 import { createLogger } from './logger'
 import type { QueueCheck } from './modules/health/health.service'
+import type { Router } from 'express'
+import { notifyOnFinish } from './jobs/handlers/run-finished'
+import { startJobService } from './jobs/job-service'
+import { queueRoutes } from './modules/queue/queue.routes'
+import { RunEventRelay } from './modules/runs/run-event-relay'
+import { runsRoutes } from './modules/runs/runs.routes'
 
 const config = loadEnv()
 const log = createLogger(config.logLevel)
@@ -25,14 +31,26 @@ try {
 }
 
 // ---- job service (pg-boss + embedded worker): built by the jobs issue --------------------------
-// Start it here when config.embeddedWorker is true (config.workerCount solver threads), set
-// queueCheck so /api/health reports the queue, and push its stop() onto `stoppers` below so that
-// SIGTERM stops taking jobs before the HTTP server and the pool close.
-const queueCheck: QueueCheck | undefined = undefined
-const stoppers: Array<() => Promise<void>> = []
+// pg-boss and the watchdog always run here (the API enqueues, cancels and re-queues lost runs); the
+// embedded worker runs config.workerCount solver threads when config.embeddedWorker is true. SIGTERM
+// stops taking jobs (runs in hand go back to the queue) before the HTTP server and the pool close.
+const jobs = await startJobService({
+  databaseUrl: config.databaseUrl,
+  pool,
+  log,
+  threads: config.embeddedWorker ? config.workerCount : 0,
+  onFinished: notifyOnFinish({ db, log }),
+}).catch((err) => fail(`could not start the job queue: ${(err as Error).message}`))
+const relay = new RunEventRelay(pool)
+const queueCheck: QueueCheck | undefined = jobs.queueCheck
+const stoppers: Array<() => Promise<void>> = [jobs.stop, async () => relay.close()]
+const jobRoutes: Array<[string, Router]> = [
+  ['/runs', runsRoutes({ db, pool, log, boss: jobs.boss, relay })],
+  ['/queue', queueRoutes({ pool })],
+]
 // -------------------------------------------------------------------------------------------------
 
-const app = createApp({ db, pool, log, queueCheck, distDir: join(REPO_ROOT, 'dist') })
+const app = createApp({ db, pool, log, queueCheck, routes: jobRoutes, distDir: join(REPO_ROOT, 'dist') })
 
 const server: Server = app.listen(config.port, config.host)
 server.on('error', (err: NodeJS.ErrnoException) => {

@@ -1,0 +1,50 @@
+// The one place queue policy is declared. pg-boss 10 facts this relies on (docs/stack.md §6): it has no
+// heartbeat, expireIn is also a hard runtime limit (an expired handler is retried while it still runs),
+// createQueue does not update an existing queue's options, and send() to an unknown queue returns null.
+import PgBoss from 'pg-boss'
+
+export const RUN_QUEUE = 'solver-runs'
+
+export const RUN_QUEUE_OPTIONS = {
+  // pg-boss 10's ceiling (it refuses more than 24 h). Far longer than any run the resource limits admit
+  // (2e10 cell-updates ≈ 11 min on one core), so a healthy run is never cut off; lost workers are found
+  // by our own heartbeat instead (watchdog.ts).
+  expireInSeconds: 24 * 3600 - 60,
+  // Tries after the first when a worker is lost; a run that kills its worker every time ends failed.
+  retryLimit: 3,
+  retryDelay: 0,
+  retryBackoff: false,
+  // Finished jobs are only bookkeeping: the run row holds the outcome.
+  retentionDays: 7,
+} as const
+
+/** Most often a worker asks pg-boss for a job (s); 0.5 is pg-boss 10's minimum. */
+export const POLL_INTERVAL_S = 0.5
+
+export const DEFAULT_BOSS_SCHEMA = 'pgboss'
+
+export interface BossOptions {
+  databaseUrl: string
+  /** A separate pg-boss schema per test file keeps parallel test files from taking each other's jobs. */
+  schema?: string
+  applicationName?: string
+  /** Connections pg-boss may hold. */
+  max?: number
+}
+
+export function createBoss(o: BossOptions): PgBoss {
+  return new PgBoss({
+    connectionString: o.databaseUrl,
+    schema: o.schema ?? DEFAULT_BOSS_SCHEMA,
+    application_name: o.applicationName ?? 'sonoweave-queue',
+    max: o.max ?? 4,
+    // Expiry is not how we recover lost runs (the watchdog is), so maintenance need not be frequent.
+    maintenanceIntervalSeconds: 120,
+  })
+}
+
+/** Creates the queue when missing and applies the declared policy when it already exists. */
+export async function declareQueues(boss: PgBoss): Promise<void> {
+  await boss.createQueue(RUN_QUEUE, { name: RUN_QUEUE, ...RUN_QUEUE_OPTIONS })
+  await boss.updateQueue(RUN_QUEUE, { name: RUN_QUEUE, ...RUN_QUEUE_OPTIONS })
+}

@@ -1,0 +1,118 @@
+// A worker process's job side: takes runs from pg-boss (one work() loop per solver thread), listens for
+// cancels, reports itself in the workers table, and on stop hands its runs back to the queue.
+import { randomUUID } from 'node:crypto'
+import { hostname } from 'node:os'
+import type PgBoss from 'pg-boss'
+import type { Pool, PoolClient } from 'pg'
+import { RunJobPayload } from '@shared/runs'
+import type { Logger } from '../logger'
+import { RUN_CANCEL_CHANNEL } from '../modules/runs/run-events.repo'
+import { POLL_INTERVAL_S, RUN_QUEUE } from './queues'
+import { executeRun, type RunHandle, type RunOutcome } from './run-executor'
+import { releaseRun } from './requeue'
+
+/** How often the workers row is refreshed (the queue view counts workers seen in the last minute). */
+const PRESENCE_MS = 10_000
+
+export interface WorkerOptions {
+  boss: PgBoss
+  pool: Pool
+  log: Logger
+  threads: number
+  onFinished?: (outcome: RunOutcome) => void
+}
+
+export interface RunWorker {
+  id: string
+  /** Runs being computed now. */
+  busy: () => number
+  stop: () => Promise<void>
+}
+
+export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
+  const id = `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`
+  const log = o.log.child({ workerId: id })
+  const active = new Map<string, RunHandle>()
+  const jobs = new Map<string, string>()
+  let stopping = false
+
+  const presence = async () =>
+    o.pool.query(
+      `insert into workers (id, host, pid, threads, busy) values ($1, $2, $3, $4, $5)
+       on conflict (id) do update set busy = excluded.busy, last_seen_at = now()`,
+      [id, hostname(), process.pid, o.threads, active.size],
+    )
+  await presence()
+  const presenceTimer = setInterval(() => presence().catch((err) => log.warn({ err }, 'presence update failed')), PRESENCE_MS)
+
+  // Cancels reach us by NOTIFY so the solver stops within a second, not at the next heartbeat.
+  let listener: PoolClient | null = null
+  const listen = async () => {
+    try {
+      const c = await o.pool.connect()
+      c.on('notification', (n) => {
+        if (n.channel === RUN_CANCEL_CHANNEL && n.payload) active.get(n.payload)?.abort('cancelled')
+      })
+      c.on('error', () => {
+        c.release(true)
+        listener = null
+        if (!stopping) setTimeout(() => void listen(), 1_000)
+      })
+      await c.query(`listen ${RUN_CANCEL_CHANNEL}`)
+      listener = c
+    } catch (err) {
+      log.warn({ err }, 'listen for cancels failed; retrying')
+      if (!stopping) setTimeout(() => void listen(), 1_000)
+    }
+  }
+  await listen()
+
+  const handler = async ([job]: PgBoss.Job<unknown>[]) => {
+    const payload = RunJobPayload.safeParse(job.data)
+    if (!payload.success) {
+      // A job we cannot read will never become readable: complete it and say so in the log.
+      log.error({ jobId: job.id, issues: payload.error.issues }, 'unreadable run job dropped')
+      return
+    }
+    const runId = payload.data.runId
+    jobs.set(runId, job.id)
+    try {
+      const outcome = await executeRun({
+        pool: o.pool,
+        log,
+        runId,
+        jobId: job.id,
+        workerId: id,
+        track: (rid, handle) => (handle ? active.set(rid, handle) : active.delete(rid)),
+      })
+      if (outcome.status === 'succeeded' || outcome.status === 'failed') o.onFinished?.(outcome)
+    } finally {
+      jobs.delete(runId)
+      presence().catch(() => {})
+    }
+  }
+  for (let i = 0; i < o.threads; i++) {
+    await o.boss.work(RUN_QUEUE, { pollingIntervalSeconds: POLL_INTERVAL_S, batchSize: 1 }, handler)
+  }
+  log.info({ threads: o.threads }, 'worker started')
+
+  return {
+    id,
+    busy: () => active.size,
+    async stop() {
+      stopping = true
+      await o.boss.offWork(RUN_QUEUE)
+      // Runs in hand go back to the queue at once rather than waiting for the watchdog.
+      const inHand = [...active.values()]
+      for (const h of inHand) h.abort('shutdown')
+      for (const h of inHand) {
+        await releaseRun(o.pool, o.boss, h.runId, h.attempt, jobs.get(h.runId) ?? null, 'The worker was shut down').catch((err) =>
+          log.warn({ err, runId: h.runId }, 'could not hand a run back'),
+        )
+      }
+      clearInterval(presenceTimer)
+      await o.pool.query(`delete from workers where id = $1`, [id]).catch(() => {})
+      listener?.release()
+    },
+  }
+}

@@ -1,0 +1,36 @@
+import type { RunDetail, RunSummary } from '@shared/runs'
+import type { RunRow } from './runs.repo'
+
+const iso = (d: Date | null): string | null => (d ? d.toISOString() : null)
+
+export function toSummary(r: RunRow): RunSummary {
+  return {
+    id: r.id,
+    groupId: r.groupId,
+    authorId: r.authorId,
+    authorName: r.authorName,
+    title: r.title,
+    status: r.status,
+    progress: r.progress,
+    attempt: r.attempt,
+    error: r.error,
+    configHash: r.configHash,
+    solverVersion: r.solverVersion,
+    expectedSeconds: r.estimate?.expectedSeconds ?? null,
+    createdAt: r.createdAt.toISOString(),
+    startedAt: iso(r.startedAt),
+    finishedAt: iso(r.finishedAt),
+  }
+}
+
+export function toDetail(r: RunRow): RunDetail {
+  return {
+    ...toSummary(r),
+    notes: r.notes,
+    config: r.config,
+    figures: r.figures ?? null,
+    warnings: r.manifest?.warnings ?? [],
+    arrays: (r.manifest?.arrays ?? []).map(({ name, dtype, shape, units, description }) => ({ name, dtype, shape, units, description })),
+    heartbeatAt: iso(r.heartbeatAt),
+  }
+}
