@@ -25,6 +25,9 @@ export class SimulationRun {
   readonly traces: ChannelTraces[]
   readonly maps: MapRecorder
   readonly warnings: SolverWarning[]
+  /** Axes allocated up front: a large allocation at the end can trigger a full GC and delay an abort. */
+  readonly timeNs: Float64Array
+  readonly zM: Float64Array
   /** Next time index to integrate (0..nt). */
   n = 0
   private readonly rng: SeededRandom | null
@@ -46,6 +49,10 @@ export class SimulationRun {
     }))
     this.maps = new MapRecorder(mapLayout(m.nt, m.nodes, config.grid.mapRows, config.grid.mapCols), m, config.grid.mapReduction === 'max')
     this.warnings = preRunWarnings(config, m)
+    this.timeNs = new Float64Array(m.nt + 1)
+    for (let n = 0; n <= m.nt; n++) this.timeNs[n] = n * m.dtS * 1e9
+    this.zM = new Float64Array(m.nodes)
+    for (let j = 0; j < m.nodes; j++) this.zM[j] = j * m.dzM
     this.rng = config.options.noise.enabled ? new SeededRandom(config.options.noise.seed) : null
     this.forceGeneral = options.forceGeneralKernel ?? false
     this.fast = !this.forceGeneral && fastPathApplies(m)
