@@ -18,6 +18,8 @@ export interface NavItem {
  */
 export const navItems: NavItem[] = [
   { title: 'Dashboard', icon: 'mdi-view-dashboard-outline', to: { name: 'dashboard' } },
+  { title: 'New simulation', icon: 'mdi-plus-box-outline', to: { name: 'new-simulation' } },
+  { title: 'Waveguides', icon: 'mdi-sine-wave', to: { name: 'waveguides' } },
 ]
 
 export function visibleNavItems(items: NavItem[], who: { signedIn: boolean; admin: boolean }): NavItem[] {

@@ -9,6 +9,8 @@ type NoParams = Record<never, never>
 export interface RouteNamedMap {
   dashboard: RouteRecordInfo<'dashboard', '/', NoParams, NoParams>
   'sign-in': RouteRecordInfo<'sign-in', '/sign-in', NoParams, NoParams>
+  'new-simulation': RouteRecordInfo<'new-simulation', '/simulations/new', NoParams, NoParams>
+  waveguides: RouteRecordInfo<'waveguides', '/waveguides', NoParams, NoParams>
   'not-found': RouteRecordInfo<
     'not-found',
     '/:pathMatch(.*)*',

@@ -12,6 +12,18 @@ export const routes: AppRoute[] = [
     meta: { title: 'Dashboard' },
   },
   {
+    path: '/simulations/new',
+    name: 'new-simulation',
+    component: () => import('@/pages/NewSimulationPage.vue'),
+    meta: { title: 'New simulation' },
+  },
+  {
+    path: '/waveguides',
+    name: 'waveguides',
+    component: () => import('@/pages/WaveguidesPage.vue'),
+    meta: { title: 'Waveguides' },
+  },
+  {
     path: '/sign-in',
     name: 'sign-in',
     component: () => import('@/pages/SignInPage.vue'),

@@ -1,0 +1,30 @@
+// Number formatting for tables of physical quantities: four significant figures, powers of ten written out.
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
+
+export function formatNumber(x: number, digits = 4): string {
+  if (!Number.isFinite(x)) return String(x)
+  if (x === 0) return '0'
+  const a = Math.abs(x)
+  if (a >= 1e-3 && a < 1e6) return trimZeros(x.toPrecision(digits))
+  const [mant, exp] = x.toExponential(digits - 1).split('e')
+  const e = String(Number(exp)).split('').map((ch) => SUPERSCRIPT[ch] ?? ch).join('')
+  return `${trimZeros(mant)} × 10${e}`
+}
+
+function trimZeros(s: string): string {
+  if (!s.includes('.') || s.includes('e')) return s
+  return s.replace(/\.?0+$/, '')
+}
+
+export function formatBytes(bytes: number): string {
+  if (bytes < 1024 ** 2) return `${formatNumber(bytes / 1024, 3)} KiB`
+  if (bytes < 1024 ** 3) return `${formatNumber(bytes / 1024 ** 2, 3)} MiB`
+  return `${formatNumber(bytes / 1024 ** 3, 3)} GiB`
+}
+
+export function formatDuration(seconds: number): string {
+  if (seconds < 1) return `${formatNumber(seconds * 1000, 2)} ms`
+  if (seconds < 120) return `${formatNumber(seconds, 3)} s`
+  if (seconds < 7200) return `${formatNumber(seconds / 60, 3)} min`
+  return `${formatNumber(seconds / 3600, 3)} h`
+}
