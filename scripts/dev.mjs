@@ -20,8 +20,7 @@ if (!databaseUrl) {
   }
 }
 const env = { DATABASE_URL: databaseUrl, EMBEDDED_WORKER: process.env.EMBEDDED_WORKER ?? 'true' }
-if (runStep(null, process.execPath, [...TSX, 'server/db/migrate.ts'], env) !== 0) process.exit(1)
-if (runStep(null, process.execPath, [...TSX, 'server/db/seed.ts'], env) !== 0) process.exit(1)
+if (runStep(null, process.execPath, [...TSX, 'server/db/prepare.ts', '--seed'], env) !== 0) process.exit(1)
 
 // Each child leads its own process group: tsx watch and vite both fork, and a plain kill of the
 // parent would leave the real server running.

@@ -28,8 +28,7 @@ if (databaseUrl) {
 }
 const env = { DATABASE_URL: databaseUrl }
 
-if (runStep(null, process.execPath, [...TSX, 'server/db/migrate.ts'], env) !== 0) process.exit(1)
-if (runStep(null, process.execPath, [...TSX, 'server/db/seed.ts'], env) !== 0) process.exit(1)
+if (runStep(null, process.execPath, [...TSX, 'server/db/prepare.ts', '--seed'], env) !== 0) process.exit(1)
 if (clientBuildStale()) {
   if (runStep('build: client', process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']) !== 0) {
     fail('build: the client did not build (see above)')
