@@ -9,8 +9,8 @@ import { groups, memberships, users, type MembershipRole } from './schema'
 export const DEMO_GROUP = { name: 'Halden Acousto-Optics Lab', slug: 'halden-lab' } as const
 
 /** Demo sign-ins, also listed in README.md. Demo only: never reuse these anywhere real. */
-export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; name: string; password: string; role: MembershipRole }> = [
-  { email: 'ingrid@halden-lab.example', name: 'Ingrid Solvang', password: 'demo-password-1', role: 'owner' },
+export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; name: string; password: string; role: MembershipRole; isAdmin?: boolean }> = [
+  { email: 'ingrid@halden-lab.example', name: 'Ingrid Solvang', password: 'demo-password-1', role: 'owner', isAdmin: true },
   { email: 'tomas@halden-lab.example', name: 'Tomas Reyes', password: 'demo-password-2', role: 'editor' },
   { email: 'mei@halden-lab.example', name: 'Mei Okafor', password: 'demo-password-3', role: 'viewer' },
 ]
@@ -31,9 +31,12 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
         const passwordHash = await bcrypt.hash(account.password, BCRYPT_COST)
         ;[user] = await tx
           .insert(users)
-          .values({ email: account.email, name: account.name, passwordHash, emailConfirmedAt: new Date() })
+          .values({ email: account.email, name: account.name, passwordHash, emailConfirmedAt: new Date(), isAdmin: account.isAdmin ?? false })
           .returning()
         created++
+      } else if (account.isAdmin && !user.isAdmin) {
+        // Databases seeded before the admin flag existed get it too.
+        await tx.update(users).set({ isAdmin: true }).where(sql`${users.id} = ${user.id}`)
       }
       await tx.insert(memberships).values({ userId: user.id, groupId: group.id, role: account.role }).onConflictDoNothing()
     }

@@ -1,8 +1,12 @@
 import { Router } from 'express'
 import type { Db } from '../../db/client'
+import { groupsRoutes, invitationsRoutes } from '../groups/groups.routes'
+import { tokensRoutes } from '../tokens/tokens.routes'
+import { adminRoutes } from './admin.routes'
 import { devMailRoutes } from '../mail/dev-mail.routes'
 import { sharesRoutes } from '../shares/shares.routes'
-import type { AuthOptions } from './auth-options'
+import { resolveAuthOptions, type AuthOptions } from './auth-options'
+import { authRoutes, meRoutes } from './auth.routes'
 
 export interface AccountDeps {
   db: Db
@@ -12,7 +16,14 @@ export interface AccountDeps {
 /** Every accounts-related router under /api, mounted by createApp after `authenticate`. */
 export function accountRoutes(deps: AccountDeps): Router {
   const router = Router()
+  const opts = resolveAuthOptions(deps.auth)
+  router.use('/auth', authRoutes(deps, opts))
+  router.use('/me', meRoutes(deps))
+  router.use('/groups', groupsRoutes(deps, opts))
+  router.use('/invitations', invitationsRoutes(deps))
+  router.use('/tokens', tokensRoutes(deps))
   router.use('/shares', sharesRoutes(deps))
+  router.use('/admin', adminRoutes(deps))
   router.use('/dev/mail', devMailRoutes())
   return router
 }

@@ -1,0 +1,70 @@
+import { Router, type Request } from 'express'
+import { ConfirmEmailBody, PasswordResetCompleteBody, PasswordResetRequestBody, SignInBody, SignUpBody, UpdateMeBody } from '@shared/auth'
+import type { Db } from '../../db/client'
+import { validate } from '../../middleware/validate'
+import type { AuthOptions } from './auth-options'
+import { requireAuth } from './auth.middleware'
+import { checkCredentials, completePasswordReset, confirmEmail, requestPasswordReset, resendConfirmation, signUp, type LinkTo } from './auth.service'
+import { appLink } from './links'
+import { loadMe, toMeUser, updateMe } from './me.service'
+import { mailRequestLimiter, signInLimiter } from './rate-limit'
+import { clearSessionCookie, startSession } from './session-cookie'
+import { revokeSession } from './sessions.repo'
+
+/** /api/auth/*: sign-up, sign-in, sign-out, e-mail confirmation and password reset. */
+export function authRoutes(deps: { db: Db }, opts: AuthOptions): Router {
+  const router = Router()
+  const linkTo = (req: Request): LinkTo => (path, token) => appLink(opts, req, path, token)
+  const mailLimit = mailRequestLimiter(opts)
+
+  router.post('/sign-up', mailLimit, validate({ body: SignUpBody }), async (req, res) => {
+    res.status(202).json(await signUp(deps.db, req.log, linkTo(req), req.body))
+  })
+
+  router.post('/sign-in', signInLimiter(opts), validate({ body: SignInBody }), async (req, res) => {
+    const user = await checkCredentials(deps.db, req.body)
+    // A sign-in while signed in replaces the old session rather than leaving it live.
+    if (req.auth?.sessionId) await revokeSession(deps.db, req.auth.sessionId)
+    await startSession(deps.db, opts, req, res, user.id)
+    res.json({ user: toMeUser(user) })
+  })
+
+  router.post('/sign-out', async (req, res) => {
+    if (req.auth?.sessionId) await revokeSession(deps.db, req.auth.sessionId)
+    clearSessionCookie(req, res)
+    res.status(204).end()
+  })
+
+  router.post('/confirm-email', validate({ body: ConfirmEmailBody }), async (req, res) => {
+    await confirmEmail(deps.db, req.body.token)
+    res.json({ ok: true, message: 'Thank you: your address is confirmed.' })
+  })
+
+  router.post('/resend-confirmation', requireAuth, mailLimit, async (req, res) => {
+    res.status(202).json(await resendConfirmation(deps.db, req.log, linkTo(req), req.auth!.userId))
+  })
+
+  router.post('/password-reset/request', mailLimit, validate({ body: PasswordResetRequestBody }), async (req, res) => {
+    res.status(202).json(await requestPasswordReset(deps.db, req.log, linkTo(req), req.body.email))
+  })
+
+  router.post('/password-reset/complete', validate({ body: PasswordResetCompleteBody }), async (req, res) => {
+    await completePasswordReset(deps.db, req.body)
+    res.json({ ok: true, message: 'Your password is changed. Sign in with the new one.' })
+  })
+
+  return router
+}
+
+/** /api/me: who is signed in, with their groups and roles; PATCH for name and mail preference. */
+export function meRoutes(deps: { db: Db }): Router {
+  const router = Router()
+  router.use(requireAuth)
+  router.get('/', async (req, res) => {
+    res.set('Cache-Control', 'no-store').json(await loadMe(deps.db, req.auth!))
+  })
+  router.patch('/', validate({ body: UpdateMeBody }), async (req, res) => {
+    res.json(await updateMe(deps.db, req.auth!, req.body))
+  })
+  return router
+}

@@ -1,0 +1,36 @@
+import type { RequestHandler } from 'express'
+import { rateLimit } from 'express-rate-limit'
+import { AppError } from '../../errors'
+import type { AuthOptions } from './auth-options'
+
+function limited(message: string): RequestHandler {
+  return (_req, _res, next) => next(new AppError('rate_limited', 429, message))
+}
+
+/**
+ * Failed sign-ins per client address: the (limit+1)-th failure within a minute gets 429.
+ * Successful sign-ins do not count, so a lab sharing one address is not locked out by its own
+ * members. The store lives in this app instance (one process); several servers would need a
+ * shared store.
+ */
+export function signInLimiter(opts: AuthOptions): RequestHandler {
+  return rateLimit({
+    windowMs: 60_000,
+    limit: opts.signInFailuresPerMinute,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: limited('Too many failed sign-ins from your address; wait a minute and try again'),
+  })
+}
+
+/** Sign-ups and mailed links (confirmation, reset) per client address and hour: keeps us from mailing strangers in bulk. */
+export function mailRequestLimiter(opts: AuthOptions): RequestHandler {
+  return rateLimit({
+    windowMs: 3600_000,
+    limit: opts.mailRequestsPerHour,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: limited('Too many requests from your address; try again later'),
+  })
+}
