@@ -6,6 +6,7 @@ import { createDb, createPool } from './db/client'
 import { describeDbError } from './db/describe-error'
 import { loadEnv, REPO_ROOT } from './env'
 import { createLogger } from './logger'
+import { configureMailer, stopMailer } from './modules/mail/mailer'
 import type { QueueCheck } from './modules/health/health.service'
 import type { Router } from 'express'
 import { notifyOnFinish } from './jobs/handlers/run-finished'
@@ -50,7 +51,12 @@ const jobRoutes: Array<[string, Router]> = [
 ]
 // -------------------------------------------------------------------------------------------------
 
-const app = createApp({ db, pool, log, queueCheck, routes: jobRoutes, distDir: join(REPO_ROOT, 'dist') })
+// Mail: SMTP_URL, or the in-process catcher (listed at /api/dev/mail) when it is unset.
+await configureMailer({ smtpUrl: config.smtpUrl, log })
+stoppers.push(stopMailer)
+
+const auth = { jwtSecret: config.jwtSecret, appUrl: process.env.PUBLIC_URL || undefined }
+const app = createApp({ db, pool, log, queueCheck, routes: jobRoutes, auth, distDir: join(REPO_ROOT, 'dist') })
 
 const server: Server = app.listen(config.port, config.host)
 server.on('error', (err: NodeJS.ErrnoException) => {
