@@ -42,8 +42,11 @@ describe('scripts/db.mjs', () => {
   })
 
   afterAll(() => {
-    if (existsSync(join(cluster.dataDir, 'PG_VERSION'))) stop(cluster, { quiet: true })
-    rmSync(parent, { recursive: true, force: true })
+    try {
+      if (existsSync(join(cluster.dataDir, 'PG_VERSION'))) stop(cluster, { quiet: true })
+    } finally {
+      rmSync(parent, { recursive: true, force: true })
+    }
   })
 
   it.runIf(asRoot)('refuses, in one line, a folder the postgres user cannot enter', async () => {
