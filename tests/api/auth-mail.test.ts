@@ -1,0 +1,141 @@
+// Confirmation and reset flows end to end through the in-process SMTP catcher: the link is read
+// from the caught message and followed, as a person would.
+import { eq } from 'drizzle-orm'
+import request from 'supertest'
+import { afterAll, describe, expect, it } from 'vitest'
+import { createApp } from '../../server/app'
+import { passwordResets, users } from '../../server/db/schema'
+import { hashSecretToken } from '../../server/modules/auth/secret-token'
+import { mailCatcher, stopMailer } from '../../server/modules/mail/mailer'
+import { notifyRunFinished } from '../../server/modules/mail/notify'
+import { createUser, linkIn, signInOverHttp, TEST_JWT_SECRET, uniqueEmail } from './auth-helpers'
+import { silentLog, useTestDb } from './helpers'
+
+const { db, pool } = useTestDb()
+const app = createApp({ db, pool, log: silentLog, auth: { jwtSecret: TEST_JWT_SECRET, appUrl: 'http://sonoweave.test' } })
+afterAll(() => stopMailer())
+
+async function mailTo(address: string, subject: RegExp) {
+  const catcher = (await mailCatcher())!
+  return catcher.waitFor((m) => m.recipients.includes(address) && subject.test(m.subject))
+}
+
+describe('e-mail confirmation', () => {
+  it('mails a link on sign-up; following it confirms the address once', async () => {
+    const email = uniqueEmail('confirm')
+    await request(app).post('/api/auth/sign-up').send({ email, password: 'long enough pw' })
+
+    const mail = await mailTo(email, /Confirm your e-mail/)
+    const link = linkIn(mail.text, '/confirm-email')
+    const token = link.searchParams.get('token')!
+    const first = await request(app).post('/api/auth/confirm-email').send({ token })
+    const second = await request(app).post('/api/auth/confirm-email').send({ token })
+    const [row] = await db.select().from(users).where(eq(users.email, email))
+
+    expect(link.origin).toBe('http://sonoweave.test')
+    expect(first.status).toBe(200)
+    expect(second.status).toBe(400)
+    expect(second.body.error.code).toBe('invalid_token')
+    expect(row.emailConfirmedAt).not.toBeNull()
+  })
+
+  it('tells an existing account holder, not the stranger, when their address is signed up again', async () => {
+    const existing = await createUser(db)
+    await request(app).post('/api/auth/sign-up').send({ email: existing.email, password: 'someone elses pw' })
+
+    const mail = await mailTo(existing.email, /already have/)
+
+    expect(linkIn(mail.text, '/reset-password').searchParams.get('token')).toBeTruthy()
+  })
+})
+
+describe('password reset', () => {
+  it('resets through the mailed link: new password works, old does not, link is single-use, old sessions end', async () => {
+    const u = await createUser(db)
+    const oldSession = await signInOverHttp(app, u.email, u.password)
+
+    const asked = await request(app).post('/api/auth/password-reset/request').send({ email: u.email })
+    const mail = await mailTo(u.email, /Reset your Sonoweave password/)
+    const token = linkIn(mail.text, '/reset-password').searchParams.get('token')!
+    const done = await request(app).post('/api/auth/password-reset/complete').send({ token, password: 'a brand new password' })
+    const reused = await request(app).post('/api/auth/password-reset/complete').send({ token, password: 'another new password' })
+    const withOld = await request(app).post('/api/auth/sign-in').send({ email: u.email, password: u.password })
+    const withNew = await request(app).post('/api/auth/sign-in').send({ email: u.email, password: 'a brand new password' })
+    const oldSessionNow = await request(app).get('/api/me').set('Cookie', oldSession)
+
+    expect(asked.status).toBe(202)
+    expect(done.status).toBe(200)
+    expect(reused.status).toBe(400)
+    expect(withOld.status).toBe(401)
+    expect(withNew.status).toBe(200)
+    expect(oldSessionNow.status).toBe(401)
+  })
+
+  it('stores only a hash of the reset token', async () => {
+    const u = await createUser(db)
+    await request(app).post('/api/auth/password-reset/request').send({ email: u.email })
+    const token = linkIn((await mailTo(u.email, /Reset/)).text, '/reset-password').searchParams.get('token')!
+
+    const rows = await db.select().from(passwordResets).where(eq(passwordResets.userId, u.id))
+
+    expect(rows).toHaveLength(1)
+    expect(rows[0].tokenHash).toBe(hashSecretToken(token))
+    expect(JSON.stringify(rows)).not.toContain(token)
+  })
+
+  it('refuses an expired reset link', async () => {
+    const u = await createUser(db)
+    await request(app).post('/api/auth/password-reset/request').send({ email: u.email })
+    const token = linkIn((await mailTo(u.email, /Reset/)).text, '/reset-password').searchParams.get('token')!
+    await db.update(passwordResets).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(passwordResets.userId, u.id))
+
+    const res = await request(app).post('/api/auth/password-reset/complete').send({ token, password: 'a brand new password' })
+
+    expect(res.status).toBe(400)
+  })
+
+  it('answers a reset request for an unknown address exactly as for a known one, and mails nobody', async () => {
+    const known = await createUser(db)
+    const nobody = uniqueEmail('nobody')
+    const a = await request(app).post('/api/auth/password-reset/request').send({ email: known.email })
+    const b = await request(app).post('/api/auth/password-reset/request').send({ email: nobody })
+    await mailTo(known.email, /Reset/)
+
+    expect([a.status, b.status]).toEqual([202, 202])
+    expect(a.body).toEqual(b.body)
+    expect((await mailCatcher())!.messages().some((m) => m.recipients.includes(nobody))).toBe(false)
+  })
+})
+
+describe('run-finished notices', () => {
+  it('mails the author unless they opted out', async () => {
+    const keen = await createUser(db)
+    const quiet = await createUser(db)
+    await db.update(users).set({ notifyOnFinish: false }).where(eq(users.id, quiet.id))
+    const notice = { title: "Run 'Halden spool 2 km' succeeded", url: '/runs/abc', summary: 'The run finished in 3.2 s.' }
+
+    const sentKeen = await notifyRunFinished(db, keen.id, notice)
+    const sentQuiet = await notifyRunFinished(db, quiet.id, notice)
+    const mail = await mailTo(keen.email, /Finished/)
+
+    expect([sentKeen, sentQuiet]).toEqual([true, false])
+    expect(mail.subject).toBe("Finished: Run 'Halden spool 2 km' succeeded")
+    expect(mail.text).toContain('/runs/abc')
+    expect((await mailCatcher())!.messages().some((m) => m.recipients.includes(quiet.email))).toBe(false)
+  })
+})
+
+describe('GET /api/dev/mail', () => {
+  it('lists caught messages newest first outside production', async () => {
+    const u = await createUser(db)
+    await request(app).post('/api/auth/password-reset/request').send({ email: u.email })
+    await mailTo(u.email, /Reset/)
+
+    const res = await request(app).get('/api/dev/mail')
+
+    expect(res.status).toBe(200)
+    expect(res.body.catching).toBe(true)
+    expect(res.body.messages[0]).toMatchObject({ recipients: [u.email], subject: 'Reset your Sonoweave password' })
+    expect(res.body.messages[0].text).toContain('/reset-password?token=')
+  })
+})
