@@ -48,7 +48,7 @@ export class SimulationRun {
       stokesOut: new Float64Array(2 * (m.nt + 1)),
     }))
     this.maps = new MapRecorder(mapLayout(m.nt, m.nodes, config.grid.mapRows, config.grid.mapCols), m, config.grid.mapReduction === 'max')
-    this.warnings = preRunWarnings(config, m)
+    this.warnings = preRunWarnings(config, m, m.nodes - 1, m.nt)
     this.timeNs = new Float64Array(m.nt + 1)
     for (let n = 0; n <= m.nt; n++) this.timeNs[n] = n * m.dtS * 1e9
     this.zM = new Float64Array(m.nodes)

@@ -28,7 +28,7 @@ describe('higher-order acoustic option', () => {
 
   it('warns when a pulse is shorter than 5 acoustic periods in SVEA mode', () => {
     const r = simulateSync(chipConfig({ windowNs: 2, waveguide: { brillouinShiftGHz: 2 }, channels: [{ pump: { pulses: [gaussian(0.1, 1, 0.5)] } }] }))
-    expect(r.manifest.warnings.map((w) => w.code)).toContain('pulse-short-for-svea')
+    expect(r.manifest.warnings.map((w) => w.code)).toContain('svea-short-pulse')
   })
 
   it('refuses a user step longer than 1/(20 ν_B)', () => {

@@ -54,6 +54,6 @@ describe('thermal noise', () => {
 
   it('warns below 20 K that the classical model is approximate', () => {
     const r = simulateSync(chipConfig({ windowNs: 1, options: { noise: { enabled: true, temperatureK: 4, seed: 1 } } }))
-    expect(r.manifest.warnings.map((w) => w.code)).toContain('low-temperature-noise')
+    expect(r.manifest.warnings.map((w) => w.code)).toContain('cold-noise')
   })
 })
