@@ -18,7 +18,11 @@ export const PROGRESS_INTERVAL_MS = 1_000
 /** After the abort flag is set, the thread is terminated if it has not returned by then. */
 const ABORT_GRACE_MS = 500
 
-const THREAD_FILE = new URL('./solver-thread.ts', import.meta.url)
+const THREAD_FILE = new URL('./solver-thread.ts', import.meta.url).href
+// Node 20 does not apply `--import tsx` from a worker's execArgv to the worker's own module loading, so
+// the thread registers tsx's loader itself before importing the TypeScript entry.
+const TSX_API = import.meta.resolve('tsx/esm/api')
+const THREAD_BOOT = `import(${JSON.stringify(TSX_API)}).then(({ register }) => { register(); return import(${JSON.stringify(THREAD_FILE)}) })`
 
 export interface RunHandle {
   runId: string
@@ -67,8 +71,8 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   const startedAt = new Date()
   const abortFlag = new SharedArrayBuffer(4)
   const flag = new Int32Array(abortFlag)
-  const thread = new Worker(THREAD_FILE, {
-    execArgv: ['--import', 'tsx'],
+  const thread = new Worker(THREAD_BOOT, {
+    eval: true,
     workerData: { config, abortFlag } satisfies SolverThreadInput,
   })
   let stopReason: 'cancelled' | 'lost' | 'shutdown' | null = null

@@ -1,5 +1,5 @@
 // Runs one simulation in a worker thread, off the event loop that sends heartbeats and writes results.
-// Started by run-executor.ts with execArgv ['--import', 'tsx'] so this .ts file and its imports load.
+// Started by run-executor.ts, which registers tsx in the thread first so this .ts file and its imports load.
 import { parentPort, workerData } from 'node:worker_threads'
 import type { SimulationConfig } from '@shared/simulation-config'
 import { simulateSync, type MapFrame } from '../../solver/index'
