@@ -1,0 +1,127 @@
+// @vitest-environment happy-dom
+import { afterEach, describe, expect, it, vi } from 'vitest'
+import { defineComponent, h } from 'vue'
+import { flushPromises } from '@vue/test-utils'
+import { fakeFetch, mountWithApp } from '@/test-utils/mount'
+import { getByRole } from '@/test-utils/by-role'
+import { useSessionStore } from '@/stores/session'
+import NewSimulationPage from './NewSimulationPage.vue'
+
+// Canvas charts do not draw in happy-dom; the preview's own sampling is exercised through the page anyway.
+vi.mock('@/plugins/echarts', () => ({
+  VChart: defineComponent({ props: ['option'], setup: () => () => h('div', { 'data-chart': 'stub' }) }),
+  chartThemeName: () => 'test',
+}))
+
+const GROUP_ID = '7d3a5f0e-4a61-4c7e-9d9b-2f1a6c0b8e11'
+const RUN_ID = '0b6f1c2a-9e3d-4f5a-8b7c-1d2e3f4a5b6c'
+const me = {
+  user: { id: '1f0e2d3c-4b5a-4978-8695-a4b3c2d1e0f9', email: 'tomas.reyes@halden.example', displayName: 'Tomas Reyes' },
+  memberships: [{ groupId: GROUP_ID, groupName: 'Halden Acousto-Optics Lab', role: 'editor' }],
+  currentGroupId: GROUP_ID,
+}
+const run = {
+  id: RUN_ID,
+  groupId: GROUP_ID,
+  authorId: me.user.id,
+  authorName: 'Tomas Reyes',
+  title: 'Store and retrieve on a chip',
+  status: 'queued',
+  progress: 0,
+  attempt: 0,
+  error: null,
+  configHash: 'abc',
+  solverVersion: '0.1.0',
+  expectedSeconds: 0.02,
+  createdAt: '2026-12-01T10:00:00.000Z',
+  startedAt: null,
+  finishedAt: null,
+}
+
+afterEach(() => {
+  vi.unstubAllGlobals()
+  document.body.innerHTML = ''
+})
+
+async function mountSignedIn() {
+  const net = fakeFetch({ 'GET /api/me': { body: me }, 'POST /api/runs': { status: 202, body: run } })
+  vi.stubGlobal('fetch', net.fn)
+  const mounted = await mountWithApp(NewSimulationPage, { path: '/simulations/new' })
+  await useSessionStore().load()
+  await flushPromises()
+  return { ...mounted, net }
+}
+
+async function typeInto(input: HTMLElement, text: string) {
+  const el = input as HTMLInputElement
+  el.value = text
+  el.dispatchEvent(new Event('input'))
+  await flushPromises()
+}
+
+const submitButton = (root: Element) => getByRole(root, 'button', 'Queue run') as HTMLButtonElement
+const stokesRow = (root: Element, n: number) => root.querySelector(`li[aria-label="Stokes pulse ${n}"]`)!
+
+describe('NewSimulationPage validation', () => {
+  it('starts from a valid example with submit enabled for an editor', async () => {
+    const { wrapper } = await mountSignedIn()
+
+    expect(submitButton(wrapper.element).disabled).toBe(false)
+    expect(wrapper.text()).toContain('Cells along z × time steps')
+  })
+
+  it('shows the schema message beside a negative peak power and blocks submit until it is corrected', async () => {
+    const { wrapper, net } = await mountSignedIn()
+    const power = getByRole(stokesRow(wrapper.element, 1), 'textbox', 'Peak power')
+
+    await typeInto(power, '-1')
+
+    // shared/pulse.ts: peakPowerW = finite().min(0) → zod's own message.
+    expect(power.closest('.v-input')!.textContent).toContain('Too small: expected number to be >=0')
+    expect(submitButton(wrapper.element).disabled).toBe(true)
+    expect(wrapper.text()).toMatch(/Stokes pulse 1, peak power: Too small/)
+    submitButton(wrapper.element).click()
+    await flushPromises()
+    expect(net.calls.some((c) => c.method === 'POST')).toBe(false)
+
+    await typeInto(power, '10')
+    expect(submitButton(wrapper.element).disabled).toBe(false)
+  })
+
+  it('flags a pulse centred outside the window with the cross-field message of the shared config', async () => {
+    const { wrapper } = await mountSignedIn()
+    const centre = getByRole(stokesRow(wrapper.element, 2), 'textbox', 'Centre t₀')
+
+    await typeInto(centre, '40')
+
+    expect(centre.closest('.v-input')!.textContent).toContain('The pulse centre must lie inside the simulated window, 0 to 6 ns')
+    expect(submitButton(wrapper.element).disabled).toBe(true)
+  })
+
+  it('queues the run for the current group and leaves the form', async () => {
+    const { wrapper, net, router } = await mountSignedIn()
+
+    submitButton(wrapper.element).click()
+    await flushPromises()
+
+    const post = net.calls.find((c) => c.method === 'POST' && c.url === '/api/runs')
+    expect(post).toBeDefined()
+    const body = JSON.parse(String(post!.init!.body))
+    expect(body.groupId).toBe(GROUP_ID)
+    expect(body.title).toBe('Store and retrieve on a chip')
+    expect(body.config.channels[0].stokes.pulses.map((p: { label: string }) => p.label)).toEqual(['write', 'read'])
+    // The run page comes with the run views; until its route exists the form lands on the dashboard.
+    await vi.waitFor(() => expect(router.currentRoute.value.name).toBe(router.hasRoute('run') ? 'run' : 'dashboard'))
+  })
+
+  it('keeps submit disabled for a viewer and says why', async () => {
+    const net = fakeFetch({ 'GET /api/me': { body: { ...me, memberships: [{ ...me.memberships[0], role: 'viewer' }] } } })
+    vi.stubGlobal('fetch', net.fn)
+    const { wrapper } = await mountWithApp(NewSimulationPage, { path: '/simulations/new' })
+    await useSessionStore().load()
+    await flushPromises()
+
+    expect(submitButton(wrapper.element).disabled).toBe(true)
+    expect(wrapper.text()).toContain('editors and owners queue runs')
+  })
+})
