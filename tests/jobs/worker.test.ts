@@ -122,7 +122,7 @@ describe('a run through a real worker process', () => {
 
   it('serves a small array as JSON on request', async () => {
     const res = await api(`/runs/${finishedRunId}/arrays/z_m?format=json`)
-    const body = await res.json()
+    const body = (await res.json()) as { units: string; data: number[] }
 
     expect(res.status).toBe(200)
     expect(body.units).toBe('m')
