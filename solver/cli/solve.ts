@@ -74,7 +74,9 @@ export async function main(argv: string[]): Promise<number> {
   const grid = chooseGrid(config)
   const estimate = estimateResources(config, grid)
   estimateLines(estimate).forEach(out)
-  advisoryLines(deriveQuantities({ waveguide: config.waveguide, config, grid }).warnings).forEach(out)
+  const advisories = deriveQuantities({ waveguide: config.waveguide, config, grid }).warnings
+  advisoryLines(advisories).forEach(out)
+  const shownCodes = new Set(advisories.map((a) => a.code))
   const limits = checkLimits(estimate)
   if (!limits.ok) {
     err(`Refused: ${limits.message}`)
@@ -113,7 +115,8 @@ export async function main(argv: string[]): Promise<number> {
       err('Interrupted while writing; nothing was written.')
       return EXIT.interrupted
     }
-    for (const w of result.manifest.warnings) out(`solver warning: ${w.message}`)
+    // The pre-run cautions were printed above; only what the outputs revealed is new.
+    for (const w of result.manifest.warnings) if (!shownCodes.has(w.code)) out(`warning: ${w.message}`)
     if (result.manifest.figures) figureLines(result.manifest.figures).forEach(out)
     out(`wrote ${manifest.arrays.length} arrays and manifest.json to ${args.outDir}`)
     return EXIT.ok
