@@ -1,10 +1,11 @@
 import { sql } from 'drizzle-orm'
-import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { index, integer, jsonb, type AnyPgColumn, pgEnum, pgTable, real, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import type { RunManifest } from '../../../solver/io/manifest'
 import type { FiguresOfMerit } from '@shared/simulation-result'
 import type { ResourceEstimate } from '@shared/resource-estimate'
 import type { SimulationConfig } from '@shared/simulation-config'
 import { groups } from './groups'
+import { sweeps } from './sweeps'
 import { users } from './users'
 
 export const runStatus = pgEnum('run_status', ['queued', 'running', 'succeeded', 'failed', 'cancelled'])
@@ -38,6 +39,10 @@ export const runs = pgTable(
     estimate: jsonb('estimate').$type<ResourceEstimate>(),
     figures: jsonb('figures').$type<FiguresOfMerit>(),
     manifest: jsonb('manifest').$type<RunManifest>(),
+    /** Set when the run is a point of a parameter sweep (server/modules/sweeps); null for single runs. */
+    sweepId: uuid('sweep_id').references((): AnyPgColumn => sweeps.id, { onDelete: 'cascade' }),
+    /** The point's index in its sweep; a re-run adds a newer run with the same index. */
+    sweepPoint: integer('sweep_point'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     startedAt: timestamp('started_at', { withTimezone: true }),
     finishedAt: timestamp('finished_at', { withTimezone: true }),
@@ -47,6 +52,7 @@ export const runs = pgTable(
     index('runs_group_created_idx').on(t.groupId, t.createdAt),
     // The watchdog's scan: running rows by heartbeat age.
     index('runs_status_heartbeat_idx').on(t.status, t.heartbeatAt),
+    index('runs_sweep_point_idx').on(t.sweepId, t.sweepPoint),
     uniqueIndex('runs_author_idempotency_key').on(t.authorId, t.idempotencyKey).where(sql`${t.idempotencyKey} is not null`),
   ],
 )

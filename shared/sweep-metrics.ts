@@ -1,0 +1,65 @@
+// The figures of merit a sweep plots and exports per point, read from each run's stored figures
+// (shared/simulation-result.ts) plus the energy windows the configuration defines.
+import type { ChannelFigures, FiguresOfMerit } from './simulation-result'
+import type { SimulationConfig } from './simulation-config'
+import type { MetricColumn } from './sweeps'
+
+interface ChannelMetric {
+  key: string
+  label: string
+  unit: string
+  pick: (c: ChannelFigures) => number | null
+}
+
+/** Per channel; the energy balance is the Manley–Rowe residual plus the output energies it is made of. */
+export const CHANNEL_METRICS: readonly ChannelMetric[] = [
+  { key: 'retrievalEfficiency', label: 'Retrieval efficiency', unit: '1', pick: (c) => c.retrievalEfficiency },
+  { key: 'pumpDelayNs', label: 'Pump delay', unit: 'ns', pick: (c) => c.pumpDelayNs },
+  { key: 'stokesDelayNs', label: 'Stokes delay', unit: 'ns', pick: (c) => c.stokesDelayNs },
+  { key: 'pumpOutFwhmNs', label: 'Pump output width', unit: 'ns', pick: (c) => c.pumpOutFwhmNs },
+  { key: 'stokesOutFwhmNs', label: 'Stokes output width', unit: 'ns', pick: (c) => c.stokesOutFwhmNs },
+  { key: 'peakStokesGainDb', label: 'Peak Stokes gain', unit: 'dB', pick: (c) => c.peakStokesGainDb },
+  { key: 'reflectivity', label: 'Reflectivity', unit: '1', pick: (c) => c.reflectivity },
+  { key: 'manleyRoweResidual', label: 'Energy balance residual', unit: '1', pick: (c) => c.manleyRoweResidual },
+  { key: 'pumpOutEnergyJ', label: 'Pump output energy', unit: 'J', pick: (c) => c.energyJ.pumpOut },
+  { key: 'stokesOutEnergyJ', label: 'Stokes output energy', unit: 'J', pick: (c) => c.energyJ.stokesOut },
+]
+
+const WINDOW_PREFIX = 'window:'
+
+/** Columns for a sweep of this base configuration: channel metrics (prefixed chN. with several channels), then windows. */
+export function metricColumns(config: Pick<SimulationConfig, 'channels' | 'energyWindows'>): MetricColumn[] {
+  const many = config.channels.length > 1
+  const cols: MetricColumn[] = []
+  config.channels.forEach((_, ci) => {
+    for (const m of CHANNEL_METRICS) {
+      cols.push({ key: many ? `ch${ci + 1}.${m.key}` : m.key, label: many ? `${m.label} (channel ${ci + 1})` : m.label, unit: m.unit })
+    }
+  })
+  for (const w of config.energyWindows) cols.push({ key: `${WINDOW_PREFIX}${w.label}`, label: `Energy in “${w.label}” (${w.port})`, unit: 'J' })
+  return cols
+}
+
+const finiteOrNull = (x: number | null | undefined) => (typeof x === 'number' && Number.isFinite(x) ? x : null)
+
+/** One point's values by column key; every column present, null where the run gives nothing. */
+export function reduceFigures(figures: FiguresOfMerit | null, columns: MetricColumn[]): Record<string, number | null> {
+  const out: Record<string, number | null> = {}
+  for (const col of columns) {
+    if (!figures) {
+      out[col.key] = null
+      continue
+    }
+    if (col.key.startsWith(WINDOW_PREFIX)) {
+      const label = col.key.slice(WINDOW_PREFIX.length)
+      out[col.key] = finiteOrNull(figures.windows.find((w) => w.label === label)?.energyJ)
+      continue
+    }
+    const m = /^ch(\d+)\.(.+)$/.exec(col.key)
+    const ci = m ? Number(m[1]) - 1 : 0
+    const metric = CHANNEL_METRICS.find((x) => x.key === (m ? m[2] : col.key))
+    const ch = figures.channels.find((c) => c.channel === ci) ?? figures.channels[ci]
+    out[col.key] = metric && ch ? finiteOrNull(metric.pick(ch)) : null
+  }
+  return out
+}
