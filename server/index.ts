@@ -14,6 +14,7 @@ import { startJobService } from './jobs/job-service'
 import { queueRoutes } from './modules/queue/queue.routes'
 import { RunEventRelay } from './modules/runs/run-event-relay'
 import { runsRoutes } from './modules/runs/runs.routes'
+import { startSweeps } from './modules/sweeps'
 
 const config = loadEnv()
 const log = createLogger(config.logLevel)
@@ -50,6 +51,11 @@ const jobRoutes: Array<[string, Router]> = [
   ['/queue', queueRoutes({ pool })],
 ]
 // -------------------------------------------------------------------------------------------------
+
+// Parameter sweeps: their routes and the feeder that hands sweep points to the queue (modules/sweeps).
+const sweeps = await startSweeps({ db, pool, log, boss: jobs.boss })
+jobRoutes.push(['/sweeps', sweeps.routes])
+stoppers.unshift(sweeps.stop)
 
 // Mail: SMTP_URL, or the in-process catcher (listed at /api/dev/mail) when it is unset.
 await configureMailer({ smtpUrl: config.smtpUrl, log })

@@ -1,0 +1,125 @@
+// Sweep use cases: estimate, create (validate every point, check the whole sweep against the limits, store the
+// sweep and its point runs), read, cancel the remaining points, re-run failed points. Authorisation follows
+// the sweep's group, as for runs.
+import type PgBoss from 'pg-boss'
+import type { Pool } from 'pg'
+import { estimateResources } from '@shared/resource-estimate'
+import { chooseGrid } from '@shared/grid-step'
+import { axisLabel, axisValues, type SweepCreate, type SweepDefinition, type SweepDetail, type SweepEstimateResponse, type SweepList, type SweepListQuery } from '@shared/sweeps'
+import { buildSweepPoints, checkSweepLimits, DEFAULT_SWEEP_LIMITS, estimateSweep, type BuiltPoint, type SweepLimits } from '@shared/sweep-points'
+import type { Db } from '../../db/client'
+import { AppError, conflict, notFound } from '../../errors'
+import type { Logger } from '../../logger'
+import { RUN_QUEUE } from '../../jobs/queues'
+import { groupRoleOf, requireGroupRole, type Role } from '../../policy/access'
+import { isUuid } from '../../policy/ids'
+import type { AuthContext } from '../auth/auth-context'
+import { resolveShare } from '../shares'
+import type { SweepFeeder } from './sweep-feeder'
+import { pointValues, toSweepDetail, toSweepSummary } from './sweeps.mapper'
+import { cancelSweepRuns, findSweep, insertSweep, listSweeps, pointRuns, rerunFailedPoints, type NewPointRun, type SweepRow } from './sweeps.repo'
+
+export interface SweepsDeps {
+  db: Db
+  pool: Pool
+  boss: PgBoss
+  log: Logger
+  feeder: Pick<SweepFeeder, 'poke'>
+  limits?: SweepLimits
+}
+
+/** The sweep if the caller may act on it with `minRole`; a share token stands in for the viewer role. */
+export async function sweepFor(deps: SweepsDeps, auth: AuthContext | undefined, id: string, minRole: Role, shareToken?: unknown): Promise<SweepRow> {
+  const sweep = isUuid(id) ? await findSweep(deps.pool, id) : null
+  if (!sweep) throw notFound('Sweep')
+  if (minRole === 'viewer' && typeof shareToken === 'string') {
+    const member = auth ? await groupRoleOf(deps.db, auth.userId, sweep.groupId) : null
+    if (member || (await resolveShare(deps.db, shareToken, 'sweep', sweep.id, auth))) return sweep
+    throw notFound('Sweep')
+  }
+  await requireGroupRole(deps.db, auth, sweep.groupId, minRole, 'Sweep')
+  return sweep
+}
+
+/** Points of a definition, or a 400 with the field paths of what is wrong (a missing label, an invalid point). */
+function pointsOf(def: SweepDefinition): { points: BuiltPoint[] } {
+  const built = buildSweepPoints(def)
+  if (!built.ok) throw new AppError('invalid_input', 400, 'Some sweep points are not valid runs', { fields: built.issues })
+  return { points: built.points }
+}
+
+export function estimateSweepFor(deps: Pick<SweepsDeps, 'limits'>, def: SweepDefinition): SweepEstimateResponse {
+  const limits = deps.limits ?? DEFAULT_SWEEP_LIMITS
+  const { points } = pointsOf(def)
+  const check = checkSweepLimits(points, limits)
+  return {
+    estimate: estimateSweep(points).total,
+    ok: check.ok,
+    message: check.ok ? null : check.message,
+    limits: { maxTotalCellUpdates: limits.maxTotalCellUpdates, maxCellUpdatesPerPoint: limits.run.maxCellUpdates, maxPoints: limits.maxPoints },
+  }
+}
+
+const pointTitle = (title: string, def: SweepDefinition, p: { index: number; values: number[] }) =>
+  `${title} · point ${p.index} (${def.axes.map((a, i) => `${axisLabel(a).replace(/ \(.*\)$/, '')} = ${p.values[i]}`).join(', ')})`.slice(0, 200)
+
+const newPointRun = (title: string, def: SweepDefinition, p: BuiltPoint): NewPointRun => ({
+  point: p.index,
+  title: pointTitle(title, def, p),
+  config: p.config,
+  estimate: estimateResources(p.config, chooseGrid(p.config)),
+})
+
+export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefined, input: SweepCreate): Promise<SweepDetail> {
+  await requireGroupRole(deps.db, auth, input.groupId, 'editor', 'Group')
+  const limits = deps.limits ?? DEFAULT_SWEEP_LIMITS
+  const { points } = pointsOf(input)
+  const check = checkSweepLimits(points, limits)
+  const total = estimateSweep(points).total
+  if (!check.ok) {
+    throw new AppError('over_limit', 422, check.message, { reasons: check.reasons, totalCellUpdates: total.cellUpdates, limitCellUpdates: limits.maxTotalCellUpdates, points: total.points })
+  }
+  const id = await insertSweep(
+    deps.pool,
+    { groupId: input.groupId, authorId: auth!.userId, title: input.title, notes: input.notes, baseConfig: input.baseConfig, axes: input.axes, estimate: total },
+    points.map((p) => newPointRun(input.title, input, p)),
+  )
+  deps.feeder.poke()
+  return getSweep(deps, auth, id)
+}
+
+export async function getSweep(deps: SweepsDeps, auth: AuthContext | undefined, id: string, shareToken?: unknown): Promise<SweepDetail> {
+  const sweep = await sweepFor(deps, auth, id, 'viewer', shareToken)
+  return toSweepDetail(sweep, await pointRuns(deps.pool, sweep.id))
+}
+
+export async function listSweepsFor(deps: SweepsDeps, auth: AuthContext | undefined, q: SweepListQuery): Promise<SweepList> {
+  if (q.groupId) await requireGroupRole(deps.db, auth, q.groupId, 'viewer', 'Group')
+  const { rows, total } = await listSweeps(deps.pool, auth!.userId, q)
+  return { items: rows.map(toSweepSummary), total, page: q.page, pageSize: q.pageSize }
+}
+
+/** No further point starts; running points stop within a second (their workers hear the cancel); finished ones stay. */
+export async function cancelSweep(deps: SweepsDeps, auth: AuthContext | undefined, id: string): Promise<SweepDetail> {
+  const sweep = await sweepFor(deps, auth, id, 'editor')
+  const done = await cancelSweepRuns(deps.pool, sweep.id)
+  if (!done) throw conflict(`The sweep has already ${sweep.status === 'cancelled' ? 'been cancelled' : 'finished'}`)
+  if (done.jobIds.length) await deps.boss.cancel(RUN_QUEUE, done.jobIds).catch((err) => deps.log.warn({ err, sweepId: sweep.id }, 'pg-boss cancel failed'))
+  return getSweep(deps, auth, sweep.id)
+}
+
+/** A new run for each point whose newest run failed; 409 when none failed. */
+export async function rerunFailed(deps: SweepsDeps, auth: AuthContext | undefined, id: string): Promise<SweepDetail> {
+  const sweep = await sweepFor(deps, auth, id, 'editor')
+  const def = { baseConfig: sweep.baseConfig, axes: sweep.axes }
+  const values = def.axes.map((a) => axisValues(a.values))
+  const n = await rerunFailedPoints(deps.pool, sweep, auth!.userId, (index) => {
+    const at = pointValues(values, index)
+    const built = buildSweepPoints({ ...def, axes: def.axes.map((a, i) => ({ ...a, values: { kind: 'list' as const, values: [at[i]] } })) })
+    if (!built.ok) throw new AppError('invalid_input', 400, `Point ${index} is no longer a valid run: ${built.issues[0].message}`)
+    return newPointRun(sweep.title, def, { ...built.points[0], index })
+  })
+  if (n === 0) throw conflict('No point of this sweep has failed')
+  deps.feeder.poke()
+  return getSweep(deps, auth, sweep.id)
+}
