@@ -53,8 +53,8 @@ export const MeUser = z.object({
   email: z.string(),
   displayName: z.string().optional(),
   isAdmin: z.boolean().default(false),
-  emailConfirmed: z.boolean().default(false),
-  notifyOnFinish: z.boolean().default(true),
+  emailConfirmed: z.boolean().optional(),
+  notifyOnFinish: z.boolean().optional(),
 })
 export type MeUser = z.infer<typeof MeUser>
 

@@ -1,4 +1,5 @@
 import { createRouter, createWebHistory, type RouterHistory } from 'vue-router'
+import { installAuthGuard } from './guard'
 import { routes } from './routes'
 import './route-names'
 
@@ -15,3 +16,5 @@ export function createAppRouter(history: RouterHistory = createWebHistory()) {
 }
 
 export const router = createAppRouter()
+// Only the app's router: component tests build their own without the session round-trip.
+installAuthGuard(router)

@@ -20,6 +20,7 @@ export const navItems: NavItem[] = [
   { title: 'Dashboard', icon: 'mdi-view-dashboard-outline', to: { name: 'dashboard' } },
   { title: 'New simulation', icon: 'mdi-plus-box-outline', to: { name: 'new-simulation' } },
   { title: 'Waveguides', icon: 'mdi-sine-wave', to: { name: 'waveguides' } },
+  { title: 'Group', icon: 'mdi-account-group-outline', to: { name: 'group-settings' }, signedInOnly: true },
 ]
 
 export function visibleNavItems(items: NavItem[], who: { signedIn: boolean; admin: boolean }): NavItem[] {

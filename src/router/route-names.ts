@@ -9,6 +9,13 @@ type NoParams = Record<never, never>
 export interface RouteNamedMap {
   dashboard: RouteRecordInfo<'dashboard', '/', NoParams, NoParams>
   'sign-in': RouteRecordInfo<'sign-in', '/sign-in', NoParams, NoParams>
+  'sign-up': RouteRecordInfo<'sign-up', '/sign-up', NoParams, NoParams>
+  'reset-password': RouteRecordInfo<'reset-password', '/reset-password', NoParams, NoParams>
+  'confirm-email': RouteRecordInfo<'confirm-email', '/confirm-email', NoParams, NoParams>
+  'accept-invite': RouteRecordInfo<'accept-invite', '/accept-invite', NoParams, NoParams>
+  'group-settings': RouteRecordInfo<'group-settings', '/group', NoParams, NoParams>
+  tokens: RouteRecordInfo<'tokens', '/tokens', NoParams, NoParams>
+  'dev-mail': RouteRecordInfo<'dev-mail', '/dev/mail', NoParams, NoParams>
   'new-simulation': RouteRecordInfo<'new-simulation', '/simulations/new', NoParams, NoParams>
   waveguides: RouteRecordInfo<'waveguides', '/waveguides', NoParams, NoParams>
   'not-found': RouteRecordInfo<

@@ -30,6 +30,48 @@ export const routes: AppRoute[] = [
     meta: { title: 'Sign in', public: true },
   },
   {
+    path: '/sign-up',
+    name: 'sign-up',
+    component: () => import('@/pages/SignUpPage.vue'),
+    meta: { title: 'Create an account', public: true },
+  },
+  {
+    path: '/reset-password',
+    name: 'reset-password',
+    component: () => import('@/pages/ResetPasswordPage.vue'),
+    meta: { title: 'Reset password', public: true },
+  },
+  {
+    path: '/confirm-email',
+    name: 'confirm-email',
+    component: () => import('@/pages/ConfirmEmailPage.vue'),
+    meta: { title: 'Confirm e-mail', public: true },
+  },
+  {
+    path: '/accept-invite',
+    name: 'accept-invite',
+    component: () => import('@/pages/AcceptInvitePage.vue'),
+    meta: { title: 'Invitation', public: true },
+  },
+  {
+    path: '/group',
+    name: 'group-settings',
+    component: () => import('@/pages/GroupSettingsPage.vue'),
+    meta: { title: 'Group' },
+  },
+  {
+    path: '/tokens',
+    name: 'tokens',
+    component: () => import('@/pages/TokensPage.vue'),
+    meta: { title: 'API tokens' },
+  },
+  {
+    path: '/dev/mail',
+    name: 'dev-mail',
+    component: () => import('@/pages/MailCatcherPage.vue'),
+    meta: { title: 'Caught mail', public: true },
+  },
+  {
     path: '/:pathMatch(.*)*',
     name: 'not-found',
     component: () => import('@/pages/NotFoundPage.vue'),
