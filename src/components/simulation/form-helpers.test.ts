@@ -59,3 +59,10 @@ describe('describeIssuePath and formatNumber', () => {
     expect(formatNumber(300)).toBe('300')
   })
 })
+
+describe('formatNumber above 10⁴', () => {
+  it('uses a power of ten rather than e-notation', () => {
+    expect(formatNumber(126_600)).toBe('1.266 × 10⁵')
+    expect(formatNumber(4897)).toBe('4897')
+  })
+})

@@ -5,7 +5,8 @@ export function formatNumber(x: number, digits = 4): string {
   if (!Number.isFinite(x)) return String(x)
   if (x === 0) return '0'
   const a = Math.abs(x)
-  if (a >= 1e-3 && a < 1e6) return trimZeros(x.toPrecision(digits))
+  // toPrecision switches to "1.266e+5" once the exponent reaches `digits`; write those as powers of ten instead.
+  if (a >= 1e-3 && a < 10 ** digits) return trimZeros(x.toPrecision(digits))
   const [mant, exp] = x.toExponential(digits - 1).split('e')
   const e = String(Number(exp)).split('').map((ch) => SUPERSCRIPT[ch] ?? ch).join('')
   return `${trimZeros(mant)} × 10${e}`
