@@ -1,0 +1,12 @@
+/** Seeded uniform [0, 1) generator (mulberry32, a common-practice 32-bit PRNG) and Gaussian draws by Box–Muller. */
+export function gaussianNoise(seed: number): () => number {
+  let s = seed >>> 0
+  const uniform = () => {
+    s = (s + 0x6d2b79f5) >>> 0
+    let t = s
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
+  }
+  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform())
+}
