@@ -29,3 +29,13 @@ export function formatDuration(seconds: number): string {
   if (seconds < 7200) return `${formatNumber(seconds / 60, 3)} min`
   return `${formatNumber(seconds / 3600, 3)} h`
 }
+
+/** A length in the unit that keeps the number between 1 and 1000 where possible (m, mm, µm). */
+export function formatLengthM(m: number): string {
+  if (m >= 1) return `${formatNumber(m, 3)} m`
+  if (m >= 1e-3) return `${formatNumber(m * 1e3, 3)} mm`
+  return `${formatNumber(m * 1e6, 3)} µm`
+}
+
+/** A time step given in ps, shown in ns once it passes 1000 ps. */
+export const formatStepPs = (ps: number): string => (ps >= 1000 ? `${formatNumber(ps / 1000, 3)} ns` : `${formatNumber(ps, 3)} ps`)
