@@ -3,6 +3,7 @@ import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { RunDetail, RunList, QueueStatus } from '@shared/runs'
 import { createApp } from '../../server/app'
+import { createShare } from '../../server/modules/shares/shares.service'
 import { RUN_QUEUE } from '../../server/jobs/queues'
 import { silentLog, useTestDb } from './helpers'
 import { chipRun, newMember, newUser, queueSchemaFor, runRoutesForTest, type Member } from './runs-fixtures'
@@ -133,6 +134,22 @@ describe('reading runs', () => {
     expect(queued.total).toBe(3)
     expect(bad.status).toBe(400)
     expect(bad.body.error.fields.map((f: { path: string }) => f.path).sort()).toEqual(['pageSize', 'status'])
+  })
+})
+
+describe('share links', () => {
+  it('lets anyone holding a public link read the run, and nothing else', async () => {
+    const run = await submit(editor, { groupId: editor.groupId, title: 'shared with a visitor', config: chipRun() })
+    const link = await createShare(db, { userId: editor.userId, email: 'x', isAdmin: false, via: 'token' }, { resourceType: 'run', resourceId: run.body.id, public: true })
+
+    const shared = await request(app).get(`/api/runs/${run.body.id}?share=${link.token}`)
+    const wrong = await request(app).get(`/api/runs/${run.body.id}?share=${'x'.repeat(43)}`)
+    const cancel = await request(app).post(`/api/runs/${run.body.id}/cancel?share=${link.token}`)
+
+    expect(shared.status).toBe(200)
+    expect(shared.body.id).toBe(run.body.id)
+    expect(wrong.status).toBe(404)
+    expect(cancel.status).toBe(401)
   })
 })
 
