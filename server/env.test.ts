@@ -41,6 +41,15 @@ describe('parseEnv', () => {
     })
   })
 
+  it('accepts SMTP_URL=catcher and a PUBLIC_URL without its trailing slash, and rejects a PUBLIC_URL without a scheme', () => {
+    const ok = parse({ SMTP_URL: 'catcher', PUBLIC_URL: 'https://sonoweave.halden-lab.example/' })
+    expect(ok.ok && ok.config).toMatchObject({ smtpUrl: 'catcher', publicUrl: 'https://sonoweave.halden-lab.example' })
+
+    const bad = parse({ PUBLIC_URL: 'sonoweave.halden-lab.example' })
+    expect(bad.ok).toBe(false)
+    expect(!bad.ok && bad.errors.join('\n')).toMatch(/^PUBLIC_URL: /m)
+  })
+
   it('rejects a malformed DATABASE_URL with a message naming the variable and the expected form', () => {
     for (const bad of ['localhost:5432/app', 'mysql://u@h/db', 'postgres://host-without-db']) {
       const errors = errorsOf({ DATABASE_URL: bad })

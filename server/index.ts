@@ -61,7 +61,7 @@ stoppers.unshift(sweeps.stop)
 await configureMailer({ smtpUrl: config.smtpUrl, log })
 stoppers.push(stopMailer)
 
-const auth = { jwtSecret: config.jwtSecret, appUrl: process.env.PUBLIC_URL || undefined }
+const auth = { jwtSecret: config.jwtSecret, appUrl: config.publicUrl }
 const app = createApp({ db, pool, log, queueCheck, routes: jobRoutes, auth, distDir: join(REPO_ROOT, 'dist') })
 
 const server: Server = app.listen(config.port, config.host)
