@@ -1,0 +1,206 @@
+// The sweeps API without workers: validation, the whole-sweep limit, point runs and their ordering in the
+// queue, policy, share links, cancel and re-run. tests/jobs/sweeps.test.ts runs sweeps on real workers.
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { SweepDetail, SweepEstimateResponse, SweepList, axisValues } from '@shared/sweeps'
+import { pickNext } from '../../server/modules/sweeps/sweep-feeder'
+import { createApp } from '../../server/app'
+import { sharesRoutes } from '../../server/modules/shares/shares.routes'
+import { silentLog, useTestDb } from './helpers'
+import { chipRun, newMember, queueSchemaFor, runRoutesForTest, type Member } from './runs-fixtures'
+import { powerSweep, sweepsForTest, tinySweepBase } from './sweeps-fixtures'
+
+const { db, pool } = useTestDb()
+const schema = queueSchemaFor('sweeps-api')
+let app: ReturnType<typeof createApp>
+let editor: Member
+let viewer: Member
+let outsider: Member
+let feedNow: () => Promise<void>
+const bossSchema = schema
+// Started while the file is collected, so their afterAll hooks (stop) register at the top level.
+const setup = runRoutesForTest(db, pool, schema).then(async (r) => ({ ...r, sweeps: await sweepsForTest(db, pool, r.jobs.boss, { feedIntervalMs: 60_000 }) }))
+// Before pool.end (hooks run in reverse): the feeder holds a LISTEN connection of the pool.
+afterAll(async () => (await setup).sweeps.module.stop())
+
+beforeAll(async () => {
+  const { routes, sweeps } = await setup
+  feedNow = sweeps.module.feeder.feedNow
+  app = createApp({ db, pool, log: silentLog, routes: [...routes, ...sweeps.routes, ['/shares', sharesRoutes({ db })]] })
+  editor = await newMember(db, 'editor', undefined, 'Tomas Reyes')
+  viewer = await newMember(db, 'viewer', editor.groupId, 'Mei Okafor')
+  outsider = await newMember(db, 'owner', undefined, 'Someone Else')
+})
+
+const post = (path: string, who: Member, body?: unknown) => request(app).post(`/api${path}`).set('Authorization', who.auth).send(body as object)
+const get = (path: string, who?: Member) => (who ? request(app).get(`/api${path}`).set('Authorization', who.auth) : request(app).get(`/api${path}`))
+
+/** pg-boss jobs of the test's queue schema for these runs: priority and state. */
+async function jobsOf(runIds: string[]) {
+  const { rows } = await pool.query(`select data->>'runId' as run_id, priority, state from ${bossSchema}.job where data->>'runId' = any($1)`, [runIds])
+  return rows as { run_id: string; priority: number; state: string }[]
+}
+
+describe('axis values', () => {
+  it('spaces a log range geometrically and ends exactly on the typed stop value', () => {
+    // Common practice: a logarithmic range has a constant ratio between neighbours.
+    const v = axisValues({ kind: 'log', start: 0.1, stop: 10, count: 5 })
+    expect(v).toHaveLength(5)
+    expect(v[4]).toBe(10)
+    for (let i = 1; i < 5; i++) expect(v[i] / v[i - 1]).toBeCloseTo(Math.sqrt(10), 12)
+    expect(axisValues({ kind: 'linear', start: 1, stop: 2, count: 3 })).toEqual([1, 1.5, 2])
+  })
+})
+
+describe('POST /api/sweeps', () => {
+  it('creates the sweep and one queued run per point, linked by sweep id and point index', async () => {
+    const res = await post('/sweeps', editor, powerSweep(editor.groupId, 'Write power scan', 5))
+    expect(res.status).toBe(202)
+    const sweep = SweepDetail.parse(res.body)
+    expect(sweep.pointCount).toBe(5)
+    expect(sweep.points.map((p) => p.index)).toEqual([0, 1, 2, 3, 4])
+    expect(sweep.points.map((p) => p.values[0])).toEqual([0.5, 1, 1.5, 2, 2.5])
+    expect(sweep.counts.queued).toBe(5)
+    const { rows } = await pool.query(`select sweep_point, config, status, group_id, author_id from runs where sweep_id = $1 order by sweep_point`, [sweep.id])
+    expect(rows.map((r) => r.sweep_point)).toEqual([0, 1, 2, 3, 4])
+    // Each run's config is the base config with the axis value applied to the labelled pulse.
+    expect(rows.map((r) => r.config.channels[0].pump.pulses[0].peakPowerW)).toEqual([0.5, 1, 1.5, 2, 2.5])
+    expect(rows.every((r) => r.status === 'queued' && r.group_id === editor.groupId && r.author_id === editor.userId)).toBe(true)
+    expect(sweep.metrics.map((m) => m.key)).toContain('window:late Stokes')
+  })
+
+  it('builds a 2-D sweep with axis 0 varying slowest', async () => {
+    const body = {
+      ...powerSweep(editor.groupId, '2-D', 2),
+      axes: [
+        { field: 'pulseFwhmNs', pulseLabel: 'write', values: { kind: 'list', values: [0.4, 0.6] } },
+        { field: 'stokesPowerW', values: { kind: 'log', start: 1e-4, stop: 1e-2, count: 3 } },
+      ],
+    }
+    const res = await post('/sweeps', editor, body)
+    expect(res.status).toBe(202)
+    const sweep = SweepDetail.parse(res.body)
+    expect(sweep.points.map((p) => p.values)).toEqual([[0.4, 1e-4], [0.4, sweep.axisValues[1][1]], [0.4, 1e-2], [0.6, 1e-4], [0.6, sweep.axisValues[1][1]], [0.6, 1e-2]])
+    const { rows } = await pool.query(`select config from runs where sweep_id = $1 and sweep_point = 5`, [sweep.id])
+    expect(rows[0].config.channels[0].pump.pulses[0].fwhmNs).toBe(0.6)
+    expect(rows[0].config.channels[0].stokes.backgroundPowerW).toBe(1e-2)
+  })
+
+  it('refuses a sweep over the total limit with 422 naming the limit and the total', async () => {
+    // 32 points of ~8.1e9 cell-updates each: every point is under the run limit (2e10), the sum (~2.6e11)
+    // is over the sweep limit (10 × 2e10).
+    const base = tinySweepBase(20_000, 1)
+    const res = await post('/sweeps', editor, powerSweep(editor.groupId, 'Too big', 32, base))
+    expect(res.status).toBe(422)
+    expect(res.body.error.code).toBe('over_limit')
+    expect(res.body.error.message).toMatch(/over the sweep limit of 2\.00e\+11/)
+    const { rows } = await pool.query(`select count(*)::int as n from sweeps where title = 'Too big'`)
+    expect(rows[0].n).toBe(0)
+    // The estimate endpoint gives the same numbers before submitting.
+    const est = await post('/sweeps/estimate', editor, { baseConfig: base, axes: powerSweep(editor.groupId, '', 32).axes })
+    expect(est.status).toBe(200)
+    const parsed = SweepEstimateResponse.parse(est.body)
+    expect(parsed.ok).toBe(false)
+    expect(parsed.estimate.cellUpdates).toBeGreaterThan(2e11)
+    expect(res.body.error.message).toContain(`needs ${parsed.estimate.cellUpdates.toPrecision(3)} cell-updates in total over 32 points`)
+    expect(parsed.message).toBe(res.body.error.message)
+  })
+
+  it('answers 400 with field paths for an unknown pulse label, a bad range and a point outside the window', async () => {
+    const unknown = await post('/sweeps', editor, { ...powerSweep(editor.groupId, 'x', 3), axes: [{ field: 'pulseFwhmNs', pulseLabel: 'nope', values: { kind: 'list', values: [1] } }] })
+    expect(unknown.status).toBe(400)
+    expect(unknown.body.error.fields[0]).toMatchObject({ path: 'axes.0.pulseLabel' })
+    expect(unknown.body.error.fields[0].message).toMatch(/no pulse labelled "nope" \(labels: write\)/)
+
+    const badLog = await post('/sweeps', editor, { ...powerSweep(editor.groupId, 'x', 3), axes: [{ field: 'stokesPowerW', values: { kind: 'log', start: 0, stop: 1, count: 3 } }] })
+    expect(badLog.status).toBe(400)
+    expect(badLog.body.error.fields.map((f: { path: string }) => f.path)).toContain('axes.0.values.start')
+
+    const outside = await post('/sweeps', editor, { ...powerSweep(editor.groupId, 'x', 3), axes: [{ field: 'pulseCentreNs', pulseLabel: 'write', values: { kind: 'list', values: [1, 9] } }] })
+    expect(outside.status).toBe(400)
+    expect(outside.body.error.fields[0].message).toMatch(/Point 1 .*centreNs: The pulse centre must lie inside the simulated window/)
+  })
+
+  it('lets viewers read but not create, and hides sweeps from non-members', async () => {
+    const created = await post('/sweeps', editor, powerSweep(editor.groupId, 'Policy', 2))
+    expect((await post('/sweeps', viewer, powerSweep(editor.groupId, 'Viewer', 2))).status).toBe(403)
+    expect((await get(`/sweeps/${created.body.id}`, viewer)).status).toBe(200)
+    expect((await get(`/sweeps/${created.body.id}`, outsider)).status).toBe(404)
+    expect((await post(`/sweeps/${created.body.id}/cancel`, viewer)).status).toBe(403)
+    expect((await get('/sweeps/not-a-uuid', editor)).status).toBe(404)
+    const list = SweepList.parse((await get(`/sweeps?groupId=${editor.groupId}`, viewer)).body)
+    expect(list.items.some((s) => s.id === created.body.id)).toBe(true)
+  })
+
+  it('gives a sweep a share link that reads the sweep and its download, and nothing else', async () => {
+    const created = await post('/sweeps', editor, powerSweep(editor.groupId, 'Shared', 2))
+    const share = await post('/shares', editor, { resourceType: 'sweep', resourceId: created.body.id, public: true })
+    expect(share.status).toBe(201)
+    expect(share.body.path).toBe(`/sweeps/${created.body.id}?share=${encodeURIComponent(share.body.token)}`)
+    expect((await get(`/sweeps/${created.body.id}?share=${share.body.token}`)).status).toBe(200)
+    expect((await get(`/sweeps/${created.body.id}/download?share=${share.body.token}`)).status).toBe(200)
+    expect((await get(`/sweeps/${created.body.id}`)).status).toBe(401)
+    expect((await get(`/sweeps/${created.body.id}?share=shr_wrongwrongwrongwrong`, outsider)).status).toBe(404)
+  })
+})
+
+describe('the feeder', () => {
+  it('sends sweep points below the priority of single runs and only a few at a time', async () => {
+    const sweep = SweepDetail.parse((await post('/sweeps', editor, powerSweep(editor.groupId, 'Feeding', 6))).body)
+    await feedNow()
+    const single = await post('/runs', editor, { groupId: editor.groupId, title: 'Single', config: chipRun(4, 4) })
+    expect(single.status).toBe(202)
+    // Every sweep point of this file waiting in pg-boss: no worker takes them here, so the feeder stops at
+    // its depth (one per live solver thread, at least one; other test files' workers may count).
+    const { rows } = await pool.query(`select id from runs where sweep_id is not null and group_id = $1`, [editor.groupId])
+    const fed = await jobsOf(rows.map((r) => r.id))
+    expect(fed.length).toBeGreaterThanOrEqual(1)
+    expect(fed.length).toBeLessThan(6)
+    expect(fed.every((j) => j.priority < 0 && j.state === 'created')).toBe(true)
+    const jobs = await jobsOf([single.body.id, ...sweep.points.map((p) => p.runId)])
+    expect(jobs.find((j) => j.run_id === single.body.id)!.priority).toBe(0)
+  })
+
+  it('picks the author with the fewest points in flight, then whoever was fed longest ago', () => {
+    const c = (sweepId: string, authorKey: string, inFlight: number, lastFedAt: number, createdAt = 0) => ({ sweepId, authorKey, inFlight, lastFedAt, createdAt })
+    expect(pickNext([c('a1', 'A', 2, 5), c('b1', 'B', 1, 9)])!.sweepId).toBe('b1')
+    expect(pickNext([c('a1', 'A', 1, 5), c('b1', 'B', 1, 9)])!.sweepId).toBe('a1')
+    // A's two sweeps share A's turn: A has 2 in flight against B's 1.
+    expect(pickNext([c('a1', 'A', 1, 1), c('a2', 'A', 1, 2), c('b1', 'B', 1, 3)])!.sweepId).toBe('b1')
+    expect(pickNext([c('a1', 'A', 1, 1), c('a2', 'A', 0, 2), c('b1', 'B', 2, 3)])!.sweepId).toBe('a2')
+    expect(pickNext([])).toBeNull()
+  })
+})
+
+describe('cancel and re-run', () => {
+  it('cancels every remaining point and their jobs; a second cancel is 409', async () => {
+    const sweep = SweepDetail.parse((await post('/sweeps', editor, powerSweep(editor.groupId, 'To cancel', 4))).body)
+    await feedNow()
+    const res = await post(`/sweeps/${sweep.id}/cancel`, editor)
+    expect(res.status).toBe(200)
+    const after = SweepDetail.parse(res.body)
+    expect(after.status).toBe('cancelled')
+    expect(after.counts.cancelled).toBe(4)
+    const jobs = await jobsOf(sweep.points.map((p) => p.runId))
+    expect(jobs.every((j) => j.state === 'cancelled')).toBe(true)
+    expect((await post(`/sweeps/${sweep.id}/cancel`, editor)).status).toBe(409)
+  })
+
+  it('re-runs failed points as new runs of the same point and reopens the sweep', async () => {
+    const sweep = SweepDetail.parse((await post('/sweeps', editor, powerSweep(editor.groupId, 'Re-run', 3))).body)
+    expect((await post(`/sweeps/${sweep.id}/rerun-failed`, editor)).status).toBe(409)
+    // Arrange a finished sweep with one failed point (as a worker would have written it).
+    await pool.query(`update runs set status = 'succeeded', finished_at = now() where sweep_id = $1 and sweep_point <> 1`, [sweep.id])
+    await pool.query(`update runs set status = 'failed', error = 'solver failed', finished_at = now() where sweep_id = $1 and sweep_point = 1`, [sweep.id])
+    await pool.query(`update sweeps set status = 'finished', finished_at = now() where id = $1`, [sweep.id])
+    const res = await post(`/sweeps/${sweep.id}/rerun-failed`, editor)
+    expect(res.status).toBe(202)
+    const after = SweepDetail.parse(res.body)
+    expect(after.status).toBe('running')
+    expect(after.counts).toMatchObject({ succeeded: 2, queued: 1, failed: 0 })
+    const point1 = after.points.find((p) => p.index === 1)!
+    expect(point1.runId).not.toBe(sweep.points[1].runId)
+    const { rows } = await pool.query(`select count(*)::int as n from runs where sweep_id = $1 and sweep_point = 1`, [sweep.id])
+    expect(rows[0].n).toBe(2)
+  })
+})
