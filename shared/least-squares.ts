@@ -47,10 +47,15 @@ export function normalMatrix(columns: ArrayLike<number>[]): number[][] {
 export function parameterSigmas(columns: ArrayLike<number>[], ssr: number, points: number): (number | null)[] {
   const k = columns.length
   if (points <= k) return Array(k).fill(null)
-  const inv = invert(normalMatrix(columns))
+  // Parameters in different units give JᵀJ entries many decades apart: invert D(JᵀJ)D with
+  // D = diag(JᵀJ)^(−1/2) (Jacobi scaling), then (JᵀJ)⁻¹ = D (DAD)⁻¹ D.
+  const a = normalMatrix(columns)
+  const d = a.map((row, i) => (row[i] > 0 ? 1 / Math.sqrt(row[i]) : 0))
+  if (d.some((v) => v === 0)) return Array(k).fill(null)
+  const inv = invert(a.map((row, i) => row.map((v, j) => v * d[i] * d[j])))
   if (!inv) return Array(k).fill(null)
   const s2 = ssr / (points - k)
-  return inv.map((row, i) => (row[i] >= 0 ? Math.sqrt(s2 * row[i]) : null))
+  return inv.map((row, i) => (row[i] >= 0 ? Math.sqrt(s2 * row[i]) * d[i] : null))
 }
 
 /** Akaike and Bayesian information criteria for least squares with Gaussian errors of unknown variance. */

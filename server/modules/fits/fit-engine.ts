@@ -1,0 +1,208 @@
+/*
+ * Fitting a run's model to a measured trace.
+ *
+ * Residual r_i = y_i − s·m(t_i − t₀; θ): y the measurement in the window, m the model's output power
+ * (linearly interpolated, zero outside the model record), t₀ the time offset, s the amplitude scale and
+ * θ the freed physical parameters. With no θ the fit is closed form (trace-align.ts: linear least squares
+ * for s inside a scan + golden-section search for t₀). With θ, Levenberg–Marquardt (ml-levenberg-marquardt)
+ * varies [t₀, s, θ], each new θ one solver run (cached, so steps in t₀ and s cost nothing), started from
+ * the closed-form alignment at the run's own θ. Parameters are scaled to order one for the optimiser:
+ * positive ones by their starting value, the detuning by the starting linewidth.
+ * Uncertainties: covariance = s²(JᵀJ)⁻¹ from a central-difference Jacobian in physical units at the optimum.
+ * Models with and without the higher-order acoustic term are compared by residual, AIC and BIC.
+ */
+import { levenbergMarquardt } from 'ml-levenberg-marquardt'
+import type { FitModelResult, FitParameterValue, FitRequest, FitResult, PhysicalFitParameter } from '@shared/fits'
+import { PHYSICAL_FIT_PARAMETERS } from '@shared/fits'
+import { informationCriteria, parameterSigmas } from '@shared/least-squares'
+import type { SimulationConfig } from '@shared/simulation-config'
+import { alignClosedForm, medianStep, shiftedModel, windowIndices, type Series } from '@shared/trace-align'
+import { baseValues, evaluateModel, pinnedStepPs, variantConfig, type PhysicalValues } from './fit-model'
+
+export interface FitInputs {
+  request: FitRequest
+  config: SimulationConfig
+  measured: Series
+  signalUnit: 'W' | 'arb'
+  /** The run's stored output power; saves a solver run when the variant is the run itself. */
+  runModel?: Series
+}
+
+export interface FitHooks {
+  onProgress?: (fraction: number, message: string) => void
+  shouldAbort?: () => boolean
+}
+
+/** Points kept in the stored curves. */
+const CURVE_POINTS = 2000
+/** Relative step of the finite-difference Jacobian for physical parameters (scaled units). */
+const PHYS_STEP = 2e-3
+/** Cached model evaluations per variant (LM revisits the last few θ). */
+const CACHE_SIZE = 16
+
+export class FitAborted extends Error {}
+
+function defaultWindow(req: FitRequest, measured: Series): { startNs: number; endNs: number } {
+  const t = measured.timeNs
+  return req.window ?? { startNs: t[0], endNs: t[t.length - 1] }
+}
+
+function curveOf(measured: Series, idx: number[], model: Float64Array, scale: number): FitModelResult['curve'] {
+  const step = Math.max(1, Math.ceil(idx.length / CURVE_POINTS))
+  const curve = { timeNs: [] as number[], model: [] as number[], measured: [] as number[] }
+  for (let k = 0; k < idx.length; k += step) {
+    curve.timeNs.push(measured.timeNs[idx[k]])
+    curve.model.push(scale * model[k])
+    curve.measured.push(measured.values[idx[k]])
+  }
+  return curve
+}
+
+function param(name: FitParameterValue['name'], value: number, sigma: number | null, initial: number, min: number | null, max: number | null): FitParameterValue {
+  const span = min !== null && max !== null ? max - min : Math.abs(value) || 1
+  const atBound = (min !== null && value - min <= 1e-6 * span) || (max !== null && max - value <= 1e-6 * span)
+  return { name, value, uncertainty: sigma, initial, min, max, atBound }
+}
+
+export function runFit(inputs: FitInputs, hooks: FitHooks = {}): FitResult {
+  const { request: req, config, measured } = inputs
+  const window = defaultWindow(req, measured)
+  const idx = windowIndices(measured.timeNs, window.startNs, window.endNs)
+  if (idx.length < 8) throw new Error(`The fit window ${window.startNs}–${window.endNs} ns holds ${idx.length} measured samples; at least 8 are needed`)
+  const y = Float64Array.from(idx, (i) => measured.values[i])
+  const variants = req.higherOrder === 'compare' ? [false, true] : req.higherOrder === 'asRun' ? [config.options.higherOrderAcoustic] : [req.higherOrder === 'on']
+  const freed = PHYSICAL_FIT_PARAMETERS.filter((p) => req.free[p] !== undefined)
+  const base = baseValues(config)
+
+  // Budget for progress: per variant one start, per iteration 1 + |θ| evaluations, and 2|θ| at the end.
+  const perVariant = freed.length === 0 ? 1 : 1 + req.maxIterations * (1 + freed.length) + 2 * freed.length
+  const budget = variants.length * perVariant
+  let evaluations = 0
+  const tick = (what: string) => {
+    if (hooks.shouldAbort?.()) throw new FitAborted('The fit was stopped')
+    evaluations++
+    hooks.onProgress?.(Math.min(0.99, evaluations / budget), `Model evaluation ${evaluations} of at most ${budget} (${what})`)
+  }
+
+  const models: FitModelResult[] = variants.map((higherOrder) => {
+    const label = higherOrder ? 'higher-order term on' : 'higher-order term off'
+    const evaluationsBefore = evaluations
+    const stepPs = pinnedStepPs(config, higherOrder)
+    const cache = new Map<string, Series>()
+    const modelAt = (values: PhysicalValues): Series => {
+      const key = JSON.stringify(freed.map((p) => values[p]))
+      const hit = cache.get(key)
+      if (hit) return hit
+      let series: Series
+      if (inputs.runModel && higherOrder === config.options.higherOrderAcoustic && freed.every((p) => values[p] === base[p])) series = inputs.runModel
+      else {
+        tick(label)
+        series = evaluateModel(variantConfig(config, values, higherOrder, stepPs), req.port, req.channel)
+      }
+      if (cache.size >= CACHE_SIZE) cache.delete(cache.keys().next().value!)
+      cache.set(key, series)
+      return series
+    }
+
+    const start = modelAt(base)
+    const aligned = alignClosedForm(measured, start, { ...window, offsetMinNs: req.timeOffsetNs.min, offsetMaxNs: req.timeOffsetNs.max })
+    if (freed.length === 0) {
+      const m = shiftedModel(start, measured.timeNs, idx, aligned.offsetNs)
+      return {
+        higherOrderAcoustic: higherOrder,
+        parameters: [
+          param('timeOffsetNs', aligned.offsetNs, aligned.offsetUncertaintyNs, aligned.offsetNs, req.timeOffsetNs.min, req.timeOffsetNs.max),
+          param('scale', aligned.scale, aligned.scaleUncertainty, aligned.scale, null, null),
+        ],
+        residualNorm: Math.sqrt(aligned.ssr),
+        rmsResidual: Math.sqrt(aligned.ssr / idx.length),
+        points: idx.length,
+        freeParameters: 2,
+        aic: aligned.aic,
+        bic: aligned.bic,
+        evaluations: evaluations - evaluationsBefore,
+        iterations: 0,
+        curve: curveOf(measured, idx, m, aligned.scale),
+      }
+    }
+
+    // Scaled parameter vector: [t₀ (ns), s/s₀, θ_k/θ_k0 or Δ/Δν₀].
+    const s0 = aligned.scale !== 0 ? aligned.scale : 1
+    const unit = (p: PhysicalFitParameter) => (p === 'detuningMHz' ? base.linewidthMHz : base[p])
+    const toPhysical = (x: number[]): PhysicalValues => Object.fromEntries(freed.map((p, k) => [p, x[2 + k] * unit(p)]))
+    const yScale = Math.max(1e-300, ...y.map(Math.abs))
+    const yNorm = Float64Array.from(y, (v) => v / yScale)
+    const xIndex = Float64Array.from(idx, (_, k) => k)
+    const parameterized = (x: number[]) => {
+      const m = shiftedModel(modelAt(toPhysical(x)), measured.timeNs, idx, x[0])
+      const s = (x[1] * s0) / yScale
+      return (k: number) => s * m[k]
+    }
+    const initial = [aligned.offsetNs, 1, ...freed.map((p) => base[p] / unit(p))]
+    const mins = [req.timeOffsetNs.min, -Infinity, ...freed.map((p) => req.free[p]!.min / unit(p))]
+    const maxs = [req.timeOffsetNs.max, Infinity, ...freed.map((p) => req.free[p]!.max / unit(p))]
+    for (let k = 2; k < initial.length; k++) initial[k] = Math.min(maxs[k], Math.max(mins[k], initial[k]))
+    const dtModel = medianStep(start.timeNs)
+    const lm = levenbergMarquardt({ x: xIndex, y: yNorm }, parameterized, {
+      initialValues: initial,
+      minValues: mins,
+      maxValues: maxs,
+      gradientDifference: [dtModel / 2, 1e-4, ...freed.map(() => PHYS_STEP)],
+      damping: 1e-2,
+      maxIterations: req.maxIterations,
+      errorTolerance: 1e-12 * idx.length,
+    })
+    const x = lm.parameterValues
+    const best = modelAt(toPhysical(x))
+    const offsetNs = x[0]
+    const scale = x[1] * s0
+    const m = shiftedModel(best, measured.timeNs, idx, offsetNs)
+    let ssr = 0
+    for (let k = 0; k < idx.length; k++) ssr += (y[k] - scale * m[k]) ** 2
+
+    // Jacobian of the residual in physical units, by central differences.
+    const columns: Float64Array[] = []
+    const hT = dtModel / 2
+    const mA = shiftedModel(best, measured.timeNs, idx, offsetNs - hT)
+    const mB = shiftedModel(best, measured.timeNs, idx, offsetNs + hT)
+    columns.push(Float64Array.from(m, (_, k) => (scale * (mA[k] - mB[k])) / (2 * hT)))
+    columns.push(Float64Array.from(m, (v) => -v))
+    freed.forEach((p, k) => {
+      const h = PHYS_STEP * Math.max(Math.abs(x[2 + k]), 1e-3)
+      const up = [...x]
+      const down = [...x]
+      up[2 + k] += h
+      down[2 + k] -= h
+      const mu = shiftedModel(modelAt(toPhysical(up)), measured.timeNs, idx, offsetNs)
+      const md = shiftedModel(modelAt(toPhysical(down)), measured.timeNs, idx, offsetNs)
+      columns.push(Float64Array.from(m, (_, i) => (-scale * (mu[i] - md[i])) / (2 * h * unit(p))))
+    })
+    const sigmas = parameterSigmas(columns, ssr, idx.length)
+    const k = 2 + freed.length
+    const physical = toPhysical(x)
+    return {
+      higherOrderAcoustic: higherOrder,
+      parameters: [
+        param('timeOffsetNs', offsetNs, sigmas[0], aligned.offsetNs, req.timeOffsetNs.min, req.timeOffsetNs.max),
+        param('scale', scale, sigmas[1], aligned.scale, null, null),
+        ...freed.map((p, j) => param(p, physical[p]!, sigmas[2 + j], base[p], req.free[p]!.min, req.free[p]!.max)),
+      ],
+      residualNorm: Math.sqrt(ssr),
+      rmsResidual: Math.sqrt(ssr / idx.length),
+      points: idx.length,
+      freeParameters: k,
+      ...informationCriteria(ssr, idx.length, k),
+      evaluations: evaluations - evaluationsBefore,
+      iterations: lm.iterations,
+      curve: curveOf(measured, idx, m, scale),
+    }
+  })
+
+  let preferred = 0
+  models.forEach((m, i) => (m.bic < models[preferred].bic ? (preferred = i) : undefined))
+  const on = models.find((m) => m.higherOrderAcoustic)
+  const off = models.find((m) => !m.higherOrderAcoustic)
+  const comparison = on && off ? { deltaAic: on.aic - off.aic, deltaBic: on.bic - off.bic, deltaResidualNorm: on.residualNorm - off.residualNorm } : null
+  hooks.onProgress?.(1, `Done after ${evaluations} model evaluations`)
+  return { method: freed.length === 0 ? 'closedForm' : 'levenbergMarquardt', signalUnit: inputs.signalUnit, window, models, preferred, comparison }
+}
