@@ -61,7 +61,7 @@ describe('fit recovers known parameters from a synthetic trace made by the solve
     expect(Math.abs(gain.value / truth.gainCoefficientMPerW - 1)).toBeLessThan(0.03)
     expect(Math.abs(width.value / truth.linewidthMHz - 1)).toBeLessThan(0.03)
     // The residual is the noise: rms ≈ σ = 1 % of the measured peak.
-    const peak = Math.max(...measured.values)
+    const peak = Math.max(...Array.from(measured.values))
     expect(m.rmsResidual / (0.01 * peak)).toBeGreaterThan(0.8)
     expect(m.rmsResidual / (0.01 * peak)).toBeLessThan(1.2)
   })
