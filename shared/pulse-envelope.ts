@@ -1,5 +1,5 @@
 // Pulse envelopes shared by the solver (input sampling) and the browser (input preview).
-import type { Pulse } from './pulse'
+import type { PortInput, Pulse } from './pulse'
 
 const LN2 = Math.LN2
 /** sech² power FWHM = 2·ln(1+√2)·T₀. */
@@ -45,4 +45,29 @@ export function pulseAmplitude(p: Pulse, tNs: number): number {
       return Math.sqrt(((1 - f) * p.powerShape[i] + f * p.powerShape[i + 1]) / peak)
     }
   }
+}
+
+/**
+ * Interleaved complex trace of one port. The continuous background adds coherently (it is leakage of the
+ * same laser through the modulator) with phase 0. A pulse carries e^{i(φ − 2πδ(t − t₀))}: the phase is
+ * the carrier phase at the pulse centre, and a spectral offset +δ gives an envelope ∝ e^{−iδt} (physics brief §1).
+ */
+export function sampleInput(port: PortInput, nt: number, dtS: number): Float64Array {
+  const out = new Float64Array(2 * (nt + 1))
+  const bg = Math.sqrt(port.backgroundPowerW)
+  const dtNs = dtS * 1e9
+  for (let n = 0; n <= nt; n++) out[2 * n] = bg
+  for (const p of port.pulses) {
+    const amp = Math.sqrt(p.peakPowerW)
+    const w = 2 * Math.PI * p.frequencyOffsetMHz * 1e-3 // rad/ns
+    for (let n = 0; n <= nt; n++) {
+      const tNs = n * dtNs
+      const a = amp * pulseAmplitude(p, tNs)
+      if (a === 0) continue
+      const ph = p.phaseRad - w * (tNs - p.centreNs)
+      out[2 * n] += a * Math.cos(ph)
+      out[2 * n + 1] += a * Math.sin(ph)
+    }
+  }
+  return out
 }
