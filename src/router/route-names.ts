@@ -18,6 +18,8 @@ export interface RouteNamedMap {
   'dev-mail': RouteRecordInfo<'dev-mail', '/dev/mail', NoParams, NoParams>
   'new-simulation': RouteRecordInfo<'new-simulation', '/simulations/new', NoParams, NoParams>
   waveguides: RouteRecordInfo<'waveguides', '/waveguides', NoParams, NoParams>
+  runs: RouteRecordInfo<'runs', '/runs', NoParams, NoParams>
+  run: RouteRecordInfo<'run', '/runs/:id', { id: string }, { id: string }>
   'not-found': RouteRecordInfo<
     'not-found',
     '/:pathMatch(.*)*',

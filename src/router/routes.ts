@@ -18,6 +18,19 @@ export const routes: AppRoute[] = [
     meta: { title: 'New simulation' },
   },
   {
+    path: '/runs',
+    name: 'runs',
+    component: () => import('@/pages/RunsPage.vue'),
+    meta: { title: 'Runs' },
+  },
+  {
+    // Public so a share link (?share=) opens without an account; the API decides what may be read.
+    path: '/runs/:id',
+    name: 'run',
+    component: () => import('@/pages/RunPage.vue'),
+    meta: { title: 'Run', public: true },
+  },
+  {
     path: '/waveguides',
     name: 'waveguides',
     component: () => import('@/pages/WaveguidesPage.vue'),
