@@ -11,15 +11,24 @@ import { findSweep, pointRuns } from './sweeps.repo'
 
 /** Rows of the figures table in the mail; the rest is in the ZIP. */
 const MAIL_MAX_ROWS = 40
-/** Metric columns in the mail table: the ones that have a value somewhere, up to this many. */
+/** Metric columns in the mail table: those with a value somewhere, headline figures first, up to this many. */
 const MAIL_MAX_METRICS = 4
+const MAIL_ORDER = ['retrievalEfficiency', 'peakStokesGainDb', 'pumpOutFwhmNs', 'pumpDelayNs', 'reflectivity', 'window:']
+const mailRank = (key: string) => {
+  const bare = key.replace(/^ch\d+\./, '')
+  const i = MAIL_ORDER.findIndex((k) => bare.startsWith(k))
+  return i < 0 ? MAIL_ORDER.length : i
+}
 
 const fmt = (x: number | null | undefined) => (x === null || x === undefined ? '—' : Math.abs(x) >= 1e4 || (x !== 0 && Math.abs(x) < 1e-3) ? x.toExponential(3) : x.toPrecision(4))
 
 export function sweepFinishedNotice(s: SweepDetail): FinishedNotice {
   const c = s.counts
   const head = `The sweep finished: ${c.succeeded} of ${s.pointCount} points succeeded${c.failed ? `, ${c.failed} failed (re-run them from the sweep page)` : ''}${c.cancelled ? `, ${c.cancelled} cancelled` : ''}.`
-  const metrics = s.metrics.filter((m) => s.points.some((p) => p.metrics[m.key] !== null)).slice(0, MAIL_MAX_METRICS)
+  const metrics = s.metrics
+    .filter((m) => s.points.some((p) => p.metrics[m.key] !== null))
+    .sort((a, b) => mailRank(a.key) - mailRank(b.key))
+    .slice(0, MAIL_MAX_METRICS)
   const rows = s.points.slice(0, MAIL_MAX_ROWS).map((p) => [...p.values.map(fmt), p.status === 'succeeded' ? '' : p.status, ...metrics.map((m) => fmt(p.metrics[m.key]))])
   const header = [...s.axes.map(axisLabel), 'status', ...metrics.map((m) => `${m.label} (${m.unit})`)]
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)))
