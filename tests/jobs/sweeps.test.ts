@@ -145,7 +145,7 @@ describe('priorities', () => {
     expect(notStarted.length).toBeGreaterThanOrEqual(5)
     const res = await api(tomas, '/runs', { method: 'POST', body: JSON.stringify({ groupId: tomas.groupId, title: 'Quick check', config: chipRun(4, 4) }) })
     expect(res.status).toBe(202)
-    const single = (await res.json()).id as string
+    const single = ((await res.json()) as { id: string }).id
     await waitFor('the single run to finish', async () => (await pool.query(`select status from runs where id = $1`, [single])).rows[0].status === 'succeeded', 60_000, 100)
     const order = await startOrder([single, ...notStarted])
     expect(order[0].id).toBe(single)
