@@ -51,6 +51,17 @@ export interface RunOutcome {
   manifest: SimulationManifest | null
 }
 
+type ThreadResult = Extract<SolverThreadMessage, { type: 'result' }>
+
+/** The thread's final message, or null when it ended without one (terminated after an abort). */
+function threadResult(thread: Worker, onMessage: (m: SolverThreadMessage) => void): Promise<ThreadResult | null> {
+  return new Promise((resolve, reject) => {
+    thread.on('message', (m: SolverThreadMessage) => (m.type === 'result' ? resolve(m) : onMessage(m)))
+    thread.on('error', reject)
+    thread.on('exit', () => resolve(null))
+  })
+}
+
 export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   const { pool, log, runId } = o
   const claim = await claimRun(pool, runId, o.workerId, o.jobId)
@@ -112,8 +123,9 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   }, HEARTBEAT_MS)
 
   try {
-    const result = await new Promise<Extract<SolverThreadMessage, { type: 'result' }> | null>((resolve, reject) => {
-      thread.on('message', (m: SolverThreadMessage) => {
+    let result: ThreadResult | null
+    try {
+      result = await threadResult(thread, (m) => {
         if (m.type === 'progress') {
           pendingProgress = m.fraction
           if (Date.now() - lastProgressAt >= PROGRESS_INTERVAL_MS) flushProgress()
@@ -121,11 +133,16 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
           const f = m.frame
           const block = { blockIndex: blockIndex++, rowStart: f.rowStart, rowCount: f.rowCount, cols: f.cols, ...f.maps }
           queueWrite(() => writeMapBlock(pool, runId, attempt, block))
-        } else resolve(m)
+        }
       })
-      thread.on('error', reject)
-      thread.on('exit', () => resolve(null))
-    })
+    } catch (err) {
+      // The solver thread crashed: the same config would crash again, so the run fails rather than retries.
+      const message = `The solver stopped unexpectedly: ${(err as Error).message}`
+      log.error({ err, runId, attempt }, 'solver thread failed')
+      await writes
+      await finishFailed(pool, runId, attempt, message)
+      return { ...base, status: 'failed', message, manifest: null }
+    }
     await writes
     if (stopReason || !result || result.status === 'aborted') {
       log.info({ runId, attempt, stopReason }, 'run stopped')
@@ -145,14 +162,9 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
     const stored = await finishSucceeded(pool, runId, attempt, { manifest: runManifest, figures: manifest.figures, arrays: result.arrays })
     if (!stored) return { ...base, status: 'stopped', message: 'no longer ours', manifest: null }
     return { ...base, status: 'succeeded', message: result.message, manifest }
-  } catch (err) {
-    // The solver thread crashed: the same config would crash again, so the run fails rather than retries.
-    const message = `The solver stopped unexpectedly: ${(err as Error).message}`
-    log.error({ err, runId, attempt }, 'solver thread failed')
-    await writes
-    await finishFailed(pool, runId, attempt, message)
-    return { ...base, status: 'failed', message, manifest: null }
   } finally {
+    // A database error above propagates: pg-boss retries the job, and the watchdog hands the run back
+    // once its heartbeat (stopped here) goes stale.
     clearInterval(beat)
     clearTimeout(killTimer)
     o.track(runId, null)
