@@ -1,0 +1,193 @@
+// The traces API against the real PostgreSQL: upload (multipart), read back byte for byte, parsed arrays,
+// refusals that store nothing, the upload size limit, and group roles.
+import { request as httpRequest } from 'node:http'
+import type { AddressInfo } from 'node:net'
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { TraceData, TraceDetail, TraceList, TRACE_UPLOAD_LIMIT_BYTES } from '@shared/traces'
+import { createApp } from '../../server/app'
+import { tracesRoutes } from '../../server/modules/traces/traces.routes'
+import { silentLog, useTestDb } from './helpers'
+import { newMember, newUser, type Member } from './runs-fixtures'
+
+const { db, pool } = useTestDb()
+const app = createApp({ db, pool, log: silentLog, routes: [['/traces', tracesRoutes({ db })]] })
+const corpus = (name: string) => readFileSync(join(__dirname, '../traces/corpus', name))
+const malformed = (name: string) => readFileSync(join(__dirname, '../traces/malformed', name))
+
+let editor: Member
+let viewer: Member
+let outsider: Member
+
+beforeAll(async () => {
+  editor = await newMember(db, 'editor')
+  viewer = await newMember(db, 'viewer', editor.groupId, 'Mei Okafor')
+  outsider = await newMember(db, 'editor', undefined, 'Outside Person')
+})
+
+const settingsFor = (groupId: string, extra: Record<string, unknown> = {}) =>
+  JSON.stringify({ groupId, name: 'Retrieved pulse, 2 ns storage', timeColumn: 0, timeUnit: 'us', signalColumns: [1], signalUnit: 'mW', ...extra })
+
+const upload = (who: Member, bytes: Buffer, fileName: string, settings: string) =>
+  request(app).post('/api/traces').set('Authorization', who.auth).attach('file', bytes, fileName).field('settings', settings)
+
+const tracesInGroup = async (groupId: string) => Number((await pool.query('select count(*) as n from traces where group_id = $1', [groupId])).rows[0].n)
+
+describe('POST /api/traces', () => {
+  it('stores a semicolon/decimal-comma file: the original byte for byte and the parsed arrays in W and ns', async () => {
+    const bytes = corpus('02-semicolon-decimal-comma.csv')
+
+    const res = await upload(editor, bytes, 'retrieval µs.csv', settingsFor(editor.groupId))
+
+    expect(res.status).toBe(201)
+    const trace = TraceDetail.parse(res.body)
+    expect(trace).toMatchObject({ sampleCount: 4, startNs: 0, endNs: 3, format: 'delimited', fileName: 'retrieval µs.csv', authorName: 'Tomas Reyes' })
+    expect(trace.signals[0]).toMatchObject({ label: 'Leistung [mW]', unit: 'W' })
+    const original = await request(app).get(`/api/traces/${trace.id}/original`).set('Authorization', viewer.auth).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = []
+      r.on('data', (c: Buffer) => chunks.push(c))
+      r.on('end', () => cb(null, Buffer.concat(chunks)))
+    })
+    expect(original.status).toBe(200)
+    expect(Buffer.compare(original.body as Buffer, bytes)).toBe(0)
+    expect(original.headers['content-disposition']).toContain("filename*=UTF-8''retrieval%20%C2%B5s.csv")
+    const data = TraceData.parse((await request(app).get(`/api/traces/${trace.id}/data`).set('Authorization', viewer.auth)).body)
+    expect(data.timeNs).toEqual([0, 1, 2, 3])
+    data.signals[0].values.forEach((v, i) => expect(v).toBeCloseTo([0.5e-3, 1.25e-3, 2e-3, 0.75e-3][i], 15))
+  })
+
+  it('stores an NPY array written by numpy', async () => {
+    const res = await upload(editor, corpus('14-columns-f8.npy'), 'scope.npy', settingsFor(editor.groupId, { timeUnit: 'ns', signalUnit: 'arb' }))
+
+    expect(res.status).toBe(201)
+    expect(res.body).toMatchObject({ format: 'npy', sampleCount: 5, endNs: 0.4 })
+  })
+
+  it.each([
+    ['ragged-rows.csv', /ragged-rows.csv: Line 4 has 2 fields but the data starting at line 2 have 3 columns/],
+    ['non-monotonic-time.csv', /Time is not increasing at row 4 \(line 5\)/],
+    ['no-numeric-data.csv', /No numeric data found/],
+    ['binary-garbage.bin', /not a text file or an NPY array: binary byte/],
+    ['truncated.npy', /NPY header promises 80 bytes/],
+  ])('refuses %s with 422, says what and where, and stores nothing', async (name, message) => {
+    const before = await tracesInGroup(editor.groupId)
+
+    const res = await upload(editor, malformed(name), name, settingsFor(editor.groupId, { timeUnit: 'ns', signalUnit: 'arb' }))
+
+    expect(res.status).toBe(422)
+    expect(res.body.error.code).toBe('unreadable_trace')
+    expect(res.body.error.message).toMatch(message)
+    expect(await tracesInGroup(editor.groupId)).toBe(before)
+  })
+
+  it('refuses settings that break the shared schema with 400 and field paths, storing nothing', async () => {
+    const before = await tracesInGroup(editor.groupId)
+
+    const res = await upload(editor, corpus('09-quoted-crlf.csv'), 'x.csv', settingsFor(editor.groupId, { signalUnit: 'V', signalColumns: [] }))
+
+    expect(res.status).toBe(400)
+    const paths = res.body.error.fields.map((f: { path: string }) => f.path)
+    expect(paths).toEqual(expect.arrayContaining(['settings.signalColumns', 'settings.responsivityVPerW']))
+    expect(await tracesInGroup(editor.groupId)).toBe(before)
+  })
+
+  it('answers 400 when no file is attached', async () => {
+    const res = await request(app).post('/api/traces').set('Authorization', editor.auth).field('settings', settingsFor(editor.groupId))
+    expect(res.status).toBe(400)
+    expect(res.body.error.message).toMatch(/No file was sent/)
+  })
+})
+
+describe('the upload size limit', () => {
+  let base: string
+  let server: ReturnType<typeof app.listen>
+  beforeAll(async () => {
+    server = app.listen(0, '127.0.0.1')
+    await new Promise((r) => server.once('listening', r))
+    base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+  })
+  afterAll(() => new Promise<void>((r) => server.close(() => r())))
+
+  /** Sends up to `total` bytes of multipart body; stops at the first response. Returns status, body and bytes sent. */
+  function send(total: number, declareLength: boolean): Promise<{ status: number; body: string; sent: number }> {
+    return new Promise((resolve, reject) => {
+      const boundary = 'halden-boundary'
+      const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\n`)
+      const headers: Record<string, string> = { 'Content-Type': `multipart/form-data; boundary=${boundary}`, Authorization: editor.auth }
+      if (declareLength) headers['Content-Length'] = String(total)
+      const req = httpRequest(`${base}/api/traces`, { method: 'POST', headers })
+      let sent = 0
+      let done = false
+      const chunk = Buffer.alloc(256 * 1024, '1,2\n')
+      req.on('response', (res) => {
+        done = true
+        let body = ''
+        res.on('data', (c) => (body += c))
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body, sent }))
+      })
+      req.on('error', (err) => (done ? undefined : reject(err)))
+      const pump = () => {
+        while (!done && sent < total) {
+          const ok = req.write(sent === 0 ? head : chunk)
+          sent += sent === 0 ? head.length : chunk.length
+          if (!ok) return void req.once('drain', pump)
+        }
+        if (!done) req.end()
+      }
+      pump()
+    })
+  }
+
+  it('refuses a declared 200 MB upload with 413 before reading its body', async () => {
+    const r = await send(200 * 1024 * 1024, true)
+
+    expect(r.status).toBe(413)
+    expect(JSON.parse(r.body).error.message).toMatch(/larger than the 25 MB upload limit/)
+    // The answer came while the client had sent only a small part.
+    expect(r.sent).toBeLessThan(50 * 1024 * 1024)
+  })
+
+  it('refuses a 200 MB upload of unknown length with 413 once the limit is crossed, storing nothing', async () => {
+    const before = await tracesInGroup(editor.groupId)
+
+    const r = await send(200 * 1024 * 1024, false)
+
+    expect(r.status).toBe(413)
+    expect(JSON.parse(r.body).error.message).toMatch(/The file is larger than the 25 MB upload limit/)
+    expect(r.sent).toBeLessThan(TRACE_UPLOAD_LIMIT_BYTES + 40 * 1024 * 1024)
+    expect(await tracesInGroup(editor.groupId)).toBe(before)
+  })
+})
+
+describe('group roles', () => {
+  let traceId: string
+  beforeAll(async () => {
+    traceId = (await upload(editor, corpus('08-no-header.csv'), 'a.csv', settingsFor(editor.groupId, { timeUnit: 'ns', signalUnit: 'arb' }))).body.id
+  })
+
+  it('lets a viewer list and read, but not upload (403) or delete (403)', async () => {
+    const list = TraceList.parse((await request(app).get('/api/traces').query({ groupId: editor.groupId }).set('Authorization', viewer.auth)).body)
+    expect(list.items.map((t) => t.id)).toContain(traceId)
+    expect((await request(app).get(`/api/traces/${traceId}`).set('Authorization', viewer.auth)).status).toBe(200)
+    expect((await upload(viewer, corpus('08-no-header.csv'), 'b.csv', settingsFor(editor.groupId, { timeUnit: 'ns' }))).status).toBe(403)
+    expect((await request(app).delete(`/api/traces/${traceId}`).set('Authorization', viewer.auth)).status).toBe(403)
+  })
+
+  it('hides the trace from non-members (404) and from anonymous callers (401)', async () => {
+    for (const path of [`/api/traces/${traceId}`, `/api/traces/${traceId}/data`, `/api/traces/${traceId}/original`]) {
+      expect((await request(app).get(path).set('Authorization', outsider.auth)).status).toBe(404)
+      expect((await request(app).get(path)).status).toBe(401)
+    }
+    expect((await request(app).get('/api/traces').query({ groupId: editor.groupId }).set('Authorization', outsider.auth)).status).toBe(404)
+    expect((await upload(outsider, corpus('08-no-header.csv'), 'c.csv', settingsFor(editor.groupId, { timeUnit: 'ns' }))).status).toBe(404)
+    const stranger = await newUser(db, 'Stranger Danger')
+    expect((await request(app).delete(`/api/traces/${traceId}`).set('Authorization', stranger.auth)).status).toBe(404)
+  })
+
+  it('lets an editor delete; the trace is then gone', async () => {
+    expect((await request(app).delete(`/api/traces/${traceId}`).set('Authorization', editor.auth)).status).toBe(204)
+    expect((await request(app).get(`/api/traces/${traceId}`).set('Authorization', editor.auth)).status).toBe(404)
+  })
+})
