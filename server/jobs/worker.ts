@@ -4,11 +4,11 @@ import { randomUUID } from 'node:crypto'
 import { hostname } from 'node:os'
 import type PgBoss from 'pg-boss'
 import type { Pool, PoolClient } from 'pg'
-import { RunJobPayload } from '@shared/runs'
 import type { Logger } from '../logger'
 import { RUN_CANCEL_CHANNEL } from '../modules/runs/run-events.repo'
 import { POLL_INTERVAL_S, RUN_QUEUE } from './queues'
-import { executeRun, type RunHandle, type RunOutcome } from './run-executor'
+import type { RunHandle, RunOutcome } from './run-executor'
+import { runSimulationHandler } from './handlers/run-simulation'
 import { releaseRun } from './requeue'
 
 /** How often the workers row is refreshed (the queue view counts workers seen in the last minute). */
@@ -67,30 +67,22 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
   }
   await listen()
 
-  const handler = async ([job]: PgBoss.Job<unknown>[]) => {
-    const payload = RunJobPayload.safeParse(job.data)
-    if (!payload.success) {
-      // A job we cannot read will never become readable: complete it and say so in the log.
-      log.error({ jobId: job.id, issues: payload.error.issues }, 'unreadable run job dropped')
-      return
-    }
-    const runId = payload.data.runId
-    jobs.set(runId, job.id)
-    try {
-      const outcome = await executeRun({
-        pool: o.pool,
-        log,
-        runId,
-        jobId: job.id,
-        workerId: id,
-        track: (rid, handle) => (handle ? active.set(rid, handle) : active.delete(rid)),
-      })
-      if (outcome.status === 'succeeded' || outcome.status === 'failed') o.onFinished?.(outcome)
-    } finally {
-      jobs.delete(runId)
-      presence().catch(() => {})
-    }
-  }
+  const handler = runSimulationHandler({
+    pool: o.pool,
+    log,
+    workerId: id,
+    track: (runId, handle, jobId) => {
+      if (handle) {
+        active.set(runId, handle)
+        jobs.set(runId, jobId)
+      } else {
+        active.delete(runId)
+        jobs.delete(runId)
+        presence().catch(() => {})
+      }
+    },
+    onFinished: o.onFinished,
+  })
   for (let i = 0; i < o.threads; i++) {
     await o.boss.work(RUN_QUEUE, { pollingIntervalSeconds: POLL_INTERVAL_S, batchSize: 1 }, handler)
   }
