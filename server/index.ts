@@ -15,6 +15,7 @@ import { queueRoutes } from './modules/queue/queue.routes'
 import { RunEventRelay } from './modules/runs/run-event-relay'
 import { runsRoutes } from './modules/runs/runs.routes'
 import { startSweeps } from './modules/sweeps'
+import { waveguidesRoutes } from './modules/waveguides/waveguides.routes'
 
 const config = loadEnv()
 const log = createLogger(config.logLevel)
@@ -56,6 +57,9 @@ const jobRoutes: Array<[string, Router]> = [
 const sweeps = await startSweeps({ db, pool, log, boss: jobs.boss })
 jobRoutes.push(['/sweeps', sweeps.routes])
 stoppers.unshift(sweeps.stop)
+
+// A group's own waveguides (the presets live in shared/ and need no route).
+jobRoutes.push(['/waveguides', waveguidesRoutes({ db })])
 
 // Mail: SMTP_URL, or the in-process catcher (listed at /api/dev/mail) when it is unset.
 await configureMailer({ smtpUrl: config.smtpUrl, log })
