@@ -23,7 +23,7 @@ class FakeSource implements EventSourceLike {
   }
 }
 
-const b64 = (values: number[]) => Buffer.from(new Float32Array(values).buffer).toString('base64')
+const b64 = (values: number[]) => btoa(String.fromCharCode(...new Uint8Array(new Float32Array(values).buffer)))
 /** A block of `rowCount` rows × 2 columns whose pump map holds `fill` (Stokes 2·fill, acoustic 3·fill). */
 function block(attempt: number, blockIndex: number, rowStart: number, rowCount: number, fill: number): RunBlockEvent {
   const n = rowCount * 2

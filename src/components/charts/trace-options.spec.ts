@@ -61,3 +61,17 @@ describe('trace chart options', () => {
     expect(decimate(new Float64Array(5), 1000)).toEqual([0, 1, 2, 3, 4])
   })
 })
+
+describe('trace chart options in dBm', () => {
+  it('shows 10·log10(P / 1 mW), blank where there is no light', () => {
+    // 10 W → 40 dBm, 1 mW → 0 dBm, 1 µW → −30 dBm (definition of the dBm).
+    const field = [Math.sqrt(10), 0, Math.sqrt(1e-3), 0, Math.sqrt(1e-6), 0, 0, 0]
+    const o = buildTraceOptions({ traces: [{ name: 'x', timeNs: [0, 1, 2, 3], field }], showPhase: false, powerScale: 'dBm' })
+    const ys = (o.series as Series[])[0].data.map((d) => d[1])
+    expect(ys[0]).toBeCloseTo(40, 9)
+    expect(ys[1]).toBeCloseTo(0, 9)
+    expect(ys[2]).toBeCloseTo(-30, 9)
+    expect(ys[3]).toBeNull()
+    expect(o.yAxis[0].name).toBe('Power (dBm)')
+  })
+})

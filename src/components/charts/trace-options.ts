@@ -19,7 +19,14 @@ export interface TraceOptionsInput {
   maxPoints?: number
   /** Phase is drawn only where power exceeds this fraction of the trace's peak (elsewhere it is noise). */
   phaseFloor?: number
+  /** 'dBm' shows 10·log10(P / 1 mW), so a 10 mW pulse and a 10 W pulse are both readable. */
+  powerScale?: 'linear' | 'dBm'
 }
+
+/** Lowest level drawn on the dBm axis; weaker samples are left blank. */
+export const DBM_FLOOR = -60
+
+export const toDbm = (powerW: number): number | null => (powerW > 0 ? Math.max(DBM_FLOOR, 10 * Math.log10(powerW / 1e-3)) : null)
 
 export const DEFAULT_MAX_POINTS = 4000
 export const DEFAULT_PHASE_FLOOR = 1e-3
@@ -61,7 +68,8 @@ export function tracePower(field: ArrayLike<number>): Float64Array {
 }
 
 export function buildTraceOptions(input: TraceOptionsInput) {
-  const { traces, showPhase = true, maxPoints = DEFAULT_MAX_POINTS, phaseFloor = DEFAULT_PHASE_FLOOR } = input
+  const { traces, showPhase = true, maxPoints = DEFAULT_MAX_POINTS, phaseFloor = DEFAULT_PHASE_FLOOR, powerScale = 'linear' } = input
+  const dbm = powerScale === 'dBm'
   const powers = traces.map((t) => tracePower(t.field))
   const peak = Math.max(0, ...powers.map((p) => p.reduce((m, v) => (v > m ? v : m), 0)))
   const pu = powerUnit(peak)
@@ -85,7 +93,7 @@ export function buildTraceOptions(input: TraceOptionsInput) {
       name: `${t.name} power`,
       yAxisIndex: 0,
       lineStyle: { width: 1.5, type: t.dashed ? 'dashed' : 'solid' },
-      data: idx.map((k) => [t.timeNs[k] * tu.factor, power[k] * pu.factor]),
+      data: idx.map((k) => [t.timeNs[k] * tu.factor, dbm ? toDbm(power[k]) : power[k] * pu.factor]),
     })
     if (showPhase) {
       series.push({
@@ -104,7 +112,8 @@ export function buildTraceOptions(input: TraceOptionsInput) {
 
   return {
     animation: false,
-    legend: { top: 0, type: 'scroll' },
+    // One legend entry per trace; its phase (same colour, dotted) is explained in the chart's caption.
+    legend: { top: 0, type: 'scroll', data: traces.map((t) => `${t.name} power`) },
     tooltip: { trigger: 'axis', valueFormatter: (v: unknown) => (typeof v === 'number' ? Number(v.toPrecision(4)).toString() : '—') },
     grid: { left: 60, right: showPhase ? 56 : 20, top: 36, bottom: 64 },
     xAxis: {
@@ -116,7 +125,9 @@ export function buildTraceOptions(input: TraceOptionsInput) {
       max: Number.isFinite(tMax) ? tMax * tu.factor : undefined,
     },
     yAxis: [
-      { type: 'value', name: `Power (${pu.unit})`, nameLocation: 'middle', nameGap: 44, min: 0 },
+      dbm
+        ? { type: 'value', name: 'Power (dBm)', nameLocation: 'middle', nameGap: 44, min: DBM_FLOOR }
+        : { type: 'value', name: `Power (${pu.unit})`, nameLocation: 'middle', nameGap: 44, min: 0 },
       ...(showPhase
         ? [{ type: 'value', name: 'Phase (rad)', nameLocation: 'middle', nameGap: 36, min: -Math.PI, max: Math.PI, interval: Math.PI / 2, splitLine: { show: false }, axisLabel: { formatter: (v: number) => (Math.abs(v) < 1e-9 ? '0' : `${(v / Math.PI).toFixed(1)}π`) } }]
         : []),
