@@ -13,7 +13,7 @@ import { RUN_QUEUE } from '../../server/jobs/queues'
 import { simulate } from '../../solver/index'
 import { silentLog, useTestDb } from '../api/helpers'
 import { chipRun, newMember, queueSchemaFor, runRoutesForTest, type Member } from '../api/runs-fixtures'
-import { spawnWorker, waitFor, type WorkerProcess } from './worker-process'
+import { spawnWorker, TEST_STALE_AFTER_S, waitFor, type WorkerProcess } from './worker-process'
 
 const { db, pool } = useTestDb()
 const schema = queueSchemaFor('jobs')
@@ -282,5 +282,27 @@ describe('a worker killed with SIGKILL', () => {
       { s: 'running', attempt: 2 },
       { s: 'succeeded', attempt: 2 },
     ])
+  })
+})
+
+describe('a worker stopped with SIGTERM', () => {
+  it('hands its run back to the queue itself, without waiting for the watchdog, and the other worker finishes it', async () => {
+    workers.push(await spawnWorker(schema))
+    const run = await submit('Halden rib, survives a redeploy', chipRun(60, 0.5))
+    await waitFor('progress', async () => (await runRow(run.id)).progress > 0.1)
+    const taken = await runRow(run.id)
+    const holder = workers.find((w) => taken.worker_id.includes(`:${w.child.pid}:`))!
+
+    const stoppedAt = Date.now()
+    await holder.stop()
+    const { rows } = await pool.query(`select extract(epoch from created_at) * 1000 as at from run_events where run_id = $1 and kind = 'status' and payload->>'status' = 'queued' and attempt = 1`, [run.id])
+    const done = await untilStatus(run.id, 'succeeded')
+
+    expect(holder.child.exitCode).toBe(0)
+    // Handed back by the stopping worker: the watchdog could not have acted before the heartbeat went stale.
+    expect(rows).toHaveLength(1)
+    expect(Number(rows[0].at) - stoppedAt).toBeLessThan(TEST_STALE_AFTER_S * 1000)
+    expect(done.attempt).toBe(2)
+    expect(done.worker_id).not.toBe(taken.worker_id)
   })
 })
