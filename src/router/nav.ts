@@ -20,6 +20,7 @@ export const navItems: NavItem[] = [
   { title: 'Dashboard', icon: 'mdi-view-dashboard-outline', to: { name: 'dashboard' } },
   { title: 'New simulation', icon: 'mdi-plus-box-outline', to: { name: 'new-simulation' } },
   { title: 'Runs', icon: 'mdi-format-list-bulleted-square', to: { name: 'runs' } },
+  { title: 'Sweeps', icon: 'mdi-chart-timeline-variant', to: { name: 'sweeps' } },
   { title: 'Waveguides', icon: 'mdi-sine-wave', to: { name: 'waveguides' } },
   { title: 'Group', icon: 'mdi-account-group-outline', to: { name: 'group-settings' }, signedInOnly: true },
 ]

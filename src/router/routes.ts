@@ -31,6 +31,25 @@ export const routes: AppRoute[] = [
     meta: { title: 'Run', public: true },
   },
   {
+    path: '/sweeps',
+    name: 'sweeps',
+    component: () => import('@/pages/SweepsPage.vue'),
+    meta: { title: 'Sweeps' },
+  },
+  {
+    path: '/sweeps/new',
+    name: 'new-sweep',
+    component: () => import('@/pages/NewSweepPage.vue'),
+    meta: { title: 'New sweep' },
+  },
+  {
+    // Public so a share link (?share=) opens without an account; the API decides what is visible.
+    path: '/sweeps/:id',
+    name: 'sweep',
+    component: () => import('@/pages/SweepPage.vue'),
+    meta: { title: 'Sweep', public: true },
+  },
+  {
     path: '/waveguides',
     name: 'waveguides',
     component: () => import('@/pages/WaveguidesPage.vue'),

@@ -1,0 +1,33 @@
+import type { MetricColumn, SweepDetail } from '@shared/sweeps'
+
+/** Engineering-friendly number: 4 significant digits, exponent outside 1e-3…1e4. */
+export function formatValue(x: number | null | undefined): string {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '—'
+  if (x === 0) return '0'
+  const a = Math.abs(x)
+  return a >= 1e4 || a < 1e-3 ? x.toExponential(3) : String(Number(x.toPrecision(4)))
+}
+
+export const unitSuffix = (unit: string) => (unit === '1' ? '' : ` ${unit}`)
+
+/** Columns that have a value at some point: what is worth plotting. */
+export function metricsWithData(s: SweepDetail): MetricColumn[] {
+  return s.metrics.filter((m) => s.points.some((p) => p.metrics[m.key] !== null && p.metrics[m.key] !== undefined))
+}
+
+/** The headline figures, picked first on the chart and in the table. */
+const PREFERRED = ['retrievalEfficiency', 'peakStokesGainDb', 'pumpOutFwhmNs', 'pumpDelayNs', 'reflectivity']
+
+export function defaultMetrics(s: SweepDetail, n = 2): string[] {
+  const have = metricsWithData(s)
+  const rank = (k: string) => {
+    const i = PREFERRED.indexOf(k.replace(/^ch\d+\./, ''))
+    return i < 0 ? PREFERRED.length : i
+  }
+  return [...have].sort((a, b) => rank(a.key) - rank(b.key)).slice(0, n).map((m) => m.key)
+}
+
+export function progressOf(s: Pick<SweepDetail, 'counts' | 'pointCount'>): number {
+  const c = s.counts
+  return s.pointCount ? (c.succeeded + c.failed + c.cancelled) / s.pointCount : 0
+}
