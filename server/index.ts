@@ -14,6 +14,8 @@ import { startJobService } from './jobs/job-service'
 import { queueRoutes } from './modules/queue/queue.routes'
 import { RunEventRelay } from './modules/runs/run-event-relay'
 import { runsRoutes } from './modules/runs/runs.routes'
+import { tracesRoutes } from './modules/traces/traces.routes'
+import { fitsRoutes } from './modules/fits/fits.routes'
 import { startSweeps } from './modules/sweeps'
 import { waveguidesRoutes } from './modules/waveguides/waveguides.routes'
 
@@ -50,6 +52,8 @@ const stoppers: Array<() => Promise<void>> = [jobs.stop, async () => relay.close
 const jobRoutes: Array<[string, Router]> = [
   ['/runs', runsRoutes({ db, pool, log, boss: jobs.boss, relay })],
   ['/queue', queueRoutes({ pool })],
+  ['/traces', tracesRoutes({ db })],
+  ['/fits', fitsRoutes({ db, boss: jobs.boss })],
 ]
 // -------------------------------------------------------------------------------------------------
 

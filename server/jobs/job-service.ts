@@ -7,6 +7,7 @@ import { createBoss, declareQueues, RUN_QUEUE } from './queues'
 import type { RunOutcome } from './run-executor'
 import { startWatchdog, type WatchdogOptions } from './watchdog'
 import { startWorker, type RunWorker } from './worker'
+import { startFitWorker } from './handlers/fit'
 
 export interface JobServiceOptions {
   databaseUrl: string
@@ -35,6 +36,8 @@ export async function startJobService(o: JobServiceOptions): Promise<JobService>
   await boss.start()
   await declareQueues(boss)
   const worker = o.threads > 0 ? await startWorker({ boss, pool: o.pool, log: o.log, threads: o.threads, onFinished: o.onFinished }) : null
+  // Fits of measured traces share the process's worker (their own queue, one fit at a time).
+  const fitWorker = o.threads > 0 ? await startFitWorker({ boss, pool: o.pool, log: o.log }) : null
   const watchdog = o.watchdog === false ? null : startWatchdog({ pool: o.pool, boss, log: o.log, ...o.watchdog })
   let stopped = false
   return {
@@ -46,6 +49,7 @@ export async function startJobService(o: JobServiceOptions): Promise<JobService>
       stopped = true
       watchdog?.stop()
       await worker?.stop()
+      await fitWorker?.stop()
       await boss.stop({ graceful: true, timeout: 5_000, wait: true })
     },
   }
