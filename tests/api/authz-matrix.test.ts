@@ -7,10 +7,11 @@ import { createApp } from '../../server/app'
 import { stopMailer } from '../../server/modules/mail/mailer'
 import { TEST_JWT_SECRET } from './auth-helpers'
 import { accountRows } from './authz-matrix.accounts'
+import { waveguideRows } from './authz-matrix.waveguides'
 import { ACTORS, buildFixture, headersFor, type MatrixRowSet } from './authz-matrix.fixture'
 import { silentLog, useTestDb } from './helpers'
 
-const ROW_SETS: MatrixRowSet[] = [accountRows]
+const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows]
 
 const { db, pool } = useTestDb()
 const app = createApp({
