@@ -1,5 +1,5 @@
 // Reads of runs for the API; plain objects out. The worker's writes live in server/jobs/run-store.ts.
-import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL } from 'drizzle-orm'
+import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, or, type SQL } from 'drizzle-orm'
 import type { RunListQuery } from '@shared/runs'
 import type { Db } from '../../db/client'
 import { memberships, runArrays, runs, users, type Run } from '../../db/schema'
@@ -71,12 +71,4 @@ export async function findArray(db: Db, runId: string, attempt: number, name: st
     .from(runArrays)
     .where(and(eq(runArrays.runId, runId), eq(runArrays.attempt, attempt), eq(runArrays.name, name)))
   return row ?? null
-}
-
-export async function arraySizes(db: Db, runId: string, attempt: number): Promise<Map<string, number>> {
-  const rows = await db
-    .select({ name: runArrays.name, bytes: sql<number>`octet_length(${runArrays.data})` })
-    .from(runArrays)
-    .where(and(eq(runArrays.runId, runId), eq(runArrays.attempt, attempt)))
-  return new Map(rows.map((r) => [r.name, Number(r.bytes)]))
 }
