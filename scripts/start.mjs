@@ -29,6 +29,9 @@ if (databaseUrl) {
 const env = { DATABASE_URL: databaseUrl }
 
 if (runStep(null, process.execPath, [...TSX, 'server/db/prepare.ts', '--seed'], env) !== 0) process.exit(1)
+// Demo runs of solver/examples, once, for a demo group without runs; the server's worker computes them.
+// Not fatal: the app is usable without them (the script prints why it failed).
+runStep(null, process.execPath, [...TSX, 'server/db/seed-runs.ts'], env)
 if (clientBuildStale()) {
   if (runStep('build: client', process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']) !== 0) {
     fail('build: the client did not build (see above)')
