@@ -16,6 +16,9 @@ import { findTraceMeta } from '../../modules/traces/traces.repo'
 import { POLL_INTERVAL_S } from '../queues'
 
 const THREAD_FILE = new URL('../../modules/fits/fit-thread.ts', import.meta.url)
+// The thread registers tsx itself, so it loads the same way under `node --import tsx`, the worker
+// process and vitest (whose workers do not pass --import on to new threads).
+const BOOTSTRAP = `import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(THREAD_FILE.href)}) })`
 /** At most one progress write per this period. */
 const PROGRESS_INTERVAL_MS = 1_000
 
@@ -46,7 +49,7 @@ export async function startFitWorker(o: { boss: PgBoss; pool: Pool; log: Logger 
     }
 
     const abortFlag = new SharedArrayBuffer(4)
-    const thread = new Worker(THREAD_FILE, { execArgv: ['--import', 'tsx'], workerData: { inputs, abortFlag } })
+    const thread = new Worker(BOOTSTRAP, { eval: true, workerData: { inputs, abortFlag } })
     threads.add(thread)
     let last = 0
     let writing: Promise<unknown> = Promise.resolve()

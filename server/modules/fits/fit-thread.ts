@@ -1,6 +1,6 @@
 // Runs one whole fit in a worker thread: every model evaluation is a synchronous solver run, so the
 // worker's event loop (heartbeats, other jobs, progress writes) stays free. Started by
-// server/jobs/handlers/fit.ts with execArgv ['--import', 'tsx'].
+// server/jobs/handlers/fit.ts through a bootstrap that registers tsx.
 import { parentPort, workerData } from 'node:worker_threads'
 import type { FitResult } from '@shared/fits'
 import { runFit, type FitInputs } from './fit-engine'
