@@ -30,6 +30,8 @@ if (runStep('test: typecheck', 'npm', ['run', '--silent', 'typecheck']) !== 0) f
 // The e2e run serves dist/; building it here also proves the client builds.
 if (runStep('test: client build', process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']) !== 0) failures.push('client build')
 
+// The download tests open the ZIPs with a standard unzip, not only with our own reader.
+ensureDebianTools([{ bin: '/usr/bin/unzip', pkg: 'unzip' }])
 const VITEST = join('node_modules', 'vitest', 'vitest.mjs')
 const totals = { passed: 0, failed: 0, skipped: 0 }
 const unit = await runVitest('unit and API tests', [VITEST, 'run'])
@@ -37,7 +39,7 @@ if (unit !== 0) failures.push('vitest')
 
 const E2E_CONFIG = 'vitest.e2e.config.ts'
 if (existsSync(join(ROOT, E2E_CONFIG))) {
-  ensureChromium()
+  ensureDebianTools([{ bin: '/usr/bin/chromium', pkg: 'chromium' }])
   if ((await runVitest('browser tests', [VITEST, 'run', '-c', E2E_CONFIG])) !== 0) failures.push('e2e')
 }
 
@@ -83,12 +85,15 @@ function runVitest(label, args) {
   })
 }
 
-function ensureChromium() {
-  if (existsSync('/usr/bin/chromium')) return
-  if (process.getuid?.() !== 0) fail('test: the browser tests need /usr/bin/chromium; install it with `sudo apt-get install chromium`')
-  console.log('test: installing chromium with apt-get (once)…')
+/** Installs the Debian packages whose programs the tests call, once, when a program is missing. */
+function ensureDebianTools(tools) {
+  const missing = tools.filter((t) => !existsSync(t.bin))
+  if (missing.length === 0) return
+  const pkgs = missing.map((t) => t.pkg)
+  if (process.getuid?.() !== 0) fail(`test: the tests need ${missing.map((t) => t.bin).join(', ')}; install them with \`sudo apt-get install ${pkgs.join(' ')}\``)
+  console.log(`test: installing ${pkgs.join(', ')} with apt-get (once)…`)
   const aptEnv = { DEBIAN_FRONTEND: 'noninteractive' }
-  if (runStep(null, 'apt-get', ['update'], aptEnv) !== 0 || runStep(null, 'apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], aptEnv) !== 0) {
-    fail('test: apt-get could not install chromium; install the Debian package chromium by hand and retry')
+  if (runStep(null, 'apt-get', ['update'], aptEnv) !== 0 || runStep(null, 'apt-get', ['install', '-y', '--no-install-recommends', ...pkgs], aptEnv) !== 0) {
+    fail(`test: apt-get could not install ${pkgs.join(', ')}; install those Debian packages by hand and retry`)
   }
 }
