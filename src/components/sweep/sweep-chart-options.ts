@@ -12,6 +12,8 @@ const toolbox = (name: string, type: ImageType) => ({
 
 const fileName = (s: SweepDetail) => `${s.title.replace(/[^A-Za-z0-9._-]+/g, '-').slice(0, 60) || 'sweep'}-${s.id.slice(0, 8)}`
 
+const tickLabel = (v: number) => (v !== 0 && (Math.abs(v) >= 1e4 || Math.abs(v) < 1e-3) ? v.toExponential(2) : String(v))
+
 export function lineOption(s: SweepDetail, metrics: MetricColumn[], type: ImageType) {
   const axis = s.axes[0]
   const units = [...new Set(metrics.map((m) => m.unit))]
@@ -37,7 +39,8 @@ export function lineOption(s: SweepDetail, metrics: MetricColumn[], type: ImageT
       scale: true,
       alignTicks: false,
       splitLine: { show: i === 0 },
-      axisLabel: { formatter: (v: number) => formatValue(v) },
+      // Tick values are already round; only very large or small ones need an exponent.
+      axisLabel: { formatter: tickLabel },
     })),
     series: metrics.map((m) => ({
       name: `${m.label}${unitSuffix(m.unit) ? ` (${m.unit})` : ''}`,
