@@ -21,6 +21,7 @@ export const navItems: NavItem[] = [
   { title: 'New simulation', icon: 'mdi-plus-box-outline', to: { name: 'new-simulation' } },
   { title: 'Runs', icon: 'mdi-format-list-bulleted-square', to: { name: 'runs' } },
   { title: 'Sweeps', icon: 'mdi-chart-timeline-variant', to: { name: 'sweeps' } },
+  { title: 'Traces', icon: 'mdi-chart-bell-curve', to: { name: 'traces' } },
   { title: 'Waveguides', icon: 'mdi-sine-wave', to: { name: 'waveguides' } },
   { title: 'Group', icon: 'mdi-account-group-outline', to: { name: 'group-settings' }, signedInOnly: true },
 ]

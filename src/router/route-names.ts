@@ -20,6 +20,8 @@ export interface RouteNamedMap {
   waveguides: RouteRecordInfo<'waveguides', '/waveguides', NoParams, NoParams>
   runs: RouteRecordInfo<'runs', '/runs', NoParams, NoParams>
   run: RouteRecordInfo<'run', '/runs/:id', { id: string }, { id: string }>
+  traces: RouteRecordInfo<'traces', '/traces', NoParams, NoParams>
+  trace: RouteRecordInfo<'trace', '/traces/:id', { id: string }, { id: string }>
   sweeps: RouteRecordInfo<'sweeps', '/sweeps', NoParams, NoParams>
   'new-sweep': RouteRecordInfo<'new-sweep', '/sweeps/new', NoParams, NoParams>
   sweep: RouteRecordInfo<'sweep', '/sweeps/:id', { id: string }, { id: string }>

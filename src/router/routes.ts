@@ -50,6 +50,18 @@ export const routes: AppRoute[] = [
     meta: { title: 'Sweep', public: true },
   },
   {
+    path: '/traces',
+    name: 'traces',
+    component: () => import('@/pages/TracesPage.vue'),
+    meta: { title: 'Traces' },
+  },
+  {
+    path: '/traces/:id',
+    name: 'trace',
+    component: () => import('@/pages/TracePage.vue'),
+    meta: { title: 'Trace' },
+  },
+  {
     path: '/waveguides',
     name: 'waveguides',
     component: () => import('@/pages/WaveguidesPage.vue'),
