@@ -54,6 +54,11 @@ export function useRun(id: Ref<string>, share?: string) {
   async function load() {
     finalMaps.value = null
     traces.value = null
+    // Another run under the same page (a clone opened from here): never show the old one meanwhile.
+    if (detail.data.value && detail.data.value.id !== id.value) {
+      detail.reset()
+      liveId.value = null
+    }
     const r = await detail.run(id.value)
     if (!r) return
     liveId.value = FINAL_RUN_STATES.includes(r.status) ? null : r.id

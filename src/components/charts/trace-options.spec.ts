@@ -29,7 +29,7 @@ describe('trace chart options', () => {
 
   it('zooms on the time axis and drops the phase axis when asked', () => {
     const o = buildTraceOptions({ traces: [trace, { ...trace, name: 'Stokes out', dashed: true }], showPhase: false })
-    expect((o.series as Series[]).map((s) => s.name)).toEqual(['Pump out power', 'Stokes out power'])
+    expect((o.series as Series[]).map((s) => s.name)).toEqual(['Pump out', 'Stokes out'])
     expect((o.series as Series[])[1].lineStyle.type).toBe('dashed')
     expect(o.yAxis).toHaveLength(1)
     expect(o.dataZoom.map((z) => [z.type, z.xAxisIndex])).toEqual([

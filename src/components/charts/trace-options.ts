@@ -90,7 +90,7 @@ export function buildTraceOptions(input: TraceOptionsInput) {
     const common = { type: 'line', showSymbol: false, animation: false, color: t.colour }
     series.push({
       ...common,
-      name: `${t.name} power`,
+      name: showPhase ? `${t.name} power` : t.name,
       yAxisIndex: 0,
       lineStyle: { width: 1.5, type: t.dashed ? 'dashed' : 'solid' },
       data: idx.map((k) => [t.timeNs[k] * tu.factor, dbm ? toDbm(power[k]) : power[k] * pu.factor]),
@@ -113,7 +113,7 @@ export function buildTraceOptions(input: TraceOptionsInput) {
   return {
     animation: false,
     // One legend entry per trace; its phase (same colour, dotted) is explained in the chart's caption.
-    legend: { top: 0, type: 'scroll', data: traces.map((t) => `${t.name} power`) },
+    legend: { top: 0, type: 'scroll', icon: 'roundRect', itemWidth: 14, itemHeight: 3, data: traces.map((t) => (showPhase ? `${t.name} power` : t.name)) },
     tooltip: { trigger: 'axis', valueFormatter: (v: unknown) => (typeof v === 'number' ? Number(v.toPrecision(4)).toString() : '—') },
     grid: { left: 60, right: showPhase ? 56 : 20, top: 36, bottom: 64 },
     xAxis: {
@@ -134,7 +134,22 @@ export function buildTraceOptions(input: TraceOptionsInput) {
     ],
     dataZoom: [
       { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, height: 16, bottom: 8, filterMode: 'none' },
+      {
+        type: 'slider',
+        xAxisIndex: 0,
+        height: 16,
+        bottom: 8,
+        filterMode: 'none',
+        // Neutral greys that sit on both themes instead of the library's stock blue.
+        borderColor: 'rgba(128,128,128,0.35)',
+        fillerColor: 'rgba(128,128,128,0.18)',
+        backgroundColor: 'transparent',
+        dataBackground: { lineStyle: { color: 'rgba(128,128,128,0.6)' }, areaStyle: { color: 'rgba(128,128,128,0.15)' } },
+        selectedDataBackground: { lineStyle: { color: 'rgba(128,128,128,0.8)' }, areaStyle: { color: 'rgba(128,128,128,0.25)' } },
+        handleStyle: { color: 'rgba(128,128,128,0.9)', borderColor: 'rgba(128,128,128,0.9)' },
+        moveHandleStyle: { color: 'rgba(128,128,128,0.5)' },
+        textStyle: { color: 'rgba(128,128,128,1)' },
+      },
     ],
     series,
   }
