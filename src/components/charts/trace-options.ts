@@ -113,7 +113,7 @@ export function buildTraceOptions(input: TraceOptionsInput) {
   return {
     animation: false,
     // One legend entry per trace; its phase (same colour, dotted) is explained in the chart's caption.
-    legend: { top: 0, type: 'scroll', icon: 'roundRect', itemWidth: 14, itemHeight: 3, data: traces.map((t) => (showPhase ? `${t.name} power` : t.name)) },
+    legend: { top: 0, type: 'scroll', icon: 'roundRect', itemWidth: 14, itemHeight: 3, itemGap: 18, data: traces.map((t) => (showPhase ? `${t.name} power` : t.name)) },
     tooltip: { trigger: 'axis', valueFormatter: (v: unknown) => (typeof v === 'number' ? Number(v.toPrecision(4)).toString() : '—') },
     grid: { left: 60, right: showPhase ? 56 : 20, top: 36, bottom: 64 },
     xAxis: {
