@@ -71,8 +71,8 @@ export function heatmapOption(s: SweepDetail, metric: MetricColumn, type: ImageT
         `${axisLabel(s.axes[0])}: ${formatValue(v0[p.data[1]])}<br>${axisLabel(s.axes[1])}: ${formatValue(v1[p.data[0]])}<br>` +
         `${metric.label}: ${typeof p.data[2] === 'number' ? formatValue(p.data[2]) + unitSuffix(metric.unit) : 'not yet'}`,
     },
-    grid: { left: 84, right: 24, top: 36, bottom: 96 },
-    xAxis: { type: 'category', data: v1.map(formatValue), name: axisLabel(s.axes[1]), nameLocation: 'middle', nameGap: 30, splitArea: { show: true } },
+    grid: { left: 84, right: 24, top: 36, bottom: 116 },
+    xAxis: { type: 'category', data: v1.map(formatValue), name: axisLabel(s.axes[1]), nameLocation: 'middle', nameGap: 26, splitArea: { show: true } },
     yAxis: { type: 'category', data: v0.map(formatValue), name: axisLabel(s.axes[0]), nameLocation: 'end', splitArea: { show: true } },
     visualMap: {
       min: finite.length ? Math.min(...finite) : 0,
