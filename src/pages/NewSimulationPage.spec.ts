@@ -124,4 +124,24 @@ describe('NewSimulationPage validation', () => {
     expect(submitButton(wrapper.element).disabled).toBe(true)
     expect(wrapper.text()).toContain('editors and owners queue runs')
   })
+
+  it('starts from a configuration handed over by a run page and queues it with the copied title', async () => {
+    const handed = {
+      waveguide: { name: 'Halden rib R7', lengthM: 0.07, groupIndex: 2.44, effectiveAreaUm2: 1, gainCoefficientMPerW: 3e-10, brillouinShiftGHz: 7.7, linewidthMHz: 34 },
+      windowNs: 9,
+      channels: [{ pump: { pulses: [{ shape: 'gaussian', label: 'data', peakPowerW: 0.01, centreNs: 1, fwhmNs: 0.2 }] }, stokes: { pulses: [] } }],
+    }
+    history.replaceState({ config: handed, title: 'Halden rib R7 storage (copy)' }, '')
+    const { wrapper, net } = await mountSignedIn()
+    history.replaceState(null, '')
+
+    submitButton(wrapper.element).click()
+    await flushPromises()
+
+    const body = JSON.parse(String(net.calls.find((c) => c.method === 'POST')!.init!.body))
+    expect(body.title).toBe('Halden rib R7 storage (copy)')
+    expect(body.config.waveguide.lengthM).toBe(0.07)
+    expect(body.config.windowNs).toBe(9)
+    expect(body.config.channels[0].pump.pulses[0].label).toBe('data')
+  })
 })
