@@ -30,6 +30,19 @@ export const RunClone = z.object({
 })
 export type RunClone = z.infer<typeof RunClone>
 
+/** The one number a list shows per run: what the run was most likely about (storage, gain, or reflection). */
+export const KeyFigure = z.object({ label: z.string(), value: z.number(), unit: z.string() })
+export type KeyFigure = z.infer<typeof KeyFigure>
+
+export function runKeyFigure(f: FiguresOfMerit | null | undefined): KeyFigure | null {
+  const c = f?.channels[0]
+  if (!c) return null
+  if (c.retrievalEfficiency !== null) return { label: 'retrieval', value: 100 * c.retrievalEfficiency, unit: '%' }
+  if (c.peakStokesGainDb !== null) return { label: 'Stokes gain', value: c.peakStokesGainDb, unit: 'dB' }
+  if (c.reflectivity !== null) return { label: 'reflectivity', value: 100 * c.reflectivity, unit: '%' }
+  return null
+}
+
 export const RunSummary = z.object({
   id: z.uuid(),
   groupId: z.uuid(),
@@ -48,6 +61,8 @@ export const RunSummary = z.object({
   createdAt: z.iso.datetime({ offset: true }),
   startedAt: z.iso.datetime({ offset: true }).nullable(),
   finishedAt: z.iso.datetime({ offset: true }).nullable(),
+  waveguideName: z.string().nullable().default(null),
+  keyFigure: KeyFigure.nullable().default(null),
 })
 export type RunSummary = z.infer<typeof RunSummary>
 
@@ -59,6 +74,8 @@ export const RunDetail = RunSummary.extend({
   /** Result arrays of the finished run (empty before). */
   arrays: z.array(ArrayDescriptor),
   heartbeatAt: z.iso.datetime({ offset: true }).nullable(),
+  /** 1 = next to start, among queued single runs of every group (sweep points wait behind them); null otherwise. */
+  queuePosition: z.number().int().positive().nullable().default(null),
 })
 export type RunDetail = z.infer<typeof RunDetail>
 

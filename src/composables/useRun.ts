@@ -1,6 +1,6 @@
 import { computed, onScopeDispose, ref, shallowRef, watch, type Ref } from 'vue'
 import { FINAL_RUN_STATES, type RunDetail } from '@shared/runs'
-import { fetchRun, fetchRunArray, listRuns, type RunArray } from '@/api/runs'
+import { fetchRun, fetchRunArray, type RunArray } from '@/api/runs'
 import { useAsync } from './useAsync'
 import { useRunEvents } from './useRunEvents'
 import { mapFrameOf, type MapFrame } from '@/components/run/run-layout'
@@ -74,27 +74,12 @@ export function useRun(id: Ref<string>, share?: string) {
   watch(channel, (ch) => run.value?.status === 'succeeded' && void results.run(run.value.id, ch))
   watch(id, () => void load(), { immediate: true })
 
-  // Position in the group's queue: the API has no per-run field, so count the group's queued runs before it.
-  const queuePosition = ref<number | null>(null)
+  // The API places a queued run in the queue; ask again now and then while it waits.
+  const queuePosition = computed(() => (status.value === 'queued' ? (run.value?.queuePosition ?? null) : null))
   let timer: ReturnType<typeof setInterval> | null = null
-  async function refreshQueuePosition() {
-    const r = run.value
-    if (!r || share || status.value !== 'queued') return (queuePosition.value = null)
-    try {
-      const list = await listRuns({ groupId: r.groupId, status: 'queued', sort: 'created_asc', page: 1, pageSize: 100 })
-      const i = list.items.findIndex((x) => x.id === r.id)
-      queuePosition.value = i >= 0 ? i + 1 : null
-    } catch {
-      queuePosition.value = null // a hint only; the status chip still says queued
-    }
-  }
   watch(status, (s) => {
     if (timer) clearInterval(timer)
-    timer = null
-    if (s === 'queued') {
-      void refreshQueuePosition()
-      timer = setInterval(() => void refreshQueuePosition(), QUEUE_POLL_MS)
-    } else queuePosition.value = null
+    timer = s === 'queued' ? setInterval(() => void detail.run(id.value), QUEUE_POLL_MS) : null
   }, { immediate: true })
   onScopeDispose(() => timer && clearInterval(timer))
 

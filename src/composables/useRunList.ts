@@ -1,7 +1,7 @@
-import { reactive, ref, shallowRef, watch } from 'vue'
-import type { RunDetail, RunState, RunSummary } from '@shared/runs'
+import { reactive, ref, watch } from 'vue'
+import type { RunState } from '@shared/runs'
 import { RUN_SORTS } from '@shared/runs'
-import { fetchRun, listRuns } from '@/api/runs'
+import { listRuns } from '@/api/runs'
 import { useAsync } from './useAsync'
 import { useSessionStore } from '@/stores/session'
 
@@ -25,12 +25,8 @@ export function apiSort(sortBy: TableSort): (typeof RUN_SORTS)[number] {
 
 /** Waits this long after typing stops before searching (ms). */
 const SEARCH_DEBOUNCE_MS = 300
-const DETAIL_CONCURRENCY = 4
 
-/**
- * The group's runs a page at a time, with filters. The list answer carries no waveguide or figures, so the
- * rows on screen get their detail fetched in the background (cached by id) to fill those two columns.
- */
+/** The group's runs a page at a time, with filters; each row carries its waveguide name and key figure. */
 export function useRunList(initialPageSize = 20) {
   const session = useSessionStore()
   const filters = reactive<RunListFilters>({ status: null, author: 'all', q: '' })
@@ -50,20 +46,8 @@ export function useRunList(initialPageSize = 20) {
     }),
   )
 
-  const details = shallowRef(new Map<string, RunDetail>())
-  async function fillDetails(items: RunSummary[]) {
-    const todo = items.filter((r) => !details.value.has(r.id) || details.value.get(r.id)!.status !== r.status)
-    for (let i = 0; i < todo.length; i += DETAIL_CONCURRENCY) {
-      const got = await Promise.allSettled(todo.slice(i, i + DETAIL_CONCURRENCY).map((r) => fetchRun(r.id)))
-      const next = new Map(details.value)
-      for (const g of got) if (g.status === 'fulfilled') next.set(g.value.id, g.value)
-      details.value = next
-    }
-  }
-
   async function load() {
-    const res = await list.run()
-    if (res) void fillDetails(res.items)
+    await list.run()
   }
 
   let timer: ReturnType<typeof setTimeout> | null = null
@@ -93,5 +77,5 @@ export function useRunList(initialPageSize = 20) {
     void load()
   }
 
-  return { filters, page, pageSize, sortBy, list, details, load, onOptions }
+  return { filters, page, pageSize, sortBy, list, load, onOptions }
 }

@@ -137,6 +137,26 @@ describe('reading runs', () => {
   })
 })
 
+describe('list rows and queue places', () => {
+  it('gives each listed run its waveguide name, and each queued single run its place among every queued single run', async () => {
+    const m = await newMember(db, 'editor')
+    const first = await submit(m, { groupId: m.groupId, title: 'first in line', config: chipRun() })
+    const second = await submit(m, { groupId: m.groupId, title: 'second in line', config: chipRun() })
+    await request(app).post(`/api/runs/${first.body.id}/cancel`).set('Authorization', m.auth)
+
+    const list = RunList.parse((await request(app).get(`/api/runs?groupId=${m.groupId}`).set('Authorization', m.auth)).body)
+    const secondNow = RunDetail.parse((await request(app).get(`/api/runs/${second.body.id}`).set('Authorization', m.auth)).body)
+    const firstNow = RunDetail.parse((await request(app).get(`/api/runs/${first.body.id}`).set('Authorization', m.auth)).body)
+    const { rows } = await pool.query(`select count(*)::int as n from runs where status = 'queued' and sweep_id is null and created_at < $1`, [secondNow.createdAt])
+
+    expect(list.items.map((r) => r.waveguideName)).toEqual([chipRun().waveguide.name ?? 'Untitled waveguide', chipRun().waveguide.name ?? 'Untitled waveguide'])
+    expect(list.items.every((r) => r.keyFigure === null)).toBe(true) // nothing finished yet
+    // The cancelled run no longer holds a place; runs of other tests queued earlier still do.
+    expect(secondNow.queuePosition).toBe(rows[0].n + 1)
+    expect(firstNow.queuePosition).toBeNull()
+  })
+})
+
 describe('share links', () => {
   it('lets anyone holding a public link read the run, and nothing else', async () => {
     const run = await submit(editor, { groupId: editor.groupId, title: 'shared with a visitor', config: chipRun() })

@@ -1,4 +1,4 @@
-import type { RunDetail, RunSummary } from '@shared/runs'
+import { runKeyFigure, type RunDetail, type RunSummary } from '@shared/runs'
 import type { RunRow } from './runs.repo'
 
 const iso = (d: Date | null): string | null => (d ? d.toISOString() : null)
@@ -20,12 +20,15 @@ export function toSummary(r: RunRow): RunSummary {
     createdAt: r.createdAt.toISOString(),
     startedAt: iso(r.startedAt),
     finishedAt: iso(r.finishedAt),
+    waveguideName: r.config?.waveguide?.name ?? null,
+    keyFigure: runKeyFigure(r.figures),
   }
 }
 
-export function toDetail(r: RunRow): RunDetail {
+export function toDetail(r: RunRow, queuePosition: number | null = null): RunDetail {
   return {
     ...toSummary(r),
+    queuePosition,
     notes: r.notes,
     config: r.config,
     figures: r.figures ?? null,

@@ -1,5 +1,5 @@
 // Reads of runs for the API; plain objects out. The worker's writes live in server/jobs/run-store.ts.
-import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, or, type SQL } from 'drizzle-orm'
+import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, isNull, lt, or, type SQL } from 'drizzle-orm'
 import type { RunListQuery } from '@shared/runs'
 import type { Db } from '../../db/client'
 import { memberships, runArrays, runs, users, type Run } from '../../db/schema'
@@ -71,4 +71,14 @@ export async function findArray(db: Db, runId: string, attempt: number, name: st
     .from(runArrays)
     .where(and(eq(runArrays.runId, runId), eq(runArrays.attempt, attempt), eq(runArrays.name, name)))
   return row ?? null
+}
+
+/** 1-based place of a queued single run among every group's queued single runs, oldest first; null otherwise. */
+export async function queuePositionOf(db: Db, run: Pick<RunRow, 'id' | 'status' | 'sweepId' | 'createdAt'>): Promise<number | null> {
+  if (run.status !== 'queued' || run.sweepId) return null
+  const [row] = await db
+    .select({ ahead: count() })
+    .from(runs)
+    .where(and(eq(runs.status, 'queued'), isNull(runs.sweepId), lt(runs.createdAt, run.createdAt)))
+  return row.ahead + 1
 }

@@ -19,7 +19,7 @@ import type { AuthContext } from '../auth/auth-context'
 import { configHash } from './config-hash'
 import { appendRunEvent, RUN_CANCEL_CHANNEL } from './run-events.repo'
 import { toDetail, toSummary } from './runs.mapper'
-import { findByIdempotencyKey, findRun, listRuns, type RunRow } from './runs.repo'
+import { findByIdempotencyKey, findRun, listRuns, queuePositionOf, type RunRow } from './runs.repo'
 
 export interface RunsDeps {
   db: Db
@@ -126,7 +126,8 @@ export async function cancelRun(deps: RunsDeps, auth: AuthContext | undefined, i
 }
 
 export async function getRun(deps: RunsDeps, auth: AuthContext | undefined, id: string, shareToken?: unknown): Promise<RunDetail> {
-  return toDetail(await runFor(deps, auth, id, 'viewer', shareToken))
+  const run = await runFor(deps, auth, id, 'viewer', shareToken)
+  return toDetail(run, await queuePositionOf(deps.db, run))
 }
 
 export async function listRunsFor(deps: RunsDeps, auth: AuthContext | undefined, q: RunListQuery): Promise<RunList> {

@@ -1,12 +1,7 @@
-// The one number the runs list shows per run: what the run was most likely about.
-import type { FiguresOfMerit } from '@shared/simulation-result'
+// The one number the runs list shows per run, as text; the choice of figure is the API's (shared/runs.ts).
+import type { KeyFigure } from '@shared/runs'
 import { formatNumber } from '@/components/charts/format-value'
 
-export function keyFigure(f: FiguresOfMerit | null | undefined): { label: string; text: string } | null {
-  const c = f?.channels[0]
-  if (!c) return null
-  if (c.retrievalEfficiency !== null) return { label: 'retrieval', text: `${formatNumber(100 * c.retrievalEfficiency, 3)} %` }
-  if (c.peakStokesGainDb !== null) return { label: 'Stokes gain', text: `${formatNumber(c.peakStokesGainDb, 3)} dB` }
-  if (c.reflectivity !== null) return { label: 'reflectivity', text: `${formatNumber(100 * c.reflectivity, 3)} %` }
-  return null
+export function keyFigureText(f: KeyFigure | null | undefined): { label: string; text: string } | null {
+  return f ? { label: f.label, text: `${formatNumber(f.value, 3)} ${f.unit}` } : null
 }
