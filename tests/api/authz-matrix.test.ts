@@ -8,10 +8,11 @@ import { stopMailer } from '../../server/modules/mail/mailer'
 import { TEST_JWT_SECRET } from './auth-helpers'
 import { accountRows } from './authz-matrix.accounts'
 import { waveguideRows } from './authz-matrix.waveguides'
+import { traceRows } from './authz-matrix.traces'
 import { ACTORS, buildFixture, headersFor, type MatrixRowSet } from './authz-matrix.fixture'
 import { silentLog, useTestDb } from './helpers'
 
-const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows]
+const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows, traceRows]
 
 const { db, pool } = useTestDb()
 const app = createApp({
