@@ -4,6 +4,7 @@
 import type { TestProject } from 'vitest/node'
 import { createDb, databaseUrl, dropDb, start, testDatabaseName } from '../../scripts/db.mjs'
 import { migrateDatabase } from '../../server/db/migrate'
+import { createTemplate, dropDatabaseAt, TEMPLATE_ENV } from './file-database'
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -16,7 +17,9 @@ export default async function setup(project: TestProject): Promise<(() => void) 
   if (given) {
     process.env.DATABASE_URL = given
     project.provide('databaseUrl', given)
-    return undefined
+    const templateUrl = createTemplate(given)
+    process.env[TEMPLATE_ENV] = templateUrl
+    return () => dropDatabaseAt(templateUrl)
   }
 
   await start(undefined, { quiet: true, database: null })
@@ -28,8 +31,11 @@ export default async function setup(project: TestProject): Promise<(() => void) 
   process.env.TEST_DATABASE_URL = url
   process.env.DATABASE_URL = url
   project.provide('databaseUrl', url)
+  const templateUrl = createTemplate(url)
+  process.env[TEMPLATE_ENV] = templateUrl
 
   return () => {
+    dropDatabaseAt(templateUrl)
     if (project.vitest.state.getCountOfFailedTests() > 0) {
       console.log(`kept test database ${name} for inspection (drop it with: node scripts/db.mjs drop-db ${name})`)
     } else {

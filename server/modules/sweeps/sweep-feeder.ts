@@ -101,7 +101,9 @@ export async function feedSweeps(pool: Pool, boss: PgBoss): Promise<FeedResult> 
     while (waiting < depth) {
       const next = pickNext(cands) as (Candidate & { pending: number }) | null
       if (!next) break
-      const { rows: point } = await c.query(
+      // Sweep row before run row, the order a cancel takes them in: the opposite order deadlocks with it.
+      const { rows: still } = await c.query(`select 1 from sweeps where id = $1 and status = 'running' for update`, [next.sweepId])
+      const { rows: point } = still.length === 0 ? { rows: [] } : await c.query(
         `select id from runs where sweep_id = $1 and status = 'queued' and job_id is null order by sweep_point, created_at limit 1 for update skip locked`,
         [next.sweepId],
       )
