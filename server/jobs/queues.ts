@@ -19,6 +19,10 @@ export const RUN_QUEUE_OPTIONS = {
 } as const
 
 /** Most often a worker asks pg-boss for a job (s); 0.5 is pg-boss 10's minimum. */
+/** pg-boss fetches `priority desc, created_on`: single runs (0) before fed sweep points, so a sweep never starves interactive work. */
+export const SINGLE_RUN_PRIORITY = 0
+export const SWEEP_POINT_PRIORITY = -10
+
 export const POLL_INTERVAL_S = 0.5
 
 export const DEFAULT_BOSS_SCHEMA = 'pgboss'

@@ -4,7 +4,7 @@ import type PgBoss from 'pg-boss'
 import type { Pool, PoolClient } from 'pg'
 import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/runs'
 import { appendRunEvent } from '../modules/runs/run-events.repo'
-import { RUN_QUEUE, RUN_QUEUE_OPTIONS } from './queues'
+import { RUN_QUEUE, RUN_QUEUE_OPTIONS, SINGLE_RUN_PRIORITY, SWEEP_POINT_PRIORITY } from './queues'
 import { inTransaction } from './run-store'
 
 export const bossDb = (c: PoolClient): PgBoss.Db => ({ executeSql: (text, values) => c.query(text, values) })
@@ -14,7 +14,7 @@ export type ReleaseResult = 'requeued' | 'failed' | 'not-ours' | 'not-running'
 export async function releaseRun(pool: Pool, boss: PgBoss, runId: string, attempt: number, jobId: string | null, reason: string): Promise<ReleaseResult> {
   return inTransaction(pool, async (c) => {
     const db = bossDb(c)
-    const { rows } = await c.query(`select status, attempt from runs where id = $1 for update`, [runId])
+    const { rows } = await c.query(`select status, attempt, sweep_id from runs where id = $1 for update`, [runId])
     if (rows.length === 0 || rows[0].status !== 'running' || rows[0].attempt !== attempt) return 'not-running'
     const job = jobId ? await boss.getJobById(RUN_QUEUE, jobId, { db, includeArchive: false }) : null
     // A job this pg-boss schema does not hold belongs to another deployment sharing the database.
@@ -33,7 +33,9 @@ export async function releaseRun(pool: Pool, boss: PgBoss, runId: string, attemp
     let nextJob = jobId
     if (state !== 'retry' && state !== 'created') {
       // The job already ended (its handler returned): carry the run on a new one.
-      nextJob = await boss.send(RUN_QUEUE, { schemaVersion: RUN_JOB_SCHEMA_VERSION, runId } satisfies RunJobPayload, { db })
+      // A sweep point goes back behind single runs, where the feeder had put it.
+      const priority = rows[0].sweep_id ? SWEEP_POINT_PRIORITY : SINGLE_RUN_PRIORITY
+      nextJob = await boss.send(RUN_QUEUE, { schemaVersion: RUN_JOB_SCHEMA_VERSION, runId } satisfies RunJobPayload, { db, priority })
       if (!nextJob) throw new Error(`queue ${RUN_QUEUE} does not exist`)
     }
     await c.query(

@@ -29,14 +29,13 @@ import type { Pool, PoolClient } from 'pg'
 import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/runs'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
-import { RUN_QUEUE } from '../../jobs/queues'
+import { RUN_QUEUE, SWEEP_POINT_PRIORITY } from '../../jobs/queues'
 import { bossDb } from '../../jobs/requeue'
 import { inTransaction } from '../../jobs/run-store'
 import { RUN_EVENTS_CHANNEL } from '../runs/run-events.repo'
 import { closeFinishedSweeps } from './sweep-finish'
 
-/** pg-boss priority of fed sweep points; single runs are sent with 0 and are fetched first. */
-export const SWEEP_POINT_PRIORITY = -10
+export { SWEEP_POINT_PRIORITY }
 /** pg_try_advisory_xact_lock key: "swep". */
 const FEED_LOCK_KEY = 0x73776570
 /** Workers count when seen within this time (they report every 10 s; same window as the queue view). */
