@@ -74,6 +74,9 @@ export const RunDetail = RunSummary.extend({
   /** Result arrays of the finished run (empty before). */
   arrays: z.array(ArrayDescriptor),
   heartbeatAt: z.iso.datetime({ offset: true }).nullable(),
+  /** The sweep this run is a point of, and which point (0-based); null for a single run. */
+  sweepId: z.uuid().nullable().default(null),
+  sweepPoint: z.number().int().nonnegative().nullable().default(null),
   /** 1 = next to start, among queued single runs of every group (sweep points wait behind them); null otherwise. */
   queuePosition: z.number().int().positive().nullable().default(null),
 })

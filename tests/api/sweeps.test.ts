@@ -3,6 +3,7 @@
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { SweepDetail, SweepEstimateResponse, SweepList, axisValues } from '@shared/sweeps'
+import { RunDetail } from '@shared/runs'
 import { pickNext } from '../../server/modules/sweeps/sweep-feeder'
 import { createApp } from '../../server/app'
 import { sharesRoutes } from '../../server/modules/shares/shares.routes'
@@ -67,6 +68,9 @@ describe('POST /api/sweeps', () => {
     expect(rows.map((r) => r.config.channels[0].pump.pulses[0].peakPowerW)).toEqual([0.5, 1, 1.5, 2, 2.5])
     expect(rows.every((r) => r.status === 'queued' && r.group_id === editor.groupId && r.author_id === editor.userId)).toBe(true)
     expect(sweep.metrics.map((m) => m.key)).toContain('window:late Stokes')
+    // A point's run says which sweep and point it belongs to, so its page can link back.
+    const pointRun = RunDetail.parse((await get(`/runs/${sweep.points[3].runId}`, editor)).body)
+    expect([pointRun.sweepId, pointRun.sweepPoint, pointRun.queuePosition]).toEqual([sweep.id, 3, null])
   })
 
   it('builds a 2-D sweep with axis 0 varying slowest', async () => {

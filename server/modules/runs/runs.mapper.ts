@@ -29,6 +29,8 @@ export function toDetail(r: RunRow, queuePosition: number | null = null): RunDet
   return {
     ...toSummary(r),
     queuePosition,
+    sweepId: r.sweepId ?? null,
+    sweepPoint: r.sweepPoint ?? null,
     notes: r.notes,
     config: r.config,
     figures: r.figures ?? null,
