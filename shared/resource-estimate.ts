@@ -11,14 +11,15 @@ export interface GridCounts {
 
 /**
  * Throughput of the SVEA scheme on one core of the reference machine (cell-updates per second), from
- * `npm run bench` on 2026-12-01 (benchmarks/README.md: 12–30 M/s on a loaded machine); set at the low-middle
- * so expected times err long. Slower options are expressed as factors of it.
+ * `npm run bench` on 2026-12-01 (benchmarks/README.md: 68–83 M/s idle, 12–30 M/s with the machine loaded);
+ * set between the two, since a worker shares its machine, so expected times err long. Slower options are
+ * expressed as factors of it.
  */
-export const CELL_UPDATES_PER_S_SVEA = 20e6
-/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.17–0.30. */
+export const CELL_UPDATES_PER_S_SVEA = 40e6
+/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.20–0.31. */
 export const SPEED_FACTOR_HIGHER_ORDER = 0.25
-/** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark: 0.20–0.32. */
-export const SPEED_FACTOR_NOISE = 0.25
+/** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark idle: 0.10–0.12. */
+export const SPEED_FACTOR_NOISE = 0.11
 /** Relative speed with Kerr phases (two complex rotations per cell); estimate. */
 export const SPEED_FACTOR_KERR = 0.8
 
