@@ -7,9 +7,12 @@ import type { FiguresOfMerit, SolverWarning } from '@shared/simulation-result'
 import { BACK_REFLECTION_FRACTION, SAFETY_DEFERRAL } from '@shared/laser-safety'
 import type { Model } from '../problem/coupled-modes'
 
+const ESTIMATED_BACK_REFLECTION = 'back-reflection'
+
 export function preRunWarnings(config: SimulationConfig, m: Model, nz: number, nt: number): SolverWarning[] {
   const derived = deriveQuantities({ waveguide: config.waveguide, config, grid: { dtS: m.dtS, dzM: m.dzM, nz, nt } })
-  return derived.warnings.map(({ code, message }) => ({ code, message }))
+  // The form can only estimate the returned Stokes light; after the run postRunWarnings measures it.
+  return derived.warnings.filter((w) => w.code !== ESTIMATED_BACK_REFLECTION).map(({ code, message }) => ({ code, message }))
 }
 
 /** Checks that need the outputs: the Stokes light actually returned towards the pump source. */
