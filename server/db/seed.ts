@@ -5,6 +5,7 @@ import { sql } from 'drizzle-orm'
 import { createDb, createPool, type Db } from './client'
 import { describeDbError } from './describe-error'
 import { groups, memberships, users, type MembershipRole } from './schema'
+import { seedDemoWaveguides } from './seed-waveguides'
 
 export const DEMO_GROUP = { name: 'Halden Acousto-Optics Lab', slug: 'halden-lab' } as const
 
@@ -19,8 +20,9 @@ export const DEMO_ACCOUNTS: ReadonlyArray<{ email: string; name: string; passwor
 const BCRYPT_COST = 10
 
 /** Inserts whatever part of the demo is missing; existing rows (and changed passwords) are left alone. */
-export async function seedDemo(db: Db): Promise<{ created: number }> {
+export async function seedDemo(db: Db): Promise<{ created: number; waveguides: number }> {
   let created = 0
+  let waveguideCount = 0
   await db.transaction(async (tx) => {
     await tx.insert(groups).values(DEMO_GROUP).onConflictDoNothing({ target: groups.slug })
     const [group] = await tx.select().from(groups).where(sql`${groups.slug} = ${DEMO_GROUP.slug}`)
@@ -40,8 +42,13 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
       }
       await tx.insert(memberships).values({ userId: user.id, groupId: group.id, role: account.role }).onConflictDoNothing()
     }
+    if (created > 0) {
+      // Only with a new workspace: a library the group has since edited is theirs.
+      const [editor] = await tx.select().from(users).where(sql`lower(${users.email}) = lower(${DEMO_ACCOUNTS[1].email})`)
+      waveguideCount = await seedDemoWaveguides(tx, group.id, editor.id)
+    }
   })
-  return { created }
+  return { created, waveguides: waveguideCount }
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) {
