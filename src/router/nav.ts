@@ -24,6 +24,7 @@ export const navItems: NavItem[] = [
   { title: 'Traces', icon: 'mdi-chart-bell-curve', to: { name: 'traces' } },
   { title: 'Waveguides', icon: 'mdi-sine-wave', to: { name: 'waveguides' } },
   { title: 'Group', icon: 'mdi-account-group-outline', to: { name: 'group-settings' }, signedInOnly: true },
+  { title: 'Admin', icon: 'mdi-shield-account-outline', to: { name: 'admin' }, adminOnly: true },
 ]
 
 export function visibleNavItems(items: NavItem[], who: { signedIn: boolean; admin: boolean }): NavItem[] {

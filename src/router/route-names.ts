@@ -15,6 +15,7 @@ export interface RouteNamedMap {
   'accept-invite': RouteRecordInfo<'accept-invite', '/accept-invite', NoParams, NoParams>
   'group-settings': RouteRecordInfo<'group-settings', '/group', NoParams, NoParams>
   tokens: RouteRecordInfo<'tokens', '/tokens', NoParams, NoParams>
+  admin: RouteRecordInfo<'admin', '/admin', NoParams, NoParams>
   'dev-mail': RouteRecordInfo<'dev-mail', '/dev/mail', NoParams, NoParams>
   'new-simulation': RouteRecordInfo<'new-simulation', '/simulations/new', NoParams, NoParams>
   waveguides: RouteRecordInfo<'waveguides', '/waveguides', NoParams, NoParams>

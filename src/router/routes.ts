@@ -110,6 +110,13 @@ export const routes: AppRoute[] = [
     meta: { title: 'API tokens' },
   },
   {
+    // The API answers 403 to non-admins; the page turns that into an "Admins only" message.
+    path: '/admin',
+    name: 'admin',
+    component: () => import('@/pages/AdminPage.vue'),
+    meta: { title: 'Admin' },
+  },
+  {
     path: '/dev/mail',
     name: 'dev-mail',
     component: () => import('@/pages/MailCatcherPage.vue'),
