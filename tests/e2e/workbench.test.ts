@@ -1,4 +1,4 @@
-// The workbench in a real browser: an editor adapts a waveguide, queues a short store-and-retrieve run, sees
+// The workbench in a real browser: an editor saves a waveguide to the group, queues a short store-and-retrieve run, sees
 // the maps and traces of the finished run and downloads its ZIP; a viewer can neither queue nor cancel; an
 // invalid field blocks submit with its message; a long run fills its maps live and an editor cancels it.
 import { readFileSync } from 'node:fs'
@@ -39,13 +39,15 @@ afterAll(async () => {
 })
 
 describe('workbench', () => {
-  it('an editor adapts a waveguide, queues a store-and-retrieve run, sees it succeed and downloads a complete ZIP', async () => {
+  it('an editor saves a waveguide to the group, queues a store-and-retrieve run, sees it succeed and downloads a complete ZIP', async () => {
     const page = await pageAs(DEMO.editor)
 
-    // The waveguide library has no saved group waveguides yet: adapt a platform and hand it to the form.
+    // Adapt a built-in platform, save it to the group's library, and hand it to the form.
     await page.goto('/waveguides')
-    await page.locator('.v-list-item', { hasText: /rib/i }).first().click()
+    await page.locator('.v-card', { hasText: 'Built-in platforms' }).locator('.v-list-item', { hasText: /rib/i }).first().click()
     await page.getByLabel('Name', { exact: true }).fill('Halden R7 rib, e2e copy')
+    await page.getByRole('button', { name: 'Save as group waveguide' }).click()
+    await page.locator('.v-card', { hasText: 'Group waveguides' }).locator('.v-list-item', { hasText: 'Halden R7 rib, e2e copy' }).waitFor()
     await page.getByRole('button', { name: 'Use in a new simulation' }).click()
     await page.waitForURL(/\/simulations\/new/)
     await page.getByLabel('Run title').fill('E2E store and retrieve')
