@@ -1,6 +1,5 @@
-// Executes one taken run: the solver in a worker thread, and on this thread the heartbeat, throttled
-// progress, map blocks and the final all-or-nothing write.
-import { Worker } from 'node:worker_threads'
+// Executes one taken run: the solver on one of the worker's kept solver threads (solver-pool.ts), and on
+// this thread the heartbeat, throttled progress, map blocks and the final all-or-nothing write.
 import type { Pool } from 'pg'
 import { SimulationConfig } from '@shared/simulation-config'
 import { chooseGrid } from '@shared/grid-step'
@@ -9,20 +8,31 @@ import type { SimulationManifest } from '@shared/simulation-result'
 import { buildRunManifest } from '../../solver/io/manifest'
 import type { Logger } from '../logger'
 import { claimRun, finishFailed, finishSucceeded, heartbeat, writeMapBlock, writeProgress } from './run-store'
-import type { SolverThreadInput, SolverThreadMessage } from './solver-thread'
+import { SolverPool, type PoolRun, type RunMessage, type ThreadResult } from './solver-pool'
 
 /** Heartbeat period; the watchdog's staleness threshold must be several of these. */
 export const HEARTBEAT_MS = 3_000
 /** At most one progress write per this period (the solver reports every 1 %). */
 export const PROGRESS_INTERVAL_MS = 1_000
-/** After the abort flag is set, the thread is terminated if it has not returned by then. */
-const ABORT_GRACE_MS = 500
+/** After the abort flag is set, the thread is terminated (and replaced) if it has not returned by then. */
+export const ABORT_GRACE_MS = 500
 
-const THREAD_FILE = new URL('./solver-thread.ts', import.meta.url).href
-// Node 20 does not apply `--import tsx` from a worker's execArgv to the worker's own module loading, so
-// the thread registers tsx's loader itself before importing the TypeScript entry.
-const TSX_API = import.meta.resolve('tsx/esm/api')
-const THREAD_BOOT = `import(${JSON.stringify(TSX_API)}).then(({ register }) => { register(); return import(${JSON.stringify(THREAD_FILE)}) })`
+/** Each worker's solver threads, by worker id (worker.ts registers them; the run handler passes the id). */
+const solverPools = new Map<string, SolverPool>()
+let fallbackPool: SolverPool | null = null
+
+export function registerSolverPool(workerId: string, pool: SolverPool | null): void {
+  if (pool) solverPools.set(workerId, pool)
+  else solverPools.delete(workerId)
+}
+
+function solverPoolFor(workerId: string): SolverPool {
+  const pool = solverPools.get(workerId)
+  if (pool) return pool
+  // A caller without a registered worker still gets kept threads (one), not a thread per run.
+  fallbackPool ??= new SolverPool({ size: 1, abortGraceMs: ABORT_GRACE_MS })
+  return fallbackPool
+}
 
 export interface RunHandle {
   runId: string
@@ -51,17 +61,6 @@ export interface RunOutcome {
   manifest: SimulationManifest | null
 }
 
-type ThreadResult = Extract<SolverThreadMessage, { type: 'result' }>
-
-/** The thread's final message, or null when it ended without one (terminated after an abort). */
-function threadResult(thread: Worker, onMessage: (m: SolverThreadMessage) => void): Promise<ThreadResult | null> {
-  return new Promise((resolve, reject) => {
-    thread.on('message', (m: SolverThreadMessage) => (m.type === 'result' ? resolve(m) : onMessage(m)))
-    thread.on('error', reject)
-    thread.on('exit', () => resolve(null))
-  })
-}
-
 export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   const { pool, log, runId } = o
   const claim = await claimRun(pool, runId, o.workerId, o.jobId)
@@ -80,21 +79,13 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   }
   const config = parsed.data
   const startedAt = new Date()
-  const abortFlag = new SharedArrayBuffer(4)
-  const flag = new Int32Array(abortFlag)
-  const thread = new Worker(THREAD_BOOT, {
-    eval: true,
-    workerData: { config, abortFlag } satisfies SolverThreadInput,
-  })
   let stopReason: 'cancelled' | 'lost' | 'shutdown' | null = null
-  let killTimer: NodeJS.Timeout | undefined
+  let solving: PoolRun | null = null
   const abort = (why: 'cancelled' | 'lost' | 'shutdown') => {
     if (stopReason) return
     stopReason = why
-    Atomics.store(flag, 0, 1)
-    killTimer = setTimeout(() => void thread.terminate(), ABORT_GRACE_MS)
+    solving?.abort()
   }
-  o.track(runId, { runId, attempt, abort })
 
   // Writes go one after another so events keep the solver's order; the final write waits for them.
   let writes: Promise<unknown> = Promise.resolve()
@@ -114,6 +105,19 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
     lastProgressAt = Date.now()
     queueWrite(() => writeProgress(pool, runId, attempt, f))
   }
+  const onThreadMessage = (m: RunMessage) => {
+    if (m.type === 'progress') {
+      pendingProgress = m.fraction
+      if (Date.now() - lastProgressAt >= PROGRESS_INTERVAL_MS) flushProgress()
+    } else {
+      const f = m.frame
+      const block = { blockIndex: blockIndex++, rowStart: f.rowStart, rowCount: f.rowCount, cols: f.cols, ...f.maps }
+      queueWrite(() => writeMapBlock(pool, runId, attempt, block))
+    }
+  }
+
+  solving = solverPoolFor(o.workerId).run(config, onThreadMessage)
+  o.track(runId, { runId, attempt, abort })
   const beat = setInterval(() => {
     heartbeat(pool, runId, attempt).then(
       (ours) => (ours ? undefined : abort('lost')),
@@ -125,16 +129,7 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   try {
     let result: ThreadResult | null
     try {
-      result = await threadResult(thread, (m) => {
-        if (m.type === 'progress') {
-          pendingProgress = m.fraction
-          if (Date.now() - lastProgressAt >= PROGRESS_INTERVAL_MS) flushProgress()
-        } else if (m.type === 'frame') {
-          const f = m.frame
-          const block = { blockIndex: blockIndex++, rowStart: f.rowStart, rowCount: f.rowCount, cols: f.cols, ...f.maps }
-          queueWrite(() => writeMapBlock(pool, runId, attempt, block))
-        }
-      })
+      result = await solving.result
     } catch (err) {
       // The solver thread crashed: the same config would crash again, so the run fails rather than retries.
       const message = `The solver stopped unexpectedly: ${(err as Error).message}`
@@ -143,6 +138,9 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
       await finishFailed(pool, runId, attempt, message)
       return { ...base, status: 'failed', message, manifest: null }
     }
+    // The last reported progress is written too, not left to a throttle window that the run outlived: a
+    // short run on a warm thread finishes well inside one PROGRESS_INTERVAL_MS.
+    if (!stopReason && result?.status === 'finished') flushProgress()
     await writes
     if (stopReason || !result || result.status === 'aborted') {
       log.info({ runId, attempt, stopReason }, 'run stopped')
@@ -166,8 +164,6 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
     // A database error above propagates: pg-boss retries the job, and the watchdog hands the run back
     // once its heartbeat (stopped here) goes stale.
     clearInterval(beat)
-    clearTimeout(killTimer)
     o.track(runId, null)
-    void thread.terminate()
   }
 }

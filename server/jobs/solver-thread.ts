@@ -1,19 +1,27 @@
-// Runs one simulation in a worker thread, off the event loop that sends heartbeats and writes results.
-// Started by run-executor.ts, which registers tsx in the thread first so this .ts file and its imports load.
+// A long-lived solver thread: takes one run at a time from its pool (solver-pool.ts) by postMessage and
+// computes it off the event loop that sends heartbeats and writes results. Loading this file and the
+// solver's TypeScript costs about half a second, so the thread is kept and reused between runs.
 import { parentPort, workerData } from 'node:worker_threads'
 import type { SimulationConfig } from '@shared/simulation-config'
 import { simulateSync, type MapFrame } from '../../solver/index'
 
 export interface SolverThreadInput {
-  config: SimulationConfig
-  /** Int32 flag: non-zero asks the solver to stop at its next chunk (a few ms). */
+  /** Int32 flag: non-zero asks the solver to stop at its next chunk (a few ms). The pool clears it before each run. */
   abortFlag: SharedArrayBuffer
 }
 
+/** What the pool sends: one run; the thread answers with progress and frames, then exactly one result. */
+export interface SolverThreadRequest {
+  type: 'run'
+  seq: number
+  config: SimulationConfig
+}
+
 export type SolverThreadMessage =
-  | { type: 'progress'; fraction: number }
-  | { type: 'frame'; frame: MapFrame }
-  | { type: 'result'; status: 'finished' | 'aborted' | 'failed'; message: string; manifest: unknown; arrays: Record<string, Float64Array | Float32Array> }
+  | { type: 'ready' }
+  | { type: 'progress'; seq: number; fraction: number }
+  | { type: 'frame'; seq: number; frame: MapFrame }
+  | { type: 'result'; seq: number; status: 'finished' | 'aborted' | 'failed'; message: string; manifest: unknown; arrays: Record<string, Float64Array | Float32Array> }
 
 /**
  * The solver hands over map rows every FRAME_INTERVAL_MS: two blocks a second is smooth enough to watch a
@@ -23,19 +31,27 @@ export const FRAME_INTERVAL_MS = 500
 
 const port = parentPort
 if (!port) throw new Error('solver-thread.ts runs as a worker thread')
-const input = workerData as SolverThreadInput
-const flag = new Int32Array(input.abortFlag)
+const flag = new Int32Array((workerData as SolverThreadInput).abortFlag)
 const post = (m: SolverThreadMessage, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer)
 
-const result = simulateSync(input.config, {
-  onProgress: (fraction) => post({ type: 'progress', fraction }),
-  onFrame: (frame) => {
-    const m = frame.maps
-    post({ type: 'frame', frame }, [m.pumpPowerW.buffer, m.stokesPowerW.buffer, m.acousticPhononsPerM.buffer] as ArrayBuffer[])
-  },
-  shouldAbort: () => Atomics.load(flag, 0) !== 0,
-  yieldEveryMs: FRAME_INTERVAL_MS,
+function runOne({ seq, config }: SolverThreadRequest): void {
+  const result = simulateSync(config, {
+    onProgress: (fraction) => post({ type: 'progress', seq, fraction }),
+    onFrame: (frame) => {
+      const m = frame.maps
+      post({ type: 'frame', seq, frame }, [m.pumpPowerW.buffer, m.stokesPowerW.buffer, m.acousticPhononsPerM.buffer] as ArrayBuffer[])
+    },
+    shouldAbort: () => Atomics.load(flag, 0) !== 0,
+    yieldEveryMs: FRAME_INTERVAL_MS,
+  })
+  // Transferred, not copied: the thread keeps no reference to a finished run's arrays. Each buffer once in
+  // the transfer list (two views may share one).
+  const buffers = new Set<ArrayBuffer>(Object.values(result.arrays).map((a) => a.buffer as ArrayBuffer))
+  post({ type: 'result', seq, status: result.status, message: result.message, manifest: result.manifest, arrays: result.arrays }, [...buffers])
+}
+
+// A throw inside runOne is an uncaught error of the thread: the pool fails that run and replaces the thread.
+port.on('message', (m: SolverThreadRequest) => {
+  if (m.type === 'run') runOne(m)
 })
-// Each buffer once in the transfer list (two views may share one).
-const buffers = new Set<ArrayBuffer>(Object.values(result.arrays).map((a) => a.buffer as ArrayBuffer))
-post({ type: 'result', status: result.status, message: result.message, manifest: result.manifest, arrays: result.arrays }, [...buffers])
+post({ type: 'ready' })

@@ -1,5 +1,5 @@
-// A worker process's job side: takes runs from pg-boss (one work() loop per solver thread), listens for
-// cancels, reports itself in the workers table, and on stop hands its runs back to the queue.
+// A worker process's job side: takes runs from pg-boss (one work() loop per kept solver thread), listens
+// for cancels, reports itself in the workers table, and on stop hands its runs back to the queue.
 import { randomUUID } from 'node:crypto'
 import { hostname } from 'node:os'
 import type PgBoss from 'pg-boss'
@@ -7,7 +7,8 @@ import type { Pool, PoolClient } from 'pg'
 import type { Logger } from '../logger'
 import { RUN_CANCEL_CHANNEL } from '../modules/runs/run-events.repo'
 import { POLL_INTERVAL_S, RUN_QUEUE } from './queues'
-import type { RunHandle, RunOutcome } from './run-executor'
+import { ABORT_GRACE_MS, registerSolverPool, type RunHandle, type RunOutcome } from './run-executor'
+import { SolverPool } from './solver-pool'
 import { runSimulationHandler } from './handlers/run-simulation'
 import { releaseRun } from './requeue'
 
@@ -67,6 +68,14 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
   }
   await listen()
 
+  // Solver threads are started now and kept: each takes one run at a time (the work() loops below never
+  // hold more runs than there are threads). Runs are taken only once the threads are loaded, so a
+  // starting worker does not hold a run that an already warm one could compute at once.
+  const solvers = new SolverPool({ size: o.threads, abortGraceMs: ABORT_GRACE_MS })
+  registerSolverPool(id, solvers)
+  // A thread that cannot load fails its first run with the reason (and is retried on demand).
+  await solvers.warm().catch((err) => log.error({ err }, 'a solver thread did not start'))
+
   const handler = runSimulationHandler({
     pool: o.pool,
     log,
@@ -103,6 +112,8 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
         )
       }
       clearInterval(presenceTimer)
+      registerSolverPool(id, null)
+      await solvers.close()
       await o.pool.query(`delete from workers where id = $1`, [id]).catch(() => {})
       listener?.release()
     },
