@@ -132,7 +132,8 @@ describe('a run through a real worker process', () => {
   })
 
   it('streams status, progress and map blocks in order; a reconnect with Last-Event-ID loses and repeats nothing', async () => {
-    const run = await submit('Halden rib, 40 ns', chipRun(40, 0.5))
+    // Long enough (≈2.5e8 cell-updates, several seconds) that two map blocks arrive while the run is still going.
+    const run = await submit('Halden rib, 150 ns', chipRun(150, 0.5))
 
     // First connection: drop it after two map blocks, mid-run.
     const first = await readEvents(run.id, null, (ev) => ev.filter((e) => e.event === 'block').length >= 2)
