@@ -63,6 +63,9 @@ export const RunSummary = z.object({
   finishedAt: z.iso.datetime({ offset: true }).nullable(),
   waveguideName: z.string().nullable().default(null),
   keyFigure: KeyFigure.nullable().default(null),
+  /** The sweep this run is a point of, and which point (0-based); null for a single run. */
+  sweepId: z.uuid().nullable().default(null),
+  sweepPoint: z.number().int().nonnegative().nullable().default(null),
 })
 export type RunSummary = z.infer<typeof RunSummary>
 
@@ -74,9 +77,6 @@ export const RunDetail = RunSummary.extend({
   /** Result arrays of the finished run (empty before). */
   arrays: z.array(ArrayDescriptor),
   heartbeatAt: z.iso.datetime({ offset: true }).nullable(),
-  /** The sweep this run is a point of, and which point (0-based); null for a single run. */
-  sweepId: z.uuid().nullable().default(null),
-  sweepPoint: z.number().int().nonnegative().nullable().default(null),
   /** 1 = next to start, among queued single runs of every group (sweep points wait behind them); null otherwise. */
   queuePosition: z.number().int().positive().nullable().default(null),
 })
@@ -92,6 +92,8 @@ export const RunListQuery = z.object({
   author: z.union([z.literal('me'), z.uuid()]).optional(),
   /** Matched against title and notes, case-insensitive. */
   q: z.string().trim().max(200).optional(),
+  /** Single runs, points of sweeps, or both. */
+  kind: z.enum(['all', 'single', 'sweep']).default('all'),
   sort: RunSort.default('created_desc'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(20),

@@ -9,6 +9,7 @@ export interface RunListFilters {
   status: RunState | null
   author: 'me' | 'all'
   q: string
+  kind: 'all' | 'single' | 'sweep'
 }
 export type TableSort = Array<{ key: string; order?: 'asc' | 'desc' | boolean }>
 
@@ -29,7 +30,7 @@ const SEARCH_DEBOUNCE_MS = 300
 /** The group's runs a page at a time, with filters; each row carries its waveguide name and key figure. */
 export function useRunList(initialPageSize = 20) {
   const session = useSessionStore()
-  const filters = reactive<RunListFilters>({ status: null, author: 'all', q: '' })
+  const filters = reactive<RunListFilters>({ status: null, author: 'all', q: '', kind: 'all' })
   const page = ref(1)
   const pageSize = ref(initialPageSize)
   const sortBy = ref<TableSort>([{ key: 'createdAt', order: 'desc' }])
@@ -40,6 +41,7 @@ export function useRunList(initialPageSize = 20) {
       status: filters.status ?? undefined,
       author: filters.author === 'me' ? 'me' : undefined,
       q: filters.q.trim() || undefined,
+      kind: filters.kind,
       sort: apiSort(sortBy.value),
       page: page.value,
       pageSize: pageSize.value,
@@ -62,7 +64,7 @@ export function useRunList(initialPageSize = 20) {
     },
   )
   watch(
-    () => [filters.status, filters.author, session.currentGroupId],
+    () => [filters.status, filters.author, filters.kind, session.currentGroupId],
     () => {
       page.value = 1
       void load()

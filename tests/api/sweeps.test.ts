@@ -3,7 +3,7 @@
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { SweepDetail, SweepEstimateResponse, SweepList, axisValues } from '@shared/sweeps'
-import { RunDetail } from '@shared/runs'
+import { RunDetail, RunList } from '@shared/runs'
 import { pickNext } from '../../server/modules/sweeps/sweep-feeder'
 import { createApp } from '../../server/app'
 import { sharesRoutes } from '../../server/modules/shares/shares.routes'
@@ -71,6 +71,23 @@ describe('POST /api/sweeps', () => {
     // A point's run says which sweep and point it belongs to, so its page can link back.
     const pointRun = RunDetail.parse((await get(`/runs/${sweep.points[3].runId}`, editor)).body)
     expect([pointRun.sweepId, pointRun.sweepPoint, pointRun.queuePosition]).toEqual([sweep.id, 3, null])
+  })
+
+  it('lists sweep points apart from single runs when asked, each marked with its sweep and point', async () => {
+    const m = await newMember(db, 'editor')
+    const sweep = SweepDetail.parse((await post('/sweeps', m, powerSweep(m.groupId, 'Kind filter', 3))).body)
+    await post('/runs', m, { groupId: m.groupId, title: 'A single run', config: chipRun() })
+    const list = async (kind: string) => RunList.parse((await get(`/runs?groupId=${m.groupId}&kind=${kind}&sort=title_asc`, m)).body)
+
+    const points = await list('sweep')
+    const singles = await list('single')
+    const all = await list('all')
+
+    expect(points.items.map((r) => [r.sweepId, r.sweepPoint])).toEqual(expect.arrayContaining([[sweep.id, 0], [sweep.id, 1], [sweep.id, 2]]))
+    expect(points.total).toBe(3)
+    expect(singles.items.map((r) => [r.title, r.sweepId])).toEqual([['A single run', null]])
+    expect(all.total).toBe(4)
+    expect((await get(`/runs?kind=sweeps`, m)).status).toBe(400)
   })
 
   it('builds a 2-D sweep with axis 0 varying slowest', async () => {

@@ -22,6 +22,8 @@ export function toSummary(r: RunRow): RunSummary {
     finishedAt: iso(r.finishedAt),
     waveguideName: r.config?.waveguide?.name ?? null,
     keyFigure: runKeyFigure(r.figures),
+    sweepId: r.sweepId ?? null,
+    sweepPoint: r.sweepPoint ?? null,
   }
 }
 
@@ -29,8 +31,6 @@ export function toDetail(r: RunRow, queuePosition: number | null = null): RunDet
   return {
     ...toSummary(r),
     queuePosition,
-    sweepId: r.sweepId ?? null,
-    sweepPoint: r.sweepPoint ?? null,
     notes: r.notes,
     config: r.config,
     figures: r.figures ?? null,

@@ -1,5 +1,5 @@
 // Reads of runs for the API; plain objects out. The worker's writes live in server/jobs/run-store.ts.
-import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, isNull, lt, or, type SQL } from 'drizzle-orm'
+import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, isNotNull, isNull, lt, or, type SQL } from 'drizzle-orm'
 import type { RunListQuery } from '@shared/runs'
 import type { Db } from '../../db/client'
 import { memberships, runArrays, runs, users, type Run } from '../../db/schema'
@@ -38,6 +38,7 @@ export async function listRuns(db: Db, userId: string, q: RunListQuery): Promise
     q.status ? eq(runs.status, q.status) : undefined,
     q.author ? eq(runs.authorId, q.author === 'me' ? userId : q.author) : undefined,
     q.q ? or(ilike(runs.title, `%${escapeLike(q.q)}%`), ilike(runs.notes, `%${escapeLike(q.q)}%`)) : undefined,
+    q.kind === 'single' ? isNull(runs.sweepId) : q.kind === 'sweep' ? isNotNull(runs.sweepId) : undefined,
   )
   const [rows, [{ n }]] = await Promise.all([
     db
