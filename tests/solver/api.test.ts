@@ -1,5 +1,5 @@
 // The solver's public door: progress, frames, cancellation, refusal of bad input, agreement of the fast
-// kernel with the general one (common practice: fast vs reference implementation, as in py-pde).
+// kernel with the general one (common practice: a fast implementation checked against a reference one).
 import { describe, expect, it } from 'vitest'
 import { simulate, simulateSync } from '../../solver/index'
 import { SimulationManifest } from '@shared/simulation-result'

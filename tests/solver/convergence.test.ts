@@ -1,4 +1,4 @@
-// Empirical order of convergence (common practice, as in diffrax/scipy test suites): halving Δt must cut
+// Empirical order of convergence (common practice for checking a scheme's order): halving Δt must cut
 // the error by ≈ 4 for a second-order scheme (physics brief §4).
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
