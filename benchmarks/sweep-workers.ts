@@ -2,56 +2,25 @@
 // pulse's peak power over a linear range) drained by one and then by two worker processes (one solver thread
 // each), fed through the sweep feeder as in production. Prints wall time per case and the ratio; a throwaway
 // database is created and dropped. Not a test: benchmarks/README.md records the figures.
-import { spawn, type ChildProcess } from 'node:child_process'
 import { availableParallelism, loadavg } from 'node:os'
-import { createDb as createDatabase, databaseUrl, dropDb, start, testDatabaseName } from '../scripts/db.mjs'
-import { migrateDatabase } from '../server/db/migrate'
-import { createDb, createPool } from '../server/db/client'
-import { groups, memberships, users } from '../server/db/schema'
-import { createLogger } from '../server/logger'
-import { startJobService } from '../server/jobs/job-service'
 import { startSweeps } from '../server/modules/sweeps'
 import { createSweep } from '../server/modules/sweeps/sweeps.service'
-import { benchConfig } from './workers-setup'
+import { benchConfig, benchSetup } from './workers-setup'
 
 const POINTS = Number(process.argv[2] ?? 32)
 const WINDOW_NS = Number(process.argv[3] ?? 20)
 const load = () => loadavg().map((l) => l.toFixed(1)).join(' ')
 
-await start(undefined, { quiet: true, database: null })
-const name = testDatabaseName()
-createDatabase(name)
-const url = databaseUrl(name)
-await migrateDatabase(url)
-const pool = createPool(url, { max: 8 })
-const db = createDb(pool)
-const log = createLogger('silent')
-const jobs = await startJobService({ databaseUrl: url, pool, log, threads: 0, watchdog: false })
+const bench = await benchSetup()
+const { db, pool, log, jobs, group, auth } = bench
 const sweeps = await startSweeps({ db, pool, log, boss: jobs.boss, mail: false })
-const [user] = await db.insert(users).values({ email: 'ingrid.solvang@halden.example', name: 'Ingrid Solvang', passwordHash: 'x' }).returning()
-const [group] = await db.insert(groups).values({ name: 'Halden Acousto-Optics Lab', slug: 'halden' }).returning()
-await db.insert(memberships).values({ userId: user.id, groupId: group.id, role: 'owner' })
-const auth = { userId: user.id, email: user.email, isAdmin: false, via: 'token' as const }
 const deps = { db, pool, boss: jobs.boss, log, feeder: sweeps.feeder }
 
 const base = benchConfig(WINDOW_NS)
 base.channels[0].pump.pulses[0].label = 'write'
 
-function spawnWorker(): Promise<ChildProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/jobs/worker-main.ts', '--threads', '1'], {
-    env: { ...process.env, DATABASE_URL: url, LOG_LEVEL: 'warn' },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  })
-  return new Promise((resolve, reject) => {
-    let out = ''
-    child.stdout!.on('data', (d) => ((out += d), out.includes('taking runs') && resolve(child)))
-    child.on('exit', (code) => reject(new Error(`worker exited with ${code}`)))
-  })
-}
-const stopWorker = (p: ChildProcess) => new Promise((r) => (p.exitCode !== null || p.signalCode !== null ? r(null) : (p.once('exit', r), p.kill('SIGTERM'))))
-
 async function drain(workerCount: number): Promise<{ seconds: number; solverS: number }> {
-  const procs = await Promise.all(Array.from({ length: workerCount }, spawnWorker))
+  const procs = await Promise.all(Array.from({ length: workerCount }, () => bench.spawnWorker()))
   // Let the workers table show them, so the feeder's depth matches the threads.
   await new Promise((r) => setTimeout(r, 500))
   const t0 = performance.now()
@@ -73,7 +42,7 @@ async function drain(workerCount: number): Promise<{ seconds: number; solverS: n
     [sweep.id],
   )
   if (rows[0].ok !== POINTS) throw new Error(`only ${rows[0].ok} of ${POINTS} points succeeded`)
-  await Promise.all(procs.map(stopWorker))
+  await Promise.all(procs.map(bench.stopWorker))
   return { seconds, solverS: Number(rows[0].solver_s) }
 }
 
@@ -87,7 +56,5 @@ try {
   console.log(`ratio (1 worker / 2 workers): ${(one.seconds / two.seconds).toFixed(2)}; load after ${load()}`)
 } finally {
   await sweeps.stop()
-  await jobs.stop()
-  await pool.end()
-  dropDb(name)
+  await bench.close()
 }

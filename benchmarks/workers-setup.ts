@@ -37,6 +37,11 @@ export async function benchSetup() {
   return {
     url,
     pool,
+    db,
+    log,
+    jobs,
+    group,
+    auth,
     submit: async (title: string, config: ReturnType<typeof benchConfig>) =>
       (await createRun({ db, pool, boss: jobs.boss, log }, auth, { groupId: group.id, title, notes: '', config })).run.id,
     spawnWorker: (args: string[] = []): Promise<ChildProcess> => {
