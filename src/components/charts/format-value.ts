@@ -20,8 +20,9 @@ export function formatQuantity(v: number | null | undefined, unit: string, digit
   if (v === null || v === undefined || !Number.isFinite(v)) return '—'
   if (v === 0) return `0 ${unit}`.trim()
   if (PREFIXABLE.has(unit)) {
-    const a = Math.abs(v)
-    const [f, p] = PREFIXES.find(([f]) => a >= f * 0.9995) ?? PREFIXES[PREFIXES.length - 1]
+    // Pick the prefix after rounding to the digits shown: 9.99e-7 W at 2 digits is "1 µW", not "1000 nW".
+    const a = Math.abs(Number(v.toPrecision(digits)))
+    const [f, p] = PREFIXES.find(([f]) => a >= f) ?? PREFIXES[PREFIXES.length - 1]
     return `${Number((v / f).toPrecision(digits))} ${p}${unit}`
   }
   return `${formatNumber(v, digits)} ${unit}`.trim()
