@@ -42,6 +42,7 @@ export const SimulationOptions = z.object({
   kerr: z.boolean().default(false).describe('Self- and cross-phase modulation from n₂'),
   acousticAdvection: z.boolean().default(false).describe('Sound travels along z at v_A'),
   noise: NoiseSettings.default({ enabled: false, temperatureK: 295, seed: 1 }),
+  errorEstimate: z.boolean().default(true).describe('Repeat the run on the grid with twice the time step (+25 % compute) to estimate each figure’s numerical error'),
   /** Replaces ω_p/ω_s in the pump equation; for checking photon bookkeeping only. */
   frequencyRatioOverride: finite().min(0.1).max(10).optional(),
 })
@@ -72,6 +73,7 @@ export const SimulationConfigBase = z.object({
     kerr: false,
     acousticAdvection: false,
     noise: { enabled: false, temperatureK: 295, seed: 1 },
+    errorEstimate: true,
   }),
   energyWindows: z.array(EnergyWindow).max(50).default([]),
 })

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { MapReduction, Port } from './simulation-config'
+import { FigureErrors } from './figure-error'
 
 /**
  * Complex arrays (dtype 'c16') are interleaved: element k is (re, im) = (data[2k], data[2k+1]), in √W for
@@ -94,6 +95,8 @@ export const FiguresOfMerit = z.object({
   windows: z.array(WindowEnergy),
   wallTimeS: z.number(),
   cellUpdatesPerS: z.number(),
+  /** Discretisation error of every figure above, from a companion run on the grid with twice the step (figure-error.ts). */
+  errorEstimate: FigureErrors.optional(),
 })
 export type FiguresOfMerit = z.infer<typeof FiguresOfMerit>
 
