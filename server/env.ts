@@ -29,6 +29,14 @@ const flag = z
   .enum(['true', 'false', '1', '0', 'yes', 'no'], { error: 'must be true or false' })
   .transform((v) => v === 'true' || v === '1' || v === 'yes')
 
+// A count of things or cell-updates: a plain number, scientific notation allowed (2e12).
+const amount = (what: string) =>
+  z
+    .string()
+    .regex(/^\d+(\.\d+)?(e\+?\d+)?$/i, `must be a non-negative number of ${what}, like 20 or 2e12`)
+    .transform(Number)
+    .pipe(z.number({ error: `must be a finite number of ${what}` }))
+
 const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production'], { error: 'must be development, test or production' }).default('development'),
   DATABASE_URL: postgresUrl.optional(),
@@ -56,7 +64,21 @@ const EnvSchema = z.object({
     .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'must be one of fatal, error, warn, info, debug, trace, silent' })
     .default('info'),
   EMBEDDED_WORKER: flag.default(false),
+  // Quotas (server/modules/quotas): runs in flight and cell-updates per rolling 24 h, per user and per group.
+  QUOTA_USER_RUNS_IN_FLIGHT: amount('runs').default(20),
+  QUOTA_USER_CELL_UPDATES_PER_DAY: amount('cell-updates').default(2e12),
+  QUOTA_GROUP_RUNS_IN_FLIGHT: amount('runs').default(50),
+  QUOTA_GROUP_CELL_UPDATES_PER_DAY: amount('cell-updates').default(1e13),
+  QUOTA_UNCONFIRMED_RUNS_IN_FLIGHT: amount('runs').default(1),
+  QUOTA_UNCONFIRMED_CELL_UPDATES_PER_DAY: amount('cell-updates').default(4e10),
 })
+
+/** Per-user and per-group quotas; an account whose email is not confirmed gets the `unconfirmed` pair instead of `user`. */
+export interface QuotaConfig {
+  user: { runsInFlight: number; cellUpdatesPerDay: number }
+  group: { runsInFlight: number; cellUpdatesPerDay: number }
+  unconfirmed: { runsInFlight: number; cellUpdatesPerDay: number }
+}
 
 export interface Config {
   nodeEnv: 'development' | 'test' | 'production'
@@ -71,6 +93,7 @@ export interface Config {
   dataDir: string
   logLevel: string
   embeddedWorker: boolean
+  quotas: QuotaConfig
 }
 
 export type ParseResult = { ok: true; config: Config } | { ok: false, errors: string[] }
@@ -111,6 +134,11 @@ export function parseEnv(raw: Record<string, string | undefined>, opts: ParseOpt
       dataDir,
       logLevel: e.LOG_LEVEL,
       embeddedWorker: e.EMBEDDED_WORKER,
+      quotas: {
+        user: { runsInFlight: e.QUOTA_USER_RUNS_IN_FLIGHT, cellUpdatesPerDay: e.QUOTA_USER_CELL_UPDATES_PER_DAY },
+        group: { runsInFlight: e.QUOTA_GROUP_RUNS_IN_FLIGHT, cellUpdatesPerDay: e.QUOTA_GROUP_CELL_UPDATES_PER_DAY },
+        unconfirmed: { runsInFlight: e.QUOTA_UNCONFIRMED_RUNS_IN_FLIGHT, cellUpdatesPerDay: e.QUOTA_UNCONFIRMED_CELL_UPDATES_PER_DAY },
+      },
     },
   }
 }
