@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 /** Longest address SMTP allows in a forward path (RFC 5321 §4.5.3.1.3). */
 export const EMAIL_MAX_CHARS = 254
@@ -7,23 +8,21 @@ export const PASSWORD_MIN_CHARS = 10
 export const PASSWORD_MAX_BYTES = 72
 export const NAME_MAX_CHARS = 100
 
-export const Email = z
-  .string({ error: 'E-mail is required' })
+export const Email = safeText({ error: 'E-mail is required' })
   .trim()
   .max(EMAIL_MAX_CHARS, `At most ${EMAIL_MAX_CHARS} characters`)
   .pipe(z.email({ error: 'Not a valid e-mail address' }))
   .describe('The address we send sign-in links and notifications to')
 
-export const Password = z
-  .string({ error: 'Password is required' })
+export const Password = safeText({ error: 'Password is required' })
   .min(PASSWORD_MIN_CHARS, `At least ${PASSWORD_MIN_CHARS} characters`)
   .refine((s) => new TextEncoder().encode(s).length <= PASSWORD_MAX_BYTES, `At most ${PASSWORD_MAX_BYTES} bytes (about ${PASSWORD_MAX_BYTES} plain letters)`)
   .describe(`At least ${PASSWORD_MIN_CHARS} characters`)
 
-export const PersonName = z.string().trim().min(1, 'Name is required').max(NAME_MAX_CHARS, `At most ${NAME_MAX_CHARS} characters`)
+export const PersonName = safeText().trim().min(1, 'Name is required').max(NAME_MAX_CHARS, `At most ${NAME_MAX_CHARS} characters`)
 
 /** Opaque secrets we mail or hand out (base64url). Bounded so junk never reaches a hash or the database. */
-export const SecretToken = z.string({ error: 'Token is required' }).trim().min(16, 'Not a valid token').max(200, 'Not a valid token')
+export const SecretToken = safeText({ error: 'Token is required' }).trim().min(16, 'Not a valid token').max(200, 'Not a valid token')
 
 export const SignUpBody = z.object({ email: Email, password: Password, name: PersonName.optional() })
 export type SignUpBody = z.infer<typeof SignUpBody>
@@ -31,7 +30,7 @@ export type SignUpBody = z.infer<typeof SignUpBody>
 // Sign-in checks only presence and size: an old password shorter than today's rule must still work.
 export const SignInBody = z.object({
   email: Email,
-  password: z.string({ error: 'Password is required' }).min(1, 'Password is required').max(200, 'At most 200 characters'),
+  password: safeText({ error: 'Password is required' }).min(1, 'Password is required').max(200, 'At most 200 characters'),
 })
 export type SignInBody = z.infer<typeof SignInBody>
 
@@ -85,7 +84,7 @@ export const TOKEN_NAME_MAX_CHARS = 80
 export const TOKEN_MAX_DAYS = 366
 
 export const ApiTokenCreateBody = z.object({
-  name: z.string({ error: 'Name is required' }).trim().min(1, 'Name is required').max(TOKEN_NAME_MAX_CHARS, `At most ${TOKEN_NAME_MAX_CHARS} characters`),
+  name: safeText({ error: 'Name is required' }).trim().min(1, 'Name is required').max(TOKEN_NAME_MAX_CHARS, `At most ${TOKEN_NAME_MAX_CHARS} characters`),
   expiresInDays: z.number().int('A whole number of days').min(1, 'At least 1 day').max(TOKEN_MAX_DAYS, `At most ${TOKEN_MAX_DAYS} days`).nullable().optional()
     .describe('Leave empty for a token that lasts until revoked'),
 })

@@ -4,6 +4,7 @@ import { SPEED_OF_LIGHT_M_PER_S } from './physical-constants'
 import { dbPerMToPerM, ghzToHz, mhzToHz, nmToM, um2ToM2 } from './units'
 import { pulseFeatureNs, type SimulationConfig } from './simulation-config'
 import type { Waveguide } from './waveguide'
+import { MIN_AUTO_STEPS } from './grid-limits'
 
 /** Rates of the coupled-mode equations in SI units (see physics brief §1). */
 export interface BrillouinRates {
@@ -69,7 +70,7 @@ export const GRID_RULES = {
   cellsPerMismatchPeriod: 10,
   /** Common practice: enough cells for a readable map and a second-order scheme out of its start-up. */
   minCells: 16,
-  minSteps: 200,
+  minSteps: MIN_AUTO_STEPS,
 } as const
 
 export interface GridChoice {

@@ -1,12 +1,12 @@
 import { z } from 'zod'
+import { safeText } from './text'
 import { Email, GroupRole } from './auth'
 
 export { GroupRole }
 
 export const GROUP_NAME_MAX_CHARS = 80
 
-export const GroupName = z
-  .string({ error: 'Name is required' })
+export const GroupName = safeText({ error: 'Name is required' })
   .trim()
   .min(2, 'At least 2 characters')
   .max(GROUP_NAME_MAX_CHARS, `At most ${GROUP_NAME_MAX_CHARS} characters`)
@@ -51,4 +51,4 @@ export const InvitationPreview = z.object({
 })
 export type InvitationPreview = z.infer<typeof InvitationPreview>
 
-export const AcceptInvitationBody = z.object({ token: z.string().trim().min(16, 'Not a valid token').max(200, 'Not a valid token') })
+export const AcceptInvitationBody = z.object({ token: safeText().trim().min(16, 'Not a valid token').max(200, 'Not a valid token') })

@@ -1,10 +1,11 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 const finite = () => z.number().finite()
 
 /** Fields every pulse shape has. Times are at the facet the pulse enters through. */
 const pulseCommon = {
-  label: z.string().trim().max(60).optional().describe('Role of the pulse (data, write, read, refresh …)'),
+  label: safeText().trim().max(60).optional().describe('Role of the pulse (data, write, read, refresh …)'),
   peakPowerW: finite().min(0).max(1e9).describe('Peak power (W)'),
   centreNs: finite().describe('Centre time at the input facet (ns)'),
   phaseRad: finite().default(0).describe('Carrier phase (rad)'),

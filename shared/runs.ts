@@ -1,5 +1,6 @@
 // Runs as the API, the worker and the client see them: requests, responses, live events and the job payload.
 import { z } from 'zod'
+import { safeText } from './text'
 import { ArrayDescriptor, FiguresOfMerit, SolverWarning } from './simulation-result'
 import { SimulationConfig } from './simulation-config'
 
@@ -16,8 +17,8 @@ export const RUN_NOTES_MAX = 10_000
 
 export const RunCreate = z.object({
   groupId: z.uuid({ error: 'must be the id of one of your groups' }),
-  title: z.string().trim().min(1, 'must not be empty').max(RUN_TITLE_MAX).describe('Short name shown in the run list'),
-  notes: z.string().max(RUN_NOTES_MAX).default('').describe('Free text kept with the run'),
+  title: safeText().trim().min(1, 'must not be empty').max(RUN_TITLE_MAX).describe('Short name shown in the run list'),
+  notes: safeText().max(RUN_NOTES_MAX).default('').describe('Free text kept with the run'),
   config: SimulationConfig,
 })
 export type RunCreate = z.infer<typeof RunCreate>
@@ -25,8 +26,8 @@ export type RunCreateInput = z.input<typeof RunCreate>
 
 /** Optional overrides when cloning a run; the config is copied unchanged. */
 export const RunClone = z.object({
-  title: z.string().trim().min(1).max(RUN_TITLE_MAX).optional(),
-  notes: z.string().max(RUN_NOTES_MAX).optional(),
+  title: safeText().trim().min(1, 'must not be empty').max(RUN_TITLE_MAX).optional(),
+  notes: safeText().max(RUN_NOTES_MAX).optional(),
 })
 export type RunClone = z.infer<typeof RunClone>
 
@@ -91,7 +92,7 @@ export const RunListQuery = z.object({
   /** An author's user id, or "me". */
   author: z.union([z.literal('me'), z.uuid()]).optional(),
   /** Matched against title and notes, case-insensitive. */
-  q: z.string().trim().max(200).optional(),
+  q: safeText().trim().max(200).optional(),
   /** Single runs, points of sweeps, or both. */
   kind: z.enum(['all', 'single', 'sweep']).default('all'),
   sort: RunSort.default('created_desc'),

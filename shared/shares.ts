@@ -1,7 +1,8 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 /** Names a module registered with the share service ('run', 'sweep', ...). */
-export const ShareResourceType = z.string({ error: 'Resource type is required' }).trim().min(1).max(40).regex(/^[a-z][a-z0-9-]*$/, 'Not a resource type')
+export const ShareResourceType = safeText({ error: 'Resource type is required' }).trim().min(1).max(40).regex(/^[a-z][a-z0-9-]*$/, 'Not a resource type')
 
 export const ShareCreateBody = z.object({
   resourceType: ShareResourceType,

@@ -1,6 +1,8 @@
 import { z } from 'zod'
 import { Waveguide } from './waveguide'
 import { PortInput, type Pulse } from './pulse'
+import { MIN_TIME_STEP_PS, MIN_WINDOW_NS, MIN_WINDOW_STEPS } from './grid-limits'
+import { safeText } from './text'
 
 const finite = () => z.number().finite()
 
@@ -14,7 +16,7 @@ export type Port = z.infer<typeof Port>
  * another channel's pump and Stokes carriers are both shifted by offsetGHz.
  */
 export const Channel = z.object({
-  label: z.string().trim().max(60).optional(),
+  label: safeText().trim().max(60).optional(),
   offsetGHz: finite().min(-1e4).max(1e4).default(0).describe('Carrier offset from channel 1, same for pump and Stokes (GHz)'),
   pump: PortInput.default({ pulses: [], backgroundPowerW: 0 }).describe('Forward wave, launched at z = 0'),
   stokes: PortInput.default({ pulses: [], backgroundPowerW: 0 }).describe('Backward wave, launched at z = L'),
@@ -24,7 +26,7 @@ export type Channel = z.infer<typeof Channel>
 export const MapReduction = z.enum(['max', 'mean'])
 
 export const GridSettings = z.object({
-  timeStepPs: finite().positive().max(1e6).optional().describe('Time step Δt (ps); Δz = v_g·Δt. Chosen from the step rules when absent'),
+  timeStepPs: finite().min(MIN_TIME_STEP_PS, `must be at least ${MIN_TIME_STEP_PS} ps`).max(1e6).optional().describe('Time step Δt (ps); Δz = v_g·Δt. Chosen from the step rules when absent'),
   mapRows: z.number().int().min(16).max(1024).default(512).describe('Rows (time samples) kept in each space–time map'),
   mapCols: z.number().int().min(16).max(1024).default(512).describe('Columns (z samples) kept in each space–time map'),
   mapReduction: MapReduction.default('max').describe('How grid cells are merged into one map pixel'),
@@ -51,7 +53,7 @@ export type SimulationOptions = z.infer<typeof SimulationOptions>
 /** A user-marked time window over which the energy through one port is reported. */
 export const EnergyWindow = z
   .object({
-    label: z.string().trim().min(1).max(60),
+    label: safeText().trim().min(1, 'must not be empty').max(60),
     port: Port,
     startNs: finite(),
     endNs: finite(),
@@ -66,7 +68,7 @@ export const SimulationConfigBase = z.object({
   waveguide: Waveguide,
   channels: z.array(Channel).min(1).max(8),
   detuningMHz: finite().min(-1e5).max(1e5).default(0).describe('(ν_p − ν_s) − ν_B (MHz)'),
-  windowNs: finite().positive().max(1e7).describe('Simulated time span (ns), starting at 0'),
+  windowNs: finite().min(MIN_WINDOW_NS, `must be at least ${MIN_WINDOW_NS} ns`).max(1e7).describe('Simulated time span (ns), starting at 0'),
   grid: GridSettings.default({ mapRows: 512, mapCols: 512, mapReduction: 'max' }),
   options: SimulationOptions.default({
     higherOrderAcoustic: false,
@@ -129,6 +131,13 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
     if (c.grid.timeStepPs > maxPs) {
       ctx.addIssue({ code: 'custom', path: ['grid', 'timeStepPs'], message: `With the higher-order acoustic term the step must be ≤ ${maxPs.toPrecision(3)} ps (1/(20 ν_B))` })
     }
+  }
+  if (c.grid.timeStepPs !== undefined && (c.windowNs * 1000) / c.grid.timeStepPs < MIN_WINDOW_STEPS) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['windowNs'],
+      message: `The window must hold at least ${MIN_WINDOW_STEPS} time steps: with a ${c.grid.timeStepPs} ps step it must be at least ${((MIN_WINDOW_STEPS * c.grid.timeStepPs) / 1000).toPrecision(3)} ns`,
+    })
   }
   if (c.grid.timeStepPs !== undefined) {
     const features = c.channels.flatMap((ch) => [...ch.pump.pulses, ...ch.stokes.pulses]).map(pulseFeatureNs)

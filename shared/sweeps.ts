@@ -1,6 +1,7 @@
 // Parameter sweeps as the form, the API and the client see them: a base configuration plus one or two axes,
 // each a sweepable field (shared/sweep-fields.ts) and its values; the sweep's summary, detail and points.
 import { z } from 'zod'
+import { safeText } from './text'
 import { RUN_NOTES_MAX, RUN_TITLE_MAX, RunState } from './runs'
 import { SimulationConfig } from './simulation-config'
 import { SWEEP_FIELD_IDS, sweepField } from './sweep-fields'
@@ -32,7 +33,7 @@ export type AxisValues = z.infer<typeof AxisValues>
 export const SweepAxis = z
   .object({
     field: z.enum(SWEEP_FIELD_IDS),
-    pulseLabel: z.string().trim().max(60).optional().describe('Label of the pulse(s) a pulse field acts on'),
+    pulseLabel: safeText().trim().max(60).optional().describe('Label of the pulse(s) a pulse field acts on'),
     values: AxisValues,
   })
   .superRefine((a, ctx) => {
@@ -64,8 +65,8 @@ export type SweepDefinition = z.infer<typeof SweepDefinition>
 export const SweepCreate = z
   .object({
     groupId: z.uuid({ error: 'must be the id of one of your groups' }),
-    title: z.string().trim().min(1, 'must not be empty').max(RUN_TITLE_MAX).describe('Short name shown in the sweep list'),
-    notes: z.string().max(RUN_NOTES_MAX).default('').describe('Free text kept with the sweep'),
+    title: safeText().trim().min(1, 'must not be empty').max(RUN_TITLE_MAX).describe('Short name shown in the sweep list'),
+    notes: safeText().max(RUN_NOTES_MAX).default('').describe('Free text kept with the sweep'),
     ...sweepFields,
   })
   .superRefine(checkAxes)
@@ -179,7 +180,7 @@ export type SweepList = z.infer<typeof SweepList>
 
 export const SweepDownloadQuery = z.object({
   arrays: z.enum(['0', '1', 'true', 'false']).optional().transform((v) => v === '1' || v === 'true'),
-  share: z.string().optional(),
+  share: safeText().max(200).optional(),
 })
 
 /** "Pulse width [read] (ns)". */

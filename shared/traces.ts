@@ -1,5 +1,6 @@
 // Measured traces: the choices made when importing a file, and what the API answers about stored traces.
 import { z } from 'zod'
+import { safeText } from './text'
 
 /** Largest file accepted by POST /api/traces (bytes); the upload form states it. */
 export const TRACE_UPLOAD_LIMIT_BYTES = 25 * 1024 * 1024
@@ -36,8 +37,8 @@ export type TimeWindow = z.infer<typeof TimeWindow>
 /** How a file becomes a trace: the same object drives the browser preview and the stored parse. */
 export const TraceImportSettings = z
   .object({
-    name: z.string().trim().min(1, 'must not be empty').max(200).describe('Name shown in the trace list'),
-    notes: z.string().max(10_000).default(''),
+    name: safeText().trim().min(1, 'must not be empty').max(200).describe('Name shown in the trace list'),
+    notes: safeText().max(10_000).default(''),
     delimiter: Delimiter.default('auto').describe('Column separator of a text file'),
     decimalSeparator: DecimalSeparator.default('auto').describe('Decimal mark of a text file'),
     /** Column holding time; null when samples are equally spaced by sampleIntervalNs. */
@@ -117,7 +118,7 @@ export type TraceList = z.infer<typeof TraceList>
 
 export const TraceListQuery = z.object({
   groupId: z.uuid(),
-  q: z.string().trim().max(200).optional(),
+  q: safeText().trim().max(200).optional(),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(50),
 })

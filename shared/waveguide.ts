@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 const finite = () => z.number().finite()
 
@@ -7,7 +8,7 @@ const finite = () => z.number().finite()
  * The gain parameter the equations use is G_B = polarisationFactor · gainCoefficientMPerW / A_eff.
  */
 export const Waveguide = z.object({
-  name: z.string().trim().min(1).max(120).default('Untitled waveguide').describe('Name shown in lists'),
+  name: safeText().trim().min(1, 'must not be empty').max(120).default('Untitled waveguide').describe('Name shown in lists'),
   lengthM: finite().positive().max(200_000).describe('Interaction length L (m)'),
   groupIndex: finite().min(1).max(10).describe('Group index n_g; sets v_g = c/n_g'),
   phaseIndex: finite().min(1).max(10).default(1.45).describe('Phase (effective) index n; sets ν_B = 2n·v_A/λ'),

@@ -1,12 +1,13 @@
 // A group's saved waveguides as the API and the client see them: requests, responses and the copy name rule.
 import { z } from 'zod'
+import { safeText } from './text'
 import { Waveguide } from './waveguide'
 
 export const WAVEGUIDE_NOTES_MAX = 10_000
 /** Longest name the shared Waveguide schema accepts; copy names are cut to fit it. */
 export const WAVEGUIDE_NAME_MAX = 120
 
-const Notes = z.string().max(WAVEGUIDE_NOTES_MAX).describe('Free text kept with the waveguide (where the numbers come from, sample id)')
+const Notes = safeText().max(WAVEGUIDE_NOTES_MAX).describe('Free text kept with the waveguide (where the numbers come from, sample id)')
 
 export const SavedWaveguideListQuery = z.object({
   groupId: z.uuid({ error: 'must be the id of one of your groups' }),
@@ -31,7 +32,7 @@ export type SavedWaveguideUpdateInput = z.input<typeof SavedWaveguideUpdate>
 
 /** Optional name for the copy; without it the copy is called "<name> (copy)", numbered when taken. */
 export const SavedWaveguideDuplicate = z.object({
-  name: z.string().trim().min(1, 'must not be empty').max(WAVEGUIDE_NAME_MAX).optional(),
+  name: safeText().trim().min(1, 'must not be empty').max(WAVEGUIDE_NAME_MAX).optional(),
 })
 export type SavedWaveguideDuplicate = z.infer<typeof SavedWaveguideDuplicate>
 
