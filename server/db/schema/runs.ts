@@ -43,6 +43,11 @@ export const runs = pgTable(
     sweepId: uuid('sweep_id').references((): AnyPgColumn => sweeps.id, { onDelete: 'cascade' }),
     /** The point's index in its sweep; a re-run adds a newer run with the same index. */
     sweepPoint: integer('sweep_point'),
+    /**
+     * A single run's place in its author's line when it was queued (server/jobs/fair-priority.ts): its job's
+     * pg-boss priority is minus this, so the runs of whoever has fewest in flight are fetched first.
+     */
+    queueRank: integer('queue_rank').notNull().default(0),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     startedAt: timestamp('started_at', { withTimezone: true }),
     finishedAt: timestamp('finished_at', { withTimezone: true }),
@@ -53,6 +58,8 @@ export const runs = pgTable(
     // The watchdog's scan: running rows by heartbeat age.
     index('runs_status_heartbeat_idx').on(t.status, t.heartbeatAt),
     index('runs_sweep_point_idx').on(t.sweepId, t.sweepPoint),
+    // The quota checks: an author's runs of the last day, and those in flight.
+    index('runs_author_created_idx').on(t.authorId, t.createdAt),
     uniqueIndex('runs_author_idempotency_key').on(t.authorId, t.idempotencyKey).where(sql`${t.idempotencyKey} is not null`),
   ],
 )
