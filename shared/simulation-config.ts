@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { Waveguide } from './waveguide'
 import { PortInput, type Pulse } from './pulse'
+import { truncationMessage } from './pulse-truncation'
 import { MIN_TIME_STEP_PS, MIN_WINDOW_NS, MIN_WINDOW_STEPS } from './grid-limits'
 import { safeText } from './text'
 
@@ -103,6 +104,9 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
             path: ['channels', ci, port, 'pulses', pi, 'centreNs'],
             message: `The pulse centre must lie inside the simulated window, 0 to ${c.windowNs} ns`,
           })
+        } else {
+          const cut = truncationMessage(p, c.windowNs)
+          if (cut) ctx.addIssue({ code: 'custom', path: ['channels', ci, port, 'pulses', pi, 'centreNs'], message: cut })
         }
       })
     }
