@@ -2,13 +2,13 @@
 // from the caught message and followed, as a person would.
 import { eq } from 'drizzle-orm'
 import request from 'supertest'
-import { afterAll, describe, expect, it } from 'vitest'
+import { afterAll, afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { createApp } from '../../server/app'
 import { passwordResets, users } from '../../server/db/schema'
 import { hashSecretToken } from '../../server/modules/auth/secret-token'
 import { mailCatcher, stopMailer } from '../../server/modules/mail/mailer'
 import { notifyRunFinished } from '../../server/modules/mail/notify'
-import { createUser, linkIn, signInOverHttp, TEST_JWT_SECRET, uniqueEmail } from './auth-helpers'
+import { apiToken, createUser, linkIn, sessionCookie, signInOverHttp, TEST_JWT_SECRET, uniqueEmail } from './auth-helpers'
 import { silentLog, useTestDb } from './helpers'
 
 const { db, pool } = useTestDb()
@@ -125,17 +125,71 @@ describe('run-finished notices', () => {
   })
 })
 
-describe('GET /api/dev/mail', () => {
-  it('lists caught messages newest first outside production', async () => {
-    const u = await createUser(db)
-    await request(app).post('/api/auth/password-reset/request').send({ email: u.email })
-    await mailTo(u.email, /Reset/)
+describe('held mail (/api/admin/held-mail)', () => {
+  // `npm start` leaves NODE_ENV unset, which the configuration reads as development.
+  beforeEach(() => void vi.stubEnv('NODE_ENV', 'development'))
+  afterEach(() => void vi.unstubAllEnvs())
 
-    const res = await request(app).get('/api/dev/mail')
+  async function heldResetMailFor(u: { email: string }) {
+    await request(app).post('/api/auth/password-reset/request').send({ email: u.email })
+    const mail = await mailTo(u.email, /Reset/)
+    return linkIn(mail.text, '/reset-password').searchParams.get('token')!
+  }
+
+  it('refuses anonymous callers with 401 and signed-in non-admins with 403, and they cannot empty it', async () => {
+    const victim = await createUser(db)
+    const token = await heldResetMailFor(victim)
+    const stranger = await createUser(db)
+    const cookie = await sessionCookie(db, stranger.id)
+    const bearer = (await apiToken(db, stranger.id)).token
+
+    const anonymous = await request(app).get('/api/admin/held-mail')
+    const anonymousEmpty = await request(app).delete('/api/admin/held-mail')
+    const viaCookie = await request(app).get('/api/admin/held-mail').set('Cookie', cookie)
+    const viaBearer = await request(app).get('/api/admin/held-mail').set('Authorization', `Bearer ${bearer}`)
+    const emptyViaCookie = await request(app).delete('/api/admin/held-mail').set('Cookie', cookie)
+
+    expect([anonymous.status, anonymousEmpty.status]).toEqual([401, 401])
+    expect([viaCookie.status, viaBearer.status, emptyViaCookie.status]).toEqual([403, 403, 403])
+    for (const res of [anonymous, viaCookie, viaBearer]) expect(JSON.stringify(res.body)).not.toContain(token)
+    expect((await mailCatcher())!.messages().some((m) => m.recipients.includes(victim.email))).toBe(true)
+  })
+
+  it("lists mail newest first for a site admin, with another person's reset token hidden", async () => {
+    const victim = await createUser(db)
+    const token = await heldResetMailFor(victim)
+    const admin = await createUser(db, { isAdmin: true })
+
+    const res = await request(app).get('/api/admin/held-mail').set('Cookie', await sessionCookie(db, admin.id))
+    const shown = res.body.messages.find((m: { recipients: string[] }) => m.recipients.includes(victim.email))
 
     expect(res.status).toBe(200)
+    expect(res.headers['cache-control']).toBe('no-store')
     expect(res.body.catching).toBe(true)
-    expect(res.body.messages[0]).toMatchObject({ recipients: [u.email], subject: 'Reset your Sonoweave password' })
-    expect(res.body.messages[0].text).toContain('/reset-password?token=')
+    expect(shown).toMatchObject({ subject: 'Reset your Sonoweave password', masked: true })
+    expect(shown.text).toContain('/reset-password?token=[hidden]')
+    expect(JSON.stringify(res.body)).not.toContain(token)
+    expect(JSON.stringify(res.body)).not.toContain(token.slice(0, 12))
+  })
+
+  it('shows a mail addressed to the admin reading it in full', async () => {
+    const admin = await createUser(db, { isAdmin: true })
+    const token = await heldResetMailFor(admin)
+
+    const res = await request(app).get('/api/admin/held-mail').set('Cookie', await sessionCookie(db, admin.id))
+    const own = res.body.messages.find((m: { recipients: string[] }) => m.recipients.includes(admin.email))
+
+    expect(own.masked).toBe(false)
+    expect(own.text).toContain(`/reset-password?token=${token}`)
+  })
+
+  it('lets a site admin empty it', async () => {
+    const admin = await createUser(db, { isAdmin: true })
+    await heldResetMailFor(await createUser(db))
+
+    const res = await request(app).delete('/api/admin/held-mail').set('Cookie', await sessionCookie(db, admin.id))
+
+    expect(res.status).toBe(204)
+    expect((await mailCatcher())!.messages()).toEqual([])
   })
 })

@@ -62,8 +62,9 @@ const rows: MatrixRow[] = [
 
   { route: 'GET /api/admin/users', method: 'get', path: () => '/api/admin/users', expect: { ...signedIn(403) } },
   { route: 'PATCH /api/admin/users/:id', method: 'patch', path: (f) => `/api/admin/users/${f.users.extra.id}`, body: () => ({ isAdmin: true }), expect: signedIn(403) },
-  // Outside production the catcher's list is open to all (tests run with NODE_ENV=test).
-  { route: 'GET /api/dev/mail', method: 'get', path: () => '/api/dev/mail', expect: all(200) },
+  // Held mail carries one-time links: site admins only, in every mode.
+  { route: 'GET /api/admin/held-mail', method: 'get', path: () => '/api/admin/held-mail', expect: signedIn(403) },
+  { route: 'DELETE /api/admin/held-mail', method: 'delete', path: () => '/api/admin/held-mail', expect: signedIn(403) },
 ]
 
 export const accountRows: MatrixRowSet = { name: 'accounts', rows }

@@ -3,7 +3,7 @@ import type { Db } from '../../db/client'
 import { groupsRoutes, invitationsRoutes } from '../groups/groups.routes'
 import { tokensRoutes } from '../tokens/tokens.routes'
 import { adminRoutes } from './admin.routes'
-import { devMailRoutes } from '../mail/dev-mail.routes'
+import { heldMailRoutes } from '../mail/held-mail.routes'
 import { sharesRoutes } from '../shares/shares.routes'
 import { resolveAuthOptions, type AuthOptions } from './auth-options'
 import { authRoutes, meRoutes } from './auth.routes'
@@ -23,7 +23,7 @@ export function accountRoutes(deps: AccountDeps): Router {
   router.use('/invitations', invitationsRoutes(deps))
   router.use('/tokens', tokensRoutes(deps))
   router.use('/shares', sharesRoutes(deps))
+  router.use('/admin/held-mail', heldMailRoutes())
   router.use('/admin', adminRoutes(deps))
-  router.use('/dev/mail', devMailRoutes())
   return router
 }

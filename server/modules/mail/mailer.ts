@@ -35,7 +35,7 @@ async function build(config: MailerConfig): Promise<MailerState> {
   if (config.smtpUrl && config.smtpUrl !== 'catcher') {
     return { transport: nodemailer.createTransport(config.smtpUrl), catcher: null, from, log: config.log }
   }
-  if (process.env.NODE_ENV === 'production') config.log?.warn('SMTP_URL is not set: mail is only caught in memory (admins see it under /api/dev/mail)')
+  if (process.env.NODE_ENV === 'production') config.log?.warn('SMTP_URL is not set: mail is only caught in memory (site admins see it, tokens hidden, under Held mail)')
   const catcher = await startMailCatcher()
   config.log?.info({ port: catcher.port }, 'mail catcher listening')
   // The catcher speaks plain SMTP on loopback only; no TLS to negotiate.
