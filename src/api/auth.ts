@@ -15,14 +15,15 @@ export const completePasswordReset = (token: string, password: string) =>
   api.post('/auth/password-reset/complete', { token, password }, { schema: Ok })
 export const updateMe = (body: UpdateMeBody) => api.patch('/me', body, { schema: MeResponse })
 
-const CaughtMail = z.object({
+const HeldMail = z.object({
   id: z.string(),
   receivedAt: z.string(),
   recipients: z.array(z.string()),
   subject: z.string(),
   from: z.string(),
   text: z.string(),
+  masked: z.boolean(),
 })
-export type CaughtMail = z.infer<typeof CaughtMail>
-export const listCaughtMail = () => api.get('/dev/mail', { schema: z.object({ catching: z.boolean(), messages: z.array(CaughtMail) }) })
-export const clearCaughtMail = () => api.delete('/dev/mail')
+export type HeldMail = z.infer<typeof HeldMail>
+export const listHeldMail = () => api.get('/admin/held-mail', { schema: z.object({ catching: z.boolean(), messages: z.array(HeldMail) }) })
+export const clearHeldMail = () => api.delete('/admin/held-mail')

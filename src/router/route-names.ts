@@ -16,7 +16,7 @@ export interface RouteNamedMap {
   'group-settings': RouteRecordInfo<'group-settings', '/group', NoParams, NoParams>
   tokens: RouteRecordInfo<'tokens', '/tokens', NoParams, NoParams>
   admin: RouteRecordInfo<'admin', '/admin', NoParams, NoParams>
-  'dev-mail': RouteRecordInfo<'dev-mail', '/dev/mail', NoParams, NoParams>
+  'held-mail': RouteRecordInfo<'held-mail', '/admin/held-mail', NoParams, NoParams>
   'new-simulation': RouteRecordInfo<'new-simulation', '/simulations/new', NoParams, NoParams>
   waveguides: RouteRecordInfo<'waveguides', '/waveguides', NoParams, NoParams>
   runs: RouteRecordInfo<'runs', '/runs', NoParams, NoParams>

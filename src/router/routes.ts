@@ -117,10 +117,10 @@ export const routes: AppRoute[] = [
     meta: { title: 'Admin' },
   },
   {
-    path: '/dev/mail',
-    name: 'dev-mail',
-    component: () => import('@/pages/MailCatcherPage.vue'),
-    meta: { title: 'Caught mail', public: true },
+    path: '/admin/held-mail',
+    name: 'held-mail',
+    component: () => import('@/pages/HeldMailPage.vue'),
+    meta: { title: 'Held mail' },
   },
   {
     path: '/:pathMatch(.*)*',
