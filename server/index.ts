@@ -46,7 +46,7 @@ const jobs = await startJobService({
   threads: config.embeddedWorker ? config.workerCount : 0,
   onFinished: notifyOnFinish({ db, log }),
 }).catch((err) => fail(`could not start the job queue: ${(err as Error).message}`))
-const relay = new RunEventRelay(pool)
+const relay = new RunEventRelay(pool, log)
 const queueCheck: QueueCheck | undefined = jobs.queueCheck
 const stoppers: Array<() => Promise<void>> = [jobs.stop, async () => relay.close()]
 const jobRoutes: Array<[string, Router]> = [

@@ -46,25 +46,46 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
   await presence()
   const presenceTimer = setInterval(() => presence().catch((err) => log.warn({ err }, 'presence update failed')), PRESENCE_MS)
 
-  // Cancels reach us by NOTIFY so the solver stops within a second, not at the next heartbeat.
-  let listener: PoolClient | null = null
+  // Cancels reach us by NOTIFY so the solver stops within a second, not at the next heartbeat. A database
+  // restart drops the connection: it is destroyed once (never handed back twice) and reopened.
+  let listener: { release: () => void } | null = null
+  let retry: NodeJS.Timeout | null = null
+  const listenLater = () => {
+    if (!stopping && !retry) retry = setTimeout(() => ((retry = null), void listen()), 1_000)
+  }
   const listen = async () => {
+    let c: PoolClient
     try {
-      const c = await o.pool.connect()
-      c.on('notification', (n) => {
-        if (n.channel === RUN_CANCEL_CHANNEL && n.payload) active.get(n.payload)?.abort('cancelled')
-      })
-      c.on('error', () => {
-        c.release(true)
-        listener = null
-        if (!stopping) setTimeout(() => void listen(), 1_000)
-      })
-      await c.query(`listen ${RUN_CANCEL_CHANNEL}`)
-      listener = c
+      c = await o.pool.connect()
     } catch (err) {
       log.warn({ err }, 'listen for cancels failed; retrying')
-      if (!stopping) setTimeout(() => void listen(), 1_000)
+      return listenLater()
     }
+    let handedBack = false
+    const handBack = (err?: Error) => {
+      if (handedBack) return
+      handedBack = true
+      c.removeListener('notification', onNotification)
+      c.removeListener('error', onError)
+      c.release(err ?? true)
+    }
+    const onNotification = (n: { channel: string; payload?: string }) => {
+      if (n.channel === RUN_CANCEL_CHANNEL && n.payload) active.get(n.payload)?.abort('cancelled')
+    }
+    const onError = (err: Error) => {
+      if (listener?.release === handBack) listener = null
+      handBack(err)
+      listenLater()
+    }
+    c.on('notification', onNotification)
+    c.on('error', onError)
+    try {
+      await c.query(`listen ${RUN_CANCEL_CHANNEL}`)
+    } catch (err) {
+      handBack(err as Error)
+      return listenLater()
+    }
+    if (!handedBack) listener = { release: handBack }
   }
   await listen()
 
@@ -115,7 +136,9 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
       registerSolverPool(id, null)
       await solvers.close()
       await o.pool.query(`delete from workers where id = $1`, [id]).catch(() => {})
+      if (retry) clearTimeout(retry)
       listener?.release()
+      listener = null
     },
   }
 }
