@@ -17,7 +17,14 @@ export declare function databaseUrl(name?: string, cluster?: Cluster): string
 export declare function ensureInstalled(): void
 export declare function removeStalePidFile(dataDir: string): boolean
 export declare function status(cluster?: Cluster): ClusterStatus
-export declare function start(cluster?: Cluster, opts?: { quiet?: boolean; database?: string | null }): Promise<{ url: string }>
+export interface StartOptions {
+  quiet?: boolean
+  database?: string | null
+  /** 'serve' makes the cluster durable and password-protected; 'test' (default) may make a fast new one. */
+  profile?: 'serve' | 'test'
+}
+export declare function start(cluster?: Cluster, opts?: StartOptions): Promise<{ url: string }>
+export declare function passwordFile(cluster?: Cluster): string
 export declare function stop(cluster?: Cluster, opts?: { quiet?: boolean }): boolean
 export declare function databaseExists(name: string, cluster?: Cluster): boolean
 export declare function createDb(name: string, cluster?: Cluster): boolean

@@ -5,11 +5,18 @@
 //   node scripts/db.mjs start | stop | status | url [NAME] | create-db NAME | drop-db NAME
 //
 // PGPORT overrides the port (default 55433), so two checkouts on one machine need not clash.
+//
+// Two profiles. 'serve' (`npm start`, `npm run db:start`) holds a group's results: fsync, full-page writes
+// and synchronous commit on, and it brings a cluster made by an older version (or by a test run) up to
+// that. 'test' (`npm test`, `npm run dev`, vitest) makes a new cluster without them, because a test
+// database is thrown away anyway, and never weakens an existing one. Every new cluster has data checksums
+// and a password for its `postgres` role, kept beside the data folder (.data/pg-password, mode 0600).
 import { spawnSync } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
-import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync, appendFileSync } from 'node:fs'
+import { chmodSync, existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync, appendFileSync } from 'node:fs'
 import { createServer } from 'node:net'
-import { dirname, join, resolve } from 'node:path'
+import { tmpdir } from 'node:os'
+import { basename, dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..')
@@ -32,8 +39,33 @@ export function defaultCluster() {
   return { dataDir: join(ROOT, '.data', 'pg'), port }
 }
 
+/** Where the `postgres` role's password is kept: beside the data folder, e.g. .data/pg-password. */
+export function passwordFile(cluster = defaultCluster()) {
+  return join(dirname(cluster.dataDir), `${basename(cluster.dataDir)}-password`)
+}
+
+function readPassword(cluster) {
+  try {
+    return readFileSync(passwordFile(cluster), 'utf8').trim() || null
+  } catch {
+    return null // a cluster made before passwords (trust), until `npm start` adds one
+  }
+}
+
+/** Made once, readable by this user only (like the session secret in .data/jwt-secret). */
+function ensurePassword(cluster) {
+  const existing = readPassword(cluster)
+  if (existing) return existing
+  const password = randomBytes(24).toString('hex') // hex: safe in a URL without escaping
+  mkdirSync(dirname(passwordFile(cluster)), { recursive: true })
+  writeFileSync(passwordFile(cluster), `${password}\n`, { mode: 0o600 })
+  chmodSync(passwordFile(cluster), 0o600)
+  return password
+}
+
 export function databaseUrl(name = APP_DB, cluster = defaultCluster()) {
-  return `postgres://postgres@127.0.0.1:${cluster.port}/${name}`
+  const password = readPassword(cluster)
+  return `postgres://postgres${password ? `:${password}` : ''}@127.0.0.1:${cluster.port}/${name}`
 }
 
 function run(cmd, args, { asPg = false, env } = {}) {
@@ -96,7 +128,15 @@ function checkReachable(dir) {
   }
 }
 
-function initCluster({ dataDir }) {
+/** Settings that make a power cut lose recent commits or tear pages: only for throwaway test clusters. */
+const FAST_SETTINGS = ['fsync = off', 'synchronous_commit = off', 'full_page_writes = off']
+/** What 'serve' requires; ALTER SYSTEM puts these in postgresql.auto.conf, which overrides postgresql.conf. */
+const DURABLE_SETTINGS = { fsync: 'on', synchronous_commit: 'on', full_page_writes: 'on' }
+/** Password (SCRAM) over loopback TCP only; the cluster has no Unix socket. */
+const HBA = ['# sonoweave (scripts/db.mjs): password sign-in over loopback only', 'host all all 127.0.0.1/32 scram-sha-256', 'host all all ::1/128 scram-sha-256', ''].join('\n')
+
+function initCluster(cluster, profile) {
+  const { dataDir } = cluster
   const dataParent = dirname(dataDir)
   mkdirSync(dataParent, { recursive: true })
   checkReachable(dataParent)
@@ -105,16 +145,31 @@ function initCluster({ dataDir }) {
   run('chmod', ['700', dataDir])
   if (existsSync(join(dataDir, 'PG_VERSION'))) return false
   const bin = binDir(dataDir)
-  const r = run(join(bin, 'initdb'), ['-D', dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8', '--no-sync'], { asPg: true })
-  if (r.code !== 0) throw new DbScriptError(`initdb failed: ${lastLine(r.out)}`)
-  // A throwaway development cluster: durability traded for speed (a power cut can lose recent writes).
+  const password = ensurePassword(cluster)
+  // initdb reads the password from a file its user (postgres, when we are root) can read; removed at once.
+  const pwDir = mkdtempSync(join(tmpdir(), 'sonoweave-initdb-'))
+  const pwFile = join(pwDir, 'pw')
+  try {
+    writeFileSync(pwFile, `${password}\n`, { mode: 0o600 })
+    if (RUN_AS) run('chown', ['-R', `${RUN_AS}:${RUN_AS}`, pwDir])
+    const args = ['-D', dataDir, '-U', 'postgres', '--auth=scram-sha-256', `--pwfile=${pwFile}`, '--data-checksums', '-E', 'UTF8', '--locale=C.UTF-8']
+    // A test cluster is thrown away with its data; skipping initdb's own fsync saves seconds there.
+    if (profile === 'test') args.push('--no-sync')
+    const r = run(join(bin, 'initdb'), args, { asPg: true })
+    if (r.code !== 0) throw new DbScriptError(`initdb failed: ${lastLine(r.out)}`)
+  } finally {
+    rmSync(pwDir, { recursive: true, force: true })
+  }
+  writeFileSync(join(dataDir, 'pg_hba.conf'), HBA)
   // Only reachable over TCP on loopback; the port is passed at start so PGPORT can change it.
   appendFileSync(join(dataDir, 'postgresql.conf'), [
     '', '# sonoweave (scripts/db.mjs)',
     "listen_addresses = '127.0.0.1'", "unix_socket_directories = ''",
-    'fsync = off', 'synchronous_commit = off', 'full_page_writes = off',
-    'max_connections = 200', "log_min_messages = 'warning'", '',
+    'max_connections = 200', "log_min_messages = 'warning'",
+    ...(profile === 'test' ? ['# a test cluster: speed over durability (a power cut can lose recent writes)', ...FAST_SETTINGS] : []),
+    '',
   ].join('\n'))
+  if (RUN_AS) run('chown', [`${RUN_AS}:${RUN_AS}`, join(dataDir, 'pg_hba.conf')])
   return true
 }
 
@@ -164,13 +219,18 @@ function portFree(port) {
   })
 }
 
-/** Idempotent: installs if needed, initialises once, reuses a running cluster, creates the app database. */
-export async function start(cluster = defaultCluster(), { quiet = false, database = APP_DB } = {}) {
+/**
+ * Idempotent: installs if needed, initialises once, reuses a running cluster, creates the app database.
+ * profile 'serve' also brings an older cluster's durability and sign-in up to date (see the top of the file).
+ */
+export async function start(cluster = defaultCluster(), { quiet = false, database = APP_DB, profile = 'test' } = {}) {
+  if (profile !== 'serve' && profile !== 'test') throw new DbScriptError(`unknown profile ${profile}`)
   const say = quiet ? () => {} : (m) => console.log(`db: ${m}`)
   ensureInstalled()
-  if (initCluster(cluster)) say(`initialised a new cluster in ${cluster.dataDir}`)
+  if (initCluster(cluster, profile)) say(`initialised a new cluster in ${cluster.dataDir}${profile === 'test' ? ' (test settings: fast, not crash-safe)' : ''}`)
   if (removeStalePidFile(cluster.dataDir)) say('removed a stale postmaster.pid left by a crash')
   let st = status(cluster)
+  if (profile === 'serve' && !st.running) enableChecksums(cluster, say)
   if (st.running && st.port !== cluster.port) {
     throw new DbScriptError(`the cluster in ${cluster.dataDir} is already running on port ${st.port}; stop it with \`npm stop\` or set PGPORT=${st.port}`)
   }
@@ -191,8 +251,62 @@ export async function start(cluster = defaultCluster(), { quiet = false, databas
     }
     say(`started PostgreSQL on 127.0.0.1:${cluster.port}`)
   }
+  if (profile === 'serve') {
+    requirePassword(cluster, say)
+    requireDurability(cluster, say)
+    if (checksumsOff(cluster)) say('data checksums are off in this cluster (made by an older version); to turn them on, stop it (`npm stop`) and run `npm start` again')
+  }
   if (database && createDb(database, cluster)) say(`created database ${database}`)
   return { url: databaseUrl(database ?? APP_DB, cluster) }
+}
+
+/** A cluster made before passwords trusted every local user as superuser: give `postgres` a password. */
+function requirePassword(cluster, say) {
+  const hbaFile = join(cluster.dataDir, 'pg_hba.conf')
+  const hba = readFileSync(hbaFile, 'utf8')
+  const trusting = hba.split('\n').some((l) => /^\s*(local|host\w*)\s.*\btrust\s*$/.test(l))
+  if (!trusting && readPassword(cluster)) return
+  const password = ensurePassword(cluster)
+  const set = psql(`alter role postgres password '${password}'`, cluster)
+  if (set.code !== 0) throw new DbScriptError(`could not set the database password: ${lastLine(set.out)}`)
+  writeFileSync(hbaFile, HBA)
+  const reload = psql('select pg_reload_conf()', cluster)
+  if (reload.code !== 0) throw new DbScriptError(`could not reload the database settings: ${lastLine(reload.out)}`)
+  say(`the postgres role now needs a password (kept in ${passwordFile(cluster)}); DATABASE_URL carries it`)
+}
+
+function settings(cluster, names) {
+  const r = psql(`select name || '=' || setting from pg_settings where name in (${names.map((n) => `'${n}'`).join(', ')})`, cluster)
+  if (r.code !== 0) throw new DbScriptError(`could not read the database settings: ${lastLine(r.out)}`)
+  return Object.fromEntries(r.out.split('\n').filter(Boolean).map((l) => l.split('=')))
+}
+
+/** A cluster made by a test run (or an older version) trades durability for speed: undo that. */
+function requireDurability(cluster, say) {
+  const now = settings(cluster, Object.keys(DURABLE_SETTINGS))
+  const off = Object.keys(DURABLE_SETTINGS).filter((n) => now[n] !== DURABLE_SETTINGS[n])
+  if (off.length === 0) return
+  // All three take effect on reload; synchronous_commit for new sessions.
+  for (const name of off) {
+    const r = psql(`alter system set ${name} = ${DURABLE_SETTINGS[name]}`, cluster)
+    if (r.code !== 0) throw new DbScriptError(`could not turn on ${name}: ${lastLine(r.out)}`)
+  }
+  psql('select pg_reload_conf()', cluster)
+  say(`turned on ${off.join(', ')} (the cluster had test settings, which a power cut could cost data)`)
+}
+
+function checksumsOff(cluster) {
+  return settings(cluster, ['data_checksums']).data_checksums === 'off'
+}
+
+/** pg_checksums needs the cluster stopped and cleanly shut down; it rewrites every page once. */
+function enableChecksums(cluster, say) {
+  const bin = binDir(cluster.dataDir)
+  const control = run(join(bin, 'pg_controldata'), ['-D', cluster.dataDir], { asPg: true })
+  if (!/Data page checksum version:\s+0\b/.test(control.out)) return
+  say('turning on data checksums (once; this reads and rewrites the whole cluster)…')
+  const r = run(join(bin, 'pg_checksums'), ['--enable', '-D', cluster.dataDir], { asPg: true })
+  if (r.code !== 0) say(`could not turn on data checksums: ${lastLine(r.out)}; the cluster runs without them`)
 }
 
 export function stop(cluster = defaultCluster(), { quiet = false } = {}) {
@@ -211,7 +325,8 @@ export function stop(cluster = defaultCluster(), { quiet = false } = {}) {
 function psql(sql, cluster, database = 'postgres') {
   const bin = binDir(cluster.dataDir)
   const args = ['-h', '127.0.0.1', '-p', String(cluster.port), '-U', 'postgres', '-d', database, '-v', 'ON_ERROR_STOP=1', '-tAc', sql]
-  return run(join(bin, 'psql'), args, { env: { PGCONNECT_TIMEOUT: '10' } })
+  const password = readPassword(cluster)
+  return run(join(bin, 'psql'), args, { env: { PGCONNECT_TIMEOUT: '10', ...(password ? { PGPASSWORD: password } : {}) } })
 }
 
 const SAFE_NAME = /^[a-z_][a-z0-9_]{0,62}$/
@@ -258,8 +373,8 @@ async function main(argv) {
   const [cmd, arg] = argv
   switch (cmd) {
     case 'start': {
-      const { url } = await start()
-      console.log(`db: DATABASE_URL=${url}`)
+      const { url } = await start(defaultCluster(), { profile: 'serve' })
+      console.log(`db: DATABASE_URL=${url.replace(/:[^:@/]+@/, ':…@')} (password in ${passwordFile()}; \`node scripts/db.mjs url\` prints it whole)`)
       return
     }
     case 'stop':

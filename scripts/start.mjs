@@ -21,7 +21,7 @@ if (databaseUrl) {
   console.log('start: using the database in DATABASE_URL (the local cluster is not started)')
 } else {
   try {
-    databaseUrl = (await startDb()).url
+    databaseUrl = (await startDb(undefined, { profile: 'serve' })).url
   } catch (err) {
     fail(err instanceof DbScriptError ? `db: ${err.message}` : String(err))
   }

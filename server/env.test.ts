@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { parseEnv } from './env'
 
 const devSecret = () => 'd'.repeat(64)
-const parse = (raw: Record<string, string | undefined>) => parseEnv(raw, { devSecret })
+const parse = (raw: Record<string, string | undefined>) => parseEnv(raw, { devSecret, clusterPasswordFile: '/nonexistent/pg-password' })
 
 function errorsOf(raw: Record<string, string | undefined>): string[] {
   const r = parse(raw)

@@ -101,6 +101,8 @@ export type ParseResult = { ok: true; config: Config } | { ok: false, errors: st
 export interface ParseOptions {
   /** Supplies a secret when JWT_SECRET is absent outside production. */
   devSecret?: (dataDir: string) => string
+  /** The local cluster's password file (default .data/pg-password, written by scripts/db.mjs). */
+  clusterPasswordFile?: string
 }
 
 /** Pure: validates a raw environment and returns the config or one message per bad variable. */
@@ -124,7 +126,7 @@ export function parseEnv(raw: Record<string, string | undefined>, opts: ParseOpt
     ok: true,
     config: {
       nodeEnv: e.NODE_ENV,
-      databaseUrl: e.DATABASE_URL ?? localClusterUrl(e.PGPORT),
+      databaseUrl: e.DATABASE_URL ?? localClusterUrl(e.PGPORT, opts.clusterPasswordFile),
       port: e.PORT,
       host: e.HOST,
       jwtSecret: e.JWT_SECRET ?? devSecret(dataDir),
@@ -143,9 +145,10 @@ export function parseEnv(raw: Record<string, string | undefined>, opts: ParseOpt
   }
 }
 
-/** The database scripts/db.mjs runs for this checkout. */
-export function localClusterUrl(pgPort: number = LOCAL_CLUSTER_PORT): string {
-  return `postgres://postgres@127.0.0.1:${pgPort}/sonoweave`
+/** The database scripts/db.mjs runs for this checkout, with the password it keeps in .data/pg-password. */
+export function localClusterUrl(pgPort: number = LOCAL_CLUSTER_PORT, passwordFile = join(REPO_ROOT, '.data', 'pg-password')): string {
+  const password = existsSync(passwordFile) ? readFileSync(passwordFile, 'utf8').trim() : ''
+  return `postgres://postgres${password ? `:${encodeURIComponent(password)}` : ''}@127.0.0.1:${pgPort}/sonoweave`
 }
 
 /** A development secret kept across restarts so sign-ins survive them; never used in production. */
