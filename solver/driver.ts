@@ -4,12 +4,12 @@ import { chooseGrid, type GridChoice } from '@shared/grid-step'
 import type { SimulationConfig } from '@shared/simulation-config'
 import type { SolverWarning } from '@shared/simulation-result'
 import { sampleInput } from './grid/input-traces'
-import { SeededRandom } from './noise/random'
+import { SeededRandom, type NormalSource } from './noise/random'
 import { computeFigures, type ChannelTraces } from './observers/figures-of-merit'
 import { MapRecorder, mapLayout } from './observers/map-recorder'
 import { preRunWarnings } from './observers/warnings'
 import { buildModel, type Model } from './problem/coupled-modes'
-import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, type FieldState } from './steppers/interaction-kernel'
+import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, noiseWeight, type FieldState } from './steppers/interaction-kernel'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -30,14 +30,14 @@ export class SimulationRun {
   readonly zM: Float64Array
   /** Next time index to integrate (0..nt). */
   n = 0
-  private readonly rng: SeededRandom | null
+  private readonly rng: NormalSource | null
   private readonly fast: boolean
   private readonly forceGeneral: boolean
 
   constructor(
     readonly config: SimulationConfig,
     readonly grid: GridChoice,
-    options: { forceGeneralKernel?: boolean } = {},
+    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource } = {},
   ) {
     const m = (this.model = buildModel(config, grid))
     this.state = allocateState(m)
@@ -53,7 +53,9 @@ export class SimulationRun {
     for (let n = 0; n <= m.nt; n++) this.timeNs[n] = n * m.dtS * 1e9
     this.zM = new Float64Array(m.nodes)
     for (let j = 0; j < m.nodes; j++) this.zM[j] = j * m.dzM
-    this.rng = config.options.noise.enabled ? new SeededRandom(config.options.noise.seed) : null
+    // A caller-supplied source of normal deviates replaces the seeded one (the exact-covariance tests feed
+    // unit draws through it to read off the scheme's noise input map).
+    this.rng = config.options.noise.enabled ? (options.normalSource ?? new SeededRandom(config.options.noise.seed)) : null
     this.forceGeneral = options.forceGeneralKernel ?? false
     this.fast = !this.forceGeneral && fastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
@@ -161,10 +163,12 @@ export class SimulationRun {
     }
   }
 
-  /** Thermal initial state, ⟨|b|²⟩ = ħω_s n_th/Δz (physics brief §3); ∂t b starts at 0. */
-  private thermalStart(rng: SeededRandom): void {
-    const sd = this.model.thermalRms * Math.SQRT1_2
+  /** Thermal initial state, ⟨|b|²⟩ = ħω_s n_th/(wΔz) with w = ½ at the facets (docs/model.md, thermal noise); ∂t b starts at 0. */
+  private thermalStart(rng: NormalSource): void {
+    const m = this.model
     for (let i = 0; i < this.state.bRe.length; i++) {
+      const j = i % m.nodes
+      const sd = m.thermalRms * Math.SQRT1_2 * noiseWeight(j === 0 || j === m.nz ? 0.5 : 1)
       this.state.bRe[i] = sd * rng.normal()
       this.state.bIm[i] = sd * rng.normal()
     }

@@ -3,7 +3,7 @@
  * algorithm) seeded through splitmix32, and normal deviates by Marsaglia's polar method (no trig). The same
  * seed gives the same sequence on every platform: only 32-bit integer ops and IEEE doubles are used.
  */
-export class SeededRandom {
+export class SeededRandom implements NormalSource {
   // Int32Array state: values above 2³¹ would otherwise be boxed doubles in object fields (slow).
   private readonly s = new Int32Array(4)
   private spare = 0
@@ -21,6 +21,13 @@ export class SeededRandom {
     }
     for (let i = 0; i < 4; i++) this.s[i] = next()
     if ((this.s[0] | this.s[1] | this.s[2] | this.s[3]) === 0) this.s[0] = 1
+  }
+
+  /** Continue from another generator's state: a forked run then draws the same noise as its parent. */
+  copyFrom(other: SeededRandom): void {
+    this.s.set(other.s)
+    this.spare = other.spare
+    this.hasSpare = other.hasSpare
   }
 
   /** Next 32 random bits as a signed int32 (xoshiro128**). */
@@ -64,4 +71,9 @@ export class SeededRandom {
     this.hasSpare = true
     return u * f
   }
+}
+
+/** What the kernels need of a generator: standard normal deviates, one per call. */
+export interface NormalSource {
+  normal(): number
 }

@@ -39,6 +39,8 @@ export interface Model {
   thermalRms: number
   /** SVEA Ornstein–Uhlenbeck kick rms per step, √(ħω_s n_th/Δz·(1 − e^{−Γ_B Δt})). */
   noiseKickRms: number
+  /** SVEA: rms of the extra draw that gives the step-mean b̄ its full variance, √(ħω_s n_th/Δz·(1 − Re E)/2). */
+  noiseMeanRms: number
   /** Higher-order: rms of the Langevin force, held constant over one step, √(Γ_B ħω_s n_th/(Δz Δt)). */
   noiseForceRms: number
   noiseSeed: number
@@ -84,6 +86,7 @@ export function buildModel(config: SimulationConfig, grid: GridChoice): Model {
     }
   }
   const omega = rates.omegaBRadPerS + rates.detuningRadPerS
+  const svea = sveaPropagator(rates.gammaBPerS, rates.detuningRadPerS, dtS)
   return {
     nCh,
     nz,
@@ -98,11 +101,12 @@ export function buildModel(config: SimulationConfig, grid: GridChoice): Model {
     exchangePerB: sK * vg * dtS,
     driveK: kappa * sK,
     lossPerCell: Math.exp(-0.5 * rates.alphaPerM * dzM),
-    svea: sveaPropagator(rates.gammaBPerS, rates.detuningRadPerS, dtS),
+    svea,
     higherOrder: opts.higherOrderAcoustic ? higherOrderPropagator(rates.gammaBPerS, rates.omegaBRadPerS, omega, dtS) : null,
     thermalOccupation: nTh,
     thermalRms: Math.sqrt(thermalVar),
     noiseKickRms: Math.sqrt(thermalVar * -Math.expm1(-rates.gammaBPerS * dtS)),
+    noiseMeanRms: Math.sqrt((thermalVar * (1 - svea.eRe)) / 2),
     noiseForceRms: Math.sqrt((rates.gammaBPerS * thermalVar) / dtS),
     noiseSeed: opts.noise.seed,
     kerrHalfPump: opts.kerr ? 0.5 * rates.kerrPumpPerWM * vg * dtS : 0,

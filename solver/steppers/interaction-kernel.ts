@@ -12,12 +12,16 @@
  *     The matrix is exactly unitary, so |u|² + |v|² (photon flux) is kept to round-off: Manley–Rowe.
  *     Kerr phases, when on, are applied as half steps before and after, also in Cayley form (unit modulus).
  *  4. Corrector: D₁ from the exchanged fields; b ← e^{−λΔt}(b + Δt/2·D₀) + Δt/2·D₁ (SVEA), or the ETD step
- *     with the linearly interpolated source (higher order). Thermal noise is added after the corrector.
+ *     with the linearly interpolated source (higher order).
+ *  5. Thermal noise (when on): one complex normal draw per node and step, the exact Ornstein–Uhlenbeck kick
+ *     (SVEA) or a Langevin force held over the step (higher order), enters both the predictor b̃ and the
+ *     corrected b, so the step-averaged b̄ the light sees carries the step's noise. Facet nodes (weight ½)
+ *     get twice the variance, as half cells. Both keep the noise observables second order.
  * Each part is second order, and the whole step is Strang-symmetric around the transport, so the scheme
  * is globally second order (shown in tests/solver/convergence.test.ts).
  */
 import type { Model } from '../problem/coupled-modes'
-import type { SeededRandom } from '../noise/random'
+import type { NormalSource } from '../noise/random'
 
 export interface FieldState {
   uRe: Float64Array
@@ -109,7 +113,7 @@ export function interactSvea(
 }
 
 /** General path: any number of channels, optional higher-order acoustics, Kerr and thermal noise. */
-export function interactGeneral(m: Model, s: FieldState, j: number, weight: number, rng: SeededRandom | null): void {
+export function interactGeneral(m: Model, s: FieldState, j: number, weight: number, rng: NormalSource | null): void {
   const nCh = m.nCh
   const nodes = m.nodes
   const K = m.driveK
@@ -119,7 +123,7 @@ export function interactGeneral(m: Model, s: FieldState, j: number, weight: numb
   const Ei = m.svea.eIm
   const ho = m.higherOrder
   const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm, scratch } = s
-  // scratch per channel k: [0,1] b̄, [2,3] D0, [4,5] B seen by this channel's optics
+  // scratch per channel k: [0,1] b̄, [2,3] D0, [4,5] B seen by this channel's optics, [6,7] the step's noise draw
   for (let k = 0; k < nCh; k++) {
     const i = k * nodes + j
     const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
@@ -140,8 +144,35 @@ export function interactGeneral(m: Model, s: FieldState, j: number, weight: numb
       bpi = ho.e00[0] * bi + ho.e00[1] * br + ho.e01[0] * wi + ho.e01[1] * wr + ho.p0b[0] * g0i + ho.p0b[1] * g0r
     }
     const o = 8 * k
+    if (rng !== null) {
+      // The step's random kick is drawn before the predictor and enters b̃ too, so b̄ carries the noise of
+      // the whole step (docs/numerics.md, "Thermal noise"); adding it only after the corrector would scale
+      // the noise that the light sees by (1 + E)/2, a first-order error in the spontaneous Stokes power.
+      const sd = (ho === null ? m.noiseKickRms : m.noiseForceRms) * Math.SQRT1_2 * noiseWeight(weight)
+      const xr = sd * rng.normal(), xi = sd * rng.normal()
+      scratch[o + 6] = xr
+      scratch[o + 7] = xi
+      if (ho === null) {
+        bpr += xr
+        bpi += xi
+      } else {
+        // Langevin force held constant over the step: g = (0, f)·F enters like the light's source.
+        const f = ho.sourceFactor[1]
+        const gr = -f * xi, gi = f * xr
+        bpr += ho.p0b[0] * gr - ho.p0b[1] * gi
+        bpi += ho.p0b[0] * gi + ho.p0b[1] * gr
+      }
+    }
     scratch[o] = 0.5 * (br + bpr)
     scratch[o + 1] = 0.5 * (bi + bpi)
+    if (rng !== null && ho === null) {
+      // The trapezoid mean (b + b̃)/2 of the noisy path has the right low-frequency spectrum but a variance
+      // short by V(1 − Re E)/2 (its high-frequency part, ≈ Γ_B Δt/4): an independent white draw of that
+      // variance restores ⟨|b̄|²⟩ = V without touching the spectrum near the gain line.
+      const sd = m.noiseMeanRms * Math.SQRT1_2 * noiseWeight(weight)
+      scratch[o] += sd * rng.normal()
+      scratch[o + 1] += sd * rng.normal()
+    }
     scratch[o + 2] = d0r
     scratch[o + 3] = d0i
   }
@@ -195,10 +226,9 @@ export function interactGeneral(m: Model, s: FieldState, j: number, weight: numb
       let nbr = Er * sr - Ei * si + hh * d1r
       let nbi = Er * si + Ei * sr + hh * d1i
       if (rng !== null) {
-        // Exact Ornstein–Uhlenbeck kick (physics brief §3); E|ζ|² = 1.
-        const sd = m.noiseKickRms * Math.SQRT1_2
-        nbr += sd * rng.normal()
-        nbi += sd * rng.normal()
+        // Exact Ornstein–Uhlenbeck kick, the one drawn for the predictor.
+        nbr += scratch[o + 6]
+        nbi += scratch[o + 7]
       }
       bRe[i] = nbr
       bIm[i] = nbi
@@ -215,9 +245,8 @@ export function interactGeneral(m: Model, s: FieldState, j: number, weight: numb
       let nwr = ho.e10[0] * br - ho.e10[1] * bi + ho.e11[0] * wr - ho.e11[1] * wi + qwr * g0r - qwi * g0i + ho.p1w[0] * g1r - ho.p1w[1] * g1i
       let nwi = ho.e10[0] * bi + ho.e10[1] * br + ho.e11[0] * wi + ho.e11[1] * wr + qwr * g0i + qwi * g0r + ho.p1w[0] * g1i + ho.p1w[1] * g1r
       if (rng !== null) {
-        // Langevin force held constant over the step: g = (0, f)·F, F complex normal, E|F|² = noiseForceRms².
-        const sd = m.noiseForceRms * Math.SQRT1_2
-        const Fr = sd * rng.normal(), Fi = sd * rng.normal()
+        // The Langevin force drawn for the predictor: g = (0, f)·F, F complex normal, E|F|² = noiseForceRms².
+        const Fr = scratch[o + 6], Fi = scratch[o + 7]
         g0r = -f * Fi
         g0i = f * Fr
         nbr += ho.p0b[0] * g0r - ho.p0b[1] * g0i
@@ -231,6 +260,15 @@ export function interactGeneral(m: Model, s: FieldState, j: number, weight: numb
       wIm[i] = nwi
     }
   }
+}
+
+/**
+ * Noise amplitude factor of a node of trapezoid weight w: a facet node stands for half a cell, so its
+ * acoustic field carries twice the variance per node (ħω_s n_th/(wΔz)), which keeps the noise per unit
+ * length right at the facets.
+ */
+export function noiseWeight(weight: number): number {
+  return weight === 1 ? 1 : Math.sqrt(1 / weight)
 }
 
 /** SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation. */
