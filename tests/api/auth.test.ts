@@ -201,6 +201,34 @@ describe('rate limits', () => {
     expect(new Set(statuses)).toEqual(new Set([200]))
   })
 
+  it('refuses the 21st failed sign-in at one account with 429 even when each try comes from another address', async () => {
+    const u = await createUser(db)
+    const bystander = await createUser(db)
+    const fresh = createApp({ db, pool, log: silentLog, auth: { jwtSecret: TEST_JWT_SECRET } })
+    // The app trusts X-Forwarded-For from a loopback peer ('trust proxy' = loopback), as behind a local proxy.
+    const attempt = (n: number, email: string, password: string) =>
+      request(fresh).post('/api/auth/sign-in').set('X-Forwarded-For', `198.51.100.${n}`).send({ email, password })
+
+    const statuses: number[] = []
+    for (let i = 0; i < 21; i++) statuses.push((await attempt(i + 1, i % 2 ? u.email.toUpperCase() : u.email, 'wrong password')).status)
+    const rightPasswordElsewhere = await attempt(99, u.email, u.password)
+    const otherAccountSameAddress = await attempt(21, bystander.email, bystander.password)
+
+    expect(statuses.slice(0, 20)).toEqual(Array(20).fill(401))
+    expect(statuses[20]).toBe(429)
+    expect(rightPasswordElsewhere.status).toBe(429)
+    expect(rightPasswordElsewhere.body.error.message).toMatch(/this account/)
+    expect(otherAccountSameAddress.status).toBe(200)
+  })
+
+  it('locks an unknown address exactly like a known one, so the lock tells nothing about who has an account', async () => {
+    const fresh = createApp({ db, pool, log: silentLog, auth: { jwtSecret: TEST_JWT_SECRET, signInFailuresPerAccount: 3 } })
+    const nobody = uniqueEmail('nobody')
+    const statuses: number[] = []
+    for (let i = 0; i < 4; i++) statuses.push((await request(fresh).post('/api/auth/sign-in').set('X-Forwarded-For', `192.0.2.${i + 1}`).send({ email: nobody, password: 'guess' })).status)
+    expect(statuses).toEqual([401, 401, 401, 429])
+  })
+
   it('limits sign-ups per address and hour', async () => {
     const fresh = createApp({ db, pool, log: silentLog, auth: { jwtSecret: TEST_JWT_SECRET, mailRequestsPerHour: 3 } })
     const statuses: number[] = []

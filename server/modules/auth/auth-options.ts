@@ -7,11 +7,18 @@ export interface AuthOptions {
   appUrl?: string
   /** Failed sign-ins one address may make per minute before 429. */
   signInFailuresPerMinute: number
+  /** Failed sign-ins one account may have per ACCOUNT_LOCK_WINDOW_MS, from any address, before 429. */
+  signInFailuresPerAccount: number
   /** Sign-ups (and reset/confirmation mails) one address may ask for per hour. */
   mailRequestsPerHour: number
 }
 
 export const SESSION_COOKIE = 'sw_session'
+/**
+ * The per-account sign-in window: 20 failures per 15 minutes is at most 80 guesses an hour, under
+ * OWASP ASVS 4.0 §2.2.1's ceiling of 100 failed attempts per hour per account (quoted from memory).
+ */
+export const ACCOUNT_LOCK_WINDOW_MS = 15 * 60_000
 /** A session idle this long ends; each rotation pushes the end forward. */
 export const SESSION_IDLE_MS = 7 * 24 * 3600_000
 /** No session lives longer than this, however active (then sign in again). */
@@ -37,6 +44,7 @@ export function resolveAuthOptions(given: Partial<AuthOptions> | undefined): Aut
     jwtSecret,
     appUrl: given?.appUrl?.replace(/\/+$/, ''),
     signInFailuresPerMinute: given?.signInFailuresPerMinute ?? 10,
+    signInFailuresPerAccount: given?.signInFailuresPerAccount ?? 20,
     mailRequestsPerHour: given?.mailRequestsPerHour ?? 20,
   }
 }

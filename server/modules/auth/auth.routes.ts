@@ -4,10 +4,11 @@ import type { Db } from '../../db/client'
 import { validate } from '../../middleware/validate'
 import type { AuthOptions } from './auth-options'
 import { requireAuth } from './auth.middleware'
-import { checkCredentials, completePasswordReset, confirmEmail, requestPasswordReset, resendConfirmation, signUp, type LinkTo } from './auth.service'
+import { afterResponse } from './after-response'
+import { checkCredentials, completePasswordReset, confirmEmail, requestPasswordReset, resendConfirmation, RESET_ACCEPTED, signUp, type LinkTo } from './auth.service'
 import { appLink } from './links'
 import { loadMe, toMeUser, updateMe } from './me.service'
-import { mailRequestLimiter, signInLimiter } from './rate-limit'
+import { accountSignInLimiter, mailRequestLimiter, signInLimiter } from './rate-limit'
 import { clearSessionCookie, startSession } from './session-cookie'
 import { revokeSession } from './sessions.repo'
 
@@ -21,7 +22,7 @@ export function authRoutes(deps: { db: Db }, opts: AuthOptions): Router {
     res.status(202).json(await signUp(deps.db, req.log, linkTo(req), req.body))
   })
 
-  router.post('/sign-in', signInLimiter(opts), validate({ body: SignInBody }), async (req, res) => {
+  router.post('/sign-in', signInLimiter(opts), accountSignInLimiter(opts), validate({ body: SignInBody }), async (req, res) => {
     const user = await checkCredentials(deps.db, req.body)
     // A sign-in while signed in replaces the old session rather than leaving it live.
     if (req.auth?.sessionId) await revokeSession(deps.db, req.auth.sessionId)
@@ -44,8 +45,11 @@ export function authRoutes(deps: { db: Db }, opts: AuthOptions): Router {
     res.status(202).json(await resendConfirmation(deps.db, req.log, linkTo(req), req.auth!.userId))
   })
 
-  router.post('/password-reset/request', mailLimit, validate({ body: PasswordResetRequestBody }), async (req, res) => {
-    res.status(202).json(await requestPasswordReset(deps.db, req.log, linkTo(req), req.body.email))
+  router.post('/password-reset/request', mailLimit, validate({ body: PasswordResetRequestBody }), (req, res) => {
+    // Answer first, then look the address up: known and unknown addresses take the same time.
+    res.status(202).json(RESET_ACCEPTED)
+    const email: string = req.body.email
+    afterResponse(req.log, 'password reset request', () => requestPasswordReset(deps.db, req.log, linkTo(req), email))
   })
 
   router.post('/password-reset/complete', validate({ body: PasswordResetCompleteBody }), async (req, res) => {

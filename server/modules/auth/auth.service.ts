@@ -18,7 +18,7 @@ export const CONFIRM_PATH = '/confirm-email'
 export const RESET_PATH = '/reset-password'
 
 const SIGN_UP_ACCEPTED: AcceptedMessage = { ok: true, message: 'Check your mailbox: we sent a message to that address.' }
-const RESET_ACCEPTED: AcceptedMessage = { ok: true, message: 'If that address has an account, a reset link is on its way.' }
+export const RESET_ACCEPTED: AcceptedMessage = { ok: true, message: 'If that address has an account, a reset link is on its way.' }
 const BAD_LINK = () => new AppError('invalid_token', 400, 'This link is not valid any more: it was used already, has expired or was mistyped')
 
 // Mail trouble is logged, never reported: a different answer would tell who has an account.
@@ -75,13 +75,15 @@ export async function resendConfirmation(db: Db, log: Logger, linkTo: LinkTo, us
   return { ok: true, message: user?.emailConfirmedAt ? 'Your address is already confirmed.' : 'A new confirmation link is on its way.' }
 }
 
-export async function requestPasswordReset(db: Db, log: Logger, linkTo: LinkTo, email: string): Promise<AcceptedMessage> {
+/**
+ * Mails a reset link when the address has an account. The route answers RESET_ACCEPTED before this
+ * runs (afterResponse), so neither the answer nor its timing tells whether the address is known.
+ */
+export async function requestPasswordReset(db: Db, log: Logger, linkTo: LinkTo, email: string): Promise<void> {
   const user = await findUserByEmail(db, email)
-  if (user) {
-    const token = await issueOneTimeToken(db, passwordResets, user.id, PASSWORD_RESET_TTL_MS)
-    await mailQuietly(log, () => sendMail(passwordResetMail(user.email, linkTo(RESET_PATH, token))))
-  }
-  return RESET_ACCEPTED
+  if (!user) return
+  const token = await issueOneTimeToken(db, passwordResets, user.id, PASSWORD_RESET_TTL_MS)
+  await mailQuietly(log, () => sendMail(passwordResetMail(user.email, linkTo(RESET_PATH, token))))
 }
 
 /**

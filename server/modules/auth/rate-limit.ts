@@ -1,7 +1,7 @@
 import type { RequestHandler } from 'express'
 import { rateLimit } from 'express-rate-limit'
 import { AppError } from '../../errors'
-import type { AuthOptions } from './auth-options'
+import { ACCOUNT_LOCK_WINDOW_MS, type AuthOptions } from './auth-options'
 
 function limited(message: string): RequestHandler {
   return (_req, _res, next) => next(new AppError('rate_limited', 429, message))
@@ -21,6 +21,26 @@ export function signInLimiter(opts: AuthOptions): RequestHandler {
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: limited('Too many failed sign-ins from your address; wait a minute and try again'),
+  })
+}
+
+/**
+ * Failed sign-ins per account, whatever address they come from: a guesser who spreads over many
+ * addresses (or a botnet) still gets 20 tries per 15 minutes at one account. The key is the address
+ * typed, lower-cased, whether or not an account has it, so a 429 tells nothing about who exists.
+ * The cost: a stranger can hold one account's sign-in shut for 15 minutes; a reset still works.
+ */
+export function accountSignInLimiter(opts: AuthOptions): RequestHandler {
+  return rateLimit({
+    windowMs: ACCOUNT_LOCK_WINDOW_MS,
+    limit: opts.signInFailuresPerAccount,
+    skipSuccessfulRequests: true,
+    // No address to count against: the body's validation answers 400.
+    skip: (req) => typeof req.body?.email !== 'string',
+    keyGenerator: (req) => `account:${String(req.body.email).trim().toLowerCase()}`,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: limited('Too many failed sign-ins for this account; wait 15 minutes and try again'),
   })
 }
 
