@@ -12,8 +12,11 @@ export const MIN_ACOUSTIC_PERIODS_SVEA = 5
 export const DISPERSION_LENGTH_FRACTION = 0.1
 /** Channels must sit ≥ 10 Δν_B apart for the dropped cross beats to be off resonance (physics.md §3). */
 export const MIN_CHANNEL_SPACING_LINEWIDTHS = 10
-/** The classical noise model misses spontaneous emission (n_th + 1) below about this temperature (physics.md §3). */
-export const CLASSICAL_NOISE_MIN_TEMPERATURE_K = 20
+/**
+ * Below this thermal occupation the classical Langevin source leaves its range: spontaneous Stokes emission
+ * goes with n_th + 1, not n_th (common practice; e.g. Boyd, Rzążewski & Narum, Phys. Rev. A 42, 5514, 1990).
+ */
+export const CLASSICAL_NOISE_MIN_OCCUPATION = 10
 /** A CW run reaches steady state after about 20/Γ_B, since b relaxes at Γ_B/2 (physics.md §4). */
 export const CW_STEADY_STATE_DECAY_TIMES = 20
 /** |β₂| ≈ 20 ps²/km, standard single-mode silica fibre at 1550 nm (from memory; Agrawal, Nonlinear Fiber Optics ch. 1). */
@@ -38,11 +41,15 @@ export function physicsAdvisories(
       message: `G₀ = ${d.smallSignalGainNepers.toFixed(1)} > ${NOISE_GAIN_THRESHOLD}: Stokes light grown from thermal phonons would be significant, but thermal noise is off.`,
     })
   }
-  if (noiseOn && d.temperatureK < CLASSICAL_NOISE_MIN_TEMPERATURE_K) {
+  if (noiseOn && d.thermalOccupation < CLASSICAL_NOISE_MIN_OCCUPATION) {
+    const zeroPoint = cfg?.options.noise.zeroPoint ?? false
+    const nTh = d.thermalOccupation.toPrecision(2)
     out.push({
       code: 'cold-noise',
-      severity: 'info',
-      message: `Below about ${CLASSICAL_NOISE_MIN_TEMPERATURE_K} K the classical noise model is approximate (spontaneous emission needs n_th + 1).`,
+      severity: zeroPoint ? 'info' : 'warning',
+      message: zeroPoint
+        ? `n_th = ${nTh} at ${d.temperatureK} K: spontaneous emission uses n_th + 1, but with so few thermal phonons the classical noise model is only approximate.`
+        : `n_th = ${nTh} at ${d.temperatureK} K: the classical noise model undercounts spontaneous Stokes emission, which goes with n_th + 1. Switch on the zero-point term.`,
     })
   }
   if (d.grid?.cellsAcrossShortestPulse !== undefined && d.grid.cellsAcrossShortestPulse < MIN_CELLS_PER_PULSE) {

@@ -38,28 +38,54 @@ export const NoiseSettings = z.object({
   enabled: z.boolean().default(false),
   temperatureK: finite().positive().max(2000).default(295).describe('Temperature of the acoustic bath (K)'),
   seed: z.number().int().min(0).max(2 ** 31 - 1).default(1).describe('Seed of the random generator; the same seed gives the same run'),
+  zeroPoint: z
+    .boolean()
+    .default(false)
+    .describe('Spontaneous Stokes emission from n_th + 1 phonons instead of n_th (the zero-point term; matters when n_th is small)'),
 })
 
 export const SimulationOptions = z.object({
   higherOrderAcoustic: z.boolean().default(false).describe('Keep ∂²b/∂t² in the acoustic equation (pulses near the acoustic period)'),
   kerr: z.boolean().default(false).describe('Self- and cross-phase modulation from n₂'),
   acousticAdvection: z.boolean().default(false).describe('Sound travels along z at v_A'),
-  noise: NoiseSettings.default({ enabled: false, temperatureK: 295, seed: 1 }),
+  noise: NoiseSettings.default({ enabled: false, temperatureK: 295, seed: 1, zeroPoint: false }),
   errorEstimate: z.boolean().default(true).describe('Repeat the run on the grid with twice the time step (+25 % compute) to estimate each figure’s numerical error'),
   /** Replaces ω_p/ω_s in the pump equation; for checking photon bookkeeping only. */
   frequencyRatioOverride: finite().min(0.1).max(10).optional(),
 })
 export type SimulationOptions = z.infer<typeof SimulationOptions>
 
-/** A user-marked time window over which the energy through one port is reported. */
+/**
+ * Ties an energy window to a launched pulse: the window runs from fromFwhm to toFwhm widths around the
+ * pulse's expected arrival at the window's port (shared/pulse-roles.ts), so it follows the pulse in a sweep.
+ */
+export const PulseAnchor = z.object({
+  channel: z.number().int().min(0).max(7).default(0).describe('Channel of the pulse (0 = first)'),
+  port: z.enum(['pump', 'stokes']).describe('Port the pulse is launched into'),
+  pulseIndex: z.number().int().min(0).max(1999).describe("Which of that port's pulses (0 = first)"),
+  fromFwhm: finite().min(-1000).max(1000).default(-2).describe('Window start, in widths from the expected arrival'),
+  toFwhm: finite().min(-1000).max(1000).default(2).describe('Window end, in widths from the expected arrival'),
+})
+export type PulseAnchor = z.infer<typeof PulseAnchor>
+
+/** A user-marked window over which the energy through one port is reported: fixed times, or anchored to a pulse. */
 export const EnergyWindow = z
   .object({
     label: safeText().trim().min(1, 'must not be empty').max(60),
     port: Port,
-    startNs: finite(),
-    endNs: finite(),
+    startNs: finite().optional(),
+    endNs: finite().optional(),
+    anchor: PulseAnchor.optional(),
   })
-  .refine((w) => w.endNs > w.startNs, { message: 'The window must end after it starts', path: ['endNs'] })
+  .superRefine((w, ctx) => {
+    if (w.anchor) {
+      if (!(w.anchor.toFwhm > w.anchor.fromFwhm)) ctx.addIssue({ code: 'custom', path: ['anchor', 'toFwhm'], message: 'The window must end after it starts' })
+      return
+    }
+    if (w.startNs === undefined) ctx.addIssue({ code: 'custom', path: ['startNs'], message: 'Give a start time or anchor the window to a pulse' })
+    if (w.endNs === undefined) ctx.addIssue({ code: 'custom', path: ['endNs'], message: 'Give an end time or anchor the window to a pulse' })
+    if (w.startNs !== undefined && w.endNs !== undefined && !(w.endNs > w.startNs)) ctx.addIssue({ code: 'custom', path: ['endNs'], message: 'The window must end after it starts' })
+  })
 export type EnergyWindow = z.infer<typeof EnergyWindow>
 
 export const SIMULATION_SCHEMA_VERSION = 1
@@ -75,7 +101,7 @@ export const SimulationConfigBase = z.object({
     higherOrderAcoustic: false,
     kerr: false,
     acousticAdvection: false,
-    noise: { enabled: false, temperatureK: 295, seed: 1 },
+    noise: { enabled: false, temperatureK: 295, seed: 1, zeroPoint: false },
     errorEstimate: true,
   }),
   energyWindows: z.array(EnergyWindow).max(50).default([]),
@@ -125,6 +151,16 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
     }
   }
   c.energyWindows.forEach((w, wi) => {
+    if (w.anchor) {
+      // An anchored window that leaves the run is reported as not determined after the run, not refused:
+      // a sweep moving the pulse must still queue every point.
+      const a = w.anchor
+      if (!c.channels[a.channel]) ctx.addIssue({ code: 'custom', path: ['energyWindows', wi, 'anchor', 'channel'], message: `There is no channel ${a.channel + 1}` })
+      else if (!c.channels[a.channel][a.port].pulses[a.pulseIndex])
+        ctx.addIssue({ code: 'custom', path: ['energyWindows', wi, 'anchor', 'pulseIndex'], message: `Channel ${a.channel + 1} has no ${a.port === 'pump' ? 'pump' : 'Stokes'} pulse ${a.pulseIndex + 1}` })
+      return
+    }
+    if (w.startNs === undefined || w.endNs === undefined) return
     if (w.startNs < 0 || w.endNs > c.windowNs) {
       ctx.addIssue({ code: 'custom', path: ['energyWindows', wi, 'startNs'], message: `The window must lie within 0 to ${c.windowNs} ns` })
     }

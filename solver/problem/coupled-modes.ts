@@ -34,8 +34,11 @@ export interface Model {
   lossPerCell: number
   svea: SveaPropagator
   higherOrder: HigherOrderPropagator | null
-  /** Thermal occupation n_th and b's thermal rms per node, √(ħω_s n_th/Δz); 0 with noise off. */
+  /** Thermal occupation n_th of the bath; 0 with noise off. */
   thermalOccupation: number
+  /** Occupation behind the Langevin source: n_th, or n_th + 1 with the zero-point term; 0 with noise off. */
+  noiseOccupation: number
+  /** b's rms per node, √(ħω_s n/Δz) with n the noise occupation. */
   thermalRms: number
   /** SVEA Ornstein–Uhlenbeck kick rms per step, √(ħω_s n_th/Δz·(1 − e^{−Γ_B Δt})). */
   noiseKickRms: number
@@ -70,7 +73,8 @@ export function buildModel(config: SimulationConfig, grid: GridChoice): Model {
 
   let nTh = 0
   if (opts.noise.enabled) nTh = 1 / Math.expm1((REDUCED_PLANCK_J_S * rates.omegaBRadPerS) / (BOLTZMANN_J_PER_K * opts.noise.temperatureK))
-  const thermalVar = (stokesPhotonJ * nTh) / dzM
+  const nNoise = opts.noise.enabled && opts.noise.zeroPoint ? nTh + 1 : nTh
+  const thermalVar = (stokesPhotonJ * nNoise) / dzM
 
   let phaseRe: Float64Array | null = null
   let phaseIm: Float64Array | null = null
@@ -104,6 +108,7 @@ export function buildModel(config: SimulationConfig, grid: GridChoice): Model {
     svea,
     higherOrder: opts.higherOrderAcoustic ? higherOrderPropagator(rates.gammaBPerS, rates.omegaBRadPerS, omega, dtS) : null,
     thermalOccupation: nTh,
+    noiseOccupation: nNoise,
     thermalRms: Math.sqrt(thermalVar),
     noiseKickRms: Math.sqrt(thermalVar * -Math.expm1(-rates.gammaBPerS * dtS)),
     noiseMeanRms: Math.sqrt((thermalVar * (1 - svea.eRe)) / 2),

@@ -8,13 +8,13 @@ const VG = 299_792_458 / 2.44
 const LENGTH_M = 0.05
 const GAIN_PER_WM = 300
 
-function noisyChip(cells: number, pumpW: number, detuningMHz = 0) {
+function noisyChip(cells: number, pumpW: number, detuningMHz = 0, noise: { temperatureK?: number; zeroPoint?: boolean } = {}) {
   return chipConfig({
     windowNs: 1,
     detuningMHz,
     channels: [{ pump: { backgroundPowerW: pumpW } }],
     grid: { timeStepPs: (LENGTH_M / (VG * cells)) * 1e12, mapRows: 16, mapCols: 16 },
-    options: { noise: { enabled: true, temperatureK: 300, seed: 1 } },
+    options: { noise: { enabled: true, temperatureK: 300, seed: 1, ...noise } },
   })
 }
 
@@ -22,7 +22,7 @@ function noisyChip(cells: number, pumpW: number, detuningMHz = 0) {
 function spontaneousError(cells: number, pumpW: number): number {
   const maps = schemeMaps(noisyChip(cells, pumpW))
   const m = maps.run.model
-  const exact = spontaneousStokesClosedFormW(m.stokesPhotonJ, m.thermalOccupation, m.rates.gammaBPerS, GAIN_PER_WM * pumpW * LENGTH_M)
+  const exact = spontaneousStokesClosedFormW(m.stokesPhotonJ, m.noiseOccupation, m.rates.gammaBPerS, GAIN_PER_WM * pumpW * LENGTH_M)
   return stationaryNoise(maps).stokesOutW / exact - 1
 }
 
@@ -31,7 +31,7 @@ describe('thermal noise, exact stationary covariance of the scheme', () => {
     for (const detuningMHz of [0, 40]) {
       const maps = schemeMaps(noisyChip(30, 0, detuningMHz))
       const m = maps.run.model
-      const perNode = (m.stokesPhotonJ * m.thermalOccupation) / m.dzM
+      const perNode = (m.stokesPhotonJ * m.noiseOccupation) / m.dzM
       const variance = acousticVariance(maps, stationaryNoise(maps).P)
       for (let j = 0; j < maps.nodes; j++) {
         const weight = j === 0 || j === m.nz ? 0.5 : 1
@@ -48,9 +48,19 @@ describe('thermal noise, exact stationary covariance of the scheme', () => {
     const maps = schemeMaps(noisyChip(40, 0.002))
     const m = maps.run.model
     const g0 = GAIN_PER_WM * 0.002 * LENGTH_M
-    const smallGain = (m.stokesPhotonJ * m.thermalOccupation * g0 * m.rates.gammaBPerS) / 4
+    const smallGain = (m.stokesPhotonJ * m.noiseOccupation * g0 * m.rates.gammaBPerS) / 4
     // e^{gL} − 1 = gL + (gL)²/2 + …, and ∫g² dν = ½ G_B P ∫g dν for a Lorentzian: the next term is G₀/4.
     expect(stationaryNoise(maps).stokesOutW / smallGain - 1).toBeCloseTo(g0 / 4, 3)
+  })
+
+  it('with the zero-point term, spontaneous emission goes with n_th + 1: at 2 K the power is (n_th + 1)/n_th of the classical one', () => {
+    const classical = schemeMaps(noisyChip(30, 0.2, 0, { temperatureK: 2 }))
+    const quantum = schemeMaps(noisyChip(30, 0.2, 0, { temperatureK: 2, zeroPoint: true }))
+    const nTh = classical.run.model.thermalOccupation
+    expect(nTh).toBeLessThan(10)
+    expect(quantum.run.model.noiseOccupation).toBe(nTh + 1)
+    const ratio = stationaryNoise(quantum).stokesOutW / stationaryNoise(classical).stokesOutW
+    expect(Math.abs(ratio / ((nTh + 1) / nTh) - 1)).toBeLessThan(1e-12)
   })
 
   it('converges at second order: halving Δt divides the error by 4 ± 0.3', () => {

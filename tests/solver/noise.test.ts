@@ -55,8 +55,13 @@ describe('thermal noise', () => {
     expect(a.some((x) => x !== 0)).toBe(true)
   })
 
-  it('warns below 20 K that the classical model is approximate', () => {
-    const r = simulateSync(chipConfig({ windowNs: 1, options: { noise: { enabled: true, temperatureK: 4, seed: 1 } } }))
-    expect(r.manifest.warnings.map((w) => w.code)).toContain('cold-noise')
+  it('warns when n_th < 10 that the classical model undercounts spontaneous emission, and not at room temperature', () => {
+    const at = (temperatureK: number, zeroPoint = false) =>
+      simulateSync(chipConfig({ windowNs: 1, options: { noise: { enabled: true, temperatureK, seed: 1, zeroPoint } } })).manifest.warnings.find((w) => w.code === 'cold-noise')
+    // n_th = 1/(e^{hν_B/k_BT} − 1) at 7.7 GHz: 4.9 at 2 K, 10.3 at 4 K.
+    expect(at(2)?.message).toMatch(/n_th \+ 1.*zero-point/)
+    expect(at(2, true)?.message).toMatch(/only approximate/)
+    expect(at(4)).toBeUndefined()
+    expect(at(295)).toBeUndefined()
   })
 })
