@@ -1,6 +1,6 @@
 // The per-run discretisation-error estimate that rides along with the figures of merit. The run is
 // repeated on the grid with q ≈ 2 times the step; for a scheme of order p the fine value's error is
-// err(h) ≈ (f_h − f_qh)/(q^p − 1) (Richardson extrapolation: Hairer, Nørsett & Wanner, Solving Ordinary
+// err(h) = f_h − f ≈ (f_qh − f_h)/(q^p − 1) (Richardson extrapolation: Hairer, Nørsett & Wanner, Solving Ordinary
 // Differential Equations I, §II.4; LeVeque, Finite Difference Methods, §A.6).
 import { z } from 'zod'
 

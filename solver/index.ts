@@ -8,6 +8,7 @@
 import { SimulationConfig } from '@shared/simulation-config'
 import { COMPLEX_LAYOUT, type ArrayDescriptor, type ChannelFigures, type FiguresOfMerit, type ResultGrid, type RunStatus, type SimulationManifest, type SolverWarning } from '@shared/simulation-result'
 import { SOLVER_LIMITS, SimulationRun, planGrid } from './driver'
+import { planCompanion } from './error-estimate-run'
 import type { ChannelTraces } from './observers/figures-of-merit'
 import { postRunWarnings } from './observers/warnings'
 
@@ -161,8 +162,18 @@ class Loop {
   }
 }
 
-/** Runs the whole simulation, yielding to the event loop every `yieldEveryMs` so `signal` can stop it. */
+/**
+ * Runs the whole simulation, yielding to the event loop every `yieldEveryMs` so `signal` can stop it; then,
+ * unless switched off, the companion run on the grid with twice the step for the error estimate.
+ */
 export async function simulate(config: SimulationConfig, opts: SimulateOptions = {}): Promise<SimulationResult> {
+  const plan = planCompanion(config, opts)
+  const fine = await simulateOne(config, plan.fineOpts)
+  const companion = plan.companionFor(fine)
+  return plan.finish(fine, companion ? await simulateOne(companion.config, companion.opts) : null)
+}
+
+async function simulateOne(config: SimulationConfig, opts: SimulateOptions): Promise<SimulationResult> {
   const { run, failure } = prepare(config, opts.forceGeneralKernel ?? false)
   if (!run) return failure!
   const loop = new Loop(run, opts)
@@ -181,8 +192,15 @@ export async function simulate(config: SimulationConfig, opts: SimulateOptions =
   return loop.finish('finished', 'Finished')
 }
 
-/** The same run without yielding: for worker threads, which poll `shouldAbort` instead. */
+/** The same run (and companion) without yielding: for worker threads, which poll `shouldAbort` instead. */
 export function simulateSync(config: SimulationConfig, opts: SimulateOptions = {}): SimulationResult {
+  const plan = planCompanion(config, opts)
+  const fine = simulateSyncOne(config, plan.fineOpts)
+  const companion = plan.companionFor(fine)
+  return plan.finish(fine, companion ? simulateSyncOne(companion.config, companion.opts) : null)
+}
+
+function simulateSyncOne(config: SimulationConfig, opts: SimulateOptions): SimulationResult {
   const { run, failure } = prepare(config, opts.forceGeneralKernel ?? false)
   if (!run) return failure!
   const loop = new Loop(run, opts)
