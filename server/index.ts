@@ -50,7 +50,7 @@ const relay = new RunEventRelay(pool, log)
 const queueCheck: QueueCheck | undefined = jobs.queueCheck
 const stoppers: Array<() => Promise<void>> = [jobs.stop, async () => relay.close()]
 const jobRoutes: Array<[string, Router]> = [
-  ['/runs', runsRoutes({ db, pool, log, boss: jobs.boss, relay })],
+  ['/runs', runsRoutes({ db, pool, log, boss: jobs.boss, relay, quotas: config.quotas })],
   ['/queue', queueRoutes({ pool })],
   ['/traces', tracesRoutes({ db })],
   ['/fits', fitsRoutes({ db, boss: jobs.boss })],
@@ -58,7 +58,7 @@ const jobRoutes: Array<[string, Router]> = [
 // -------------------------------------------------------------------------------------------------
 
 // Parameter sweeps: their routes and the feeder that hands sweep points to the queue (modules/sweeps).
-const sweeps = await startSweeps({ db, pool, log, boss: jobs.boss })
+const sweeps = await startSweeps({ db, pool, log, boss: jobs.boss, quotas: config.quotas })
 jobRoutes.push(['/sweeps', sweeps.routes])
 stoppers.unshift(sweeps.stop)
 

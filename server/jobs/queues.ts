@@ -18,11 +18,17 @@ export const RUN_QUEUE_OPTIONS = {
   retentionDays: 7,
 } as const
 
-/** Most often a worker asks pg-boss for a job (s); 0.5 is pg-boss 10's minimum. */
-/** pg-boss fetches `priority desc, created_on`: single runs (0) before fed sweep points, so a sweep never starves interactive work. */
+/**
+ * pg-boss fetches `priority desc, created_on`. A single run is sent with SINGLE_RUN_PRIORITY minus its rank in
+ * its author's line (fair-priority.ts), a rank of at most MAX_SINGLE_RUN_RANK; fed sweep points sit below every
+ * single run, so a sweep never starves interactive work. A run handed back after a lost worker gets the top.
+ */
 export const SINGLE_RUN_PRIORITY = 0
-export const SWEEP_POINT_PRIORITY = -10
+// pg-boss stores priority as a 32-bit integer; the sweep priority below must fit too.
+export const MAX_SINGLE_RUN_RANK = 1_000_000_000
+export const SWEEP_POINT_PRIORITY = SINGLE_RUN_PRIORITY - MAX_SINGLE_RUN_RANK - 1
 
+/** Most often a worker asks pg-boss for a job (s); 0.5 is pg-boss 10's minimum. */
 export const POLL_INTERVAL_S = 0.5
 
 export const DEFAULT_BOSS_SCHEMA = 'pgboss'

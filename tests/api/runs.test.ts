@@ -138,7 +138,7 @@ describe('reading runs', () => {
 })
 
 describe('list rows and queue places', () => {
-  it('gives each listed run its waveguide name, and each queued single run its place among every queued single run', async () => {
+  it('gives each listed run its waveguide name, and each queued single run its place in the order pg-boss hands out jobs', async () => {
     const m = await newMember(db, 'editor')
     const first = await submit(m, { groupId: m.groupId, title: 'first in line', config: chipRun() })
     const second = await submit(m, { groupId: m.groupId, title: 'second in line', config: chipRun() })
@@ -147,12 +147,13 @@ describe('list rows and queue places', () => {
     const list = RunList.parse((await request(app).get(`/api/runs?groupId=${m.groupId}`).set('Authorization', m.auth)).body)
     const secondNow = RunDetail.parse((await request(app).get(`/api/runs/${second.body.id}`).set('Authorization', m.auth)).body)
     const firstNow = RunDetail.parse((await request(app).get(`/api/runs/${first.body.id}`).set('Authorization', m.auth)).body)
-    const { rows } = await pool.query(`select count(*)::int as n from runs where status = 'queued' and sweep_id is null and created_at < $1`, [secondNow.createdAt])
+    // pg-boss 10 fetches `priority desc, created_on, id` (its plans.js fetchNextJob): the line as workers see it.
+    const { rows } = await pool.query(`select data->>'runId' as run_id from ${schema}.job where name = $1 and state = 'created' order by priority desc, created_on, id`, [RUN_QUEUE])
 
     expect(list.items.map((r) => r.waveguideName)).toEqual([chipRun().waveguide.name ?? 'Untitled waveguide', chipRun().waveguide.name ?? 'Untitled waveguide'])
     expect(list.items.every((r) => r.keyFigure === null)).toBe(true) // nothing finished yet
-    // The cancelled run no longer holds a place; runs of other tests queued earlier still do.
-    expect(secondNow.queuePosition).toBe(rows[0].n + 1)
+    // The cancelled run no longer holds a place; runs of other tests still waiting do, where their priority puts them.
+    expect(secondNow.queuePosition).toBe(rows.findIndex((r) => r.run_id === second.body.id) + 1)
     expect(firstNow.queuePosition).toBeNull()
   })
 })

@@ -74,12 +74,16 @@ export async function findArray(db: Db, runId: string, attempt: number, name: st
   return row ?? null
 }
 
-/** 1-based place of a queued single run among every group's queued single runs, oldest first; null otherwise. */
-export async function queuePositionOf(db: Db, run: Pick<RunRow, 'id' | 'status' | 'sweepId' | 'createdAt'>): Promise<number | null> {
+/**
+ * 1-based place of a queued single run in the order workers take them (lowest rank first, then oldest:
+ * server/jobs/fair-priority.ts), among every group's queued single runs; null otherwise. A later run of
+ * someone with less in flight may still move in ahead of it.
+ */
+export async function queuePositionOf(db: Db, run: Pick<RunRow, 'id' | 'status' | 'sweepId' | 'createdAt' | 'queueRank'>): Promise<number | null> {
   if (run.status !== 'queued' || run.sweepId) return null
   const [row] = await db
     .select({ ahead: count() })
     .from(runs)
-    .where(and(eq(runs.status, 'queued'), isNull(runs.sweepId), lt(runs.createdAt, run.createdAt)))
+    .where(and(eq(runs.status, 'queued'), isNull(runs.sweepId), or(lt(runs.queueRank, run.queueRank), and(eq(runs.queueRank, run.queueRank), lt(runs.createdAt, run.createdAt)))))
   return row.ahead + 1
 }

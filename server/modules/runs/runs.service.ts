@@ -1,5 +1,5 @@
-// Run use cases: submit (validate, estimate, store + enqueue in one transaction), idempotent resubmission,
-// cancel, clone, read. Authorisation follows the run's group (server/policy/access.ts).
+// Run use cases: submit (validate, estimate, check quotas, store + enqueue in one transaction with a fair
+// priority: server/jobs/fair-priority.ts), idempotent resubmission, cancel, clone, read. Authorisation follows the run's group (server/policy/access.ts).
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
 import { chooseGrid } from '@shared/grid-step'
@@ -11,11 +11,13 @@ import { AppError, conflict, notFound } from '../../errors'
 import type { Logger } from '../../logger'
 import { bossDb } from '../../jobs/requeue'
 import { RUN_QUEUE } from '../../jobs/queues'
+import { nextSingleRunRank, singleRunPriority } from '../../jobs/fair-priority'
 import { inTransaction } from '../../jobs/run-store'
 import { groupRoleOf, requireGroupRole, type Role } from '../../policy/access'
 import { resolveShare } from '../shares'
 import { isUuid } from '../../policy/ids'
 import type { AuthContext } from '../auth/auth-context'
+import { enforceQuotas, type QuotaConfig } from '../quotas'
 import { configHash } from './config-hash'
 import { appendRunEvent, RUN_CANCEL_CHANNEL } from './run-events.repo'
 import { toDetail, toSummary } from './runs.mapper'
@@ -27,6 +29,8 @@ export interface RunsDeps {
   boss: PgBoss
   log: Logger
   limits?: ResourceLimits
+  /** Per-user and per-group quotas (server/env.ts); the server always passes them, tests that leave them out run without. */
+  quotas?: QuotaConfig
 }
 
 /** A repeated POST with the same Idempotency-Key inside this window returns the first run. */
@@ -68,17 +72,19 @@ export async function createRun(deps: RunsDeps, auth: AuthContext | undefined, i
 
   try {
     const id = await inTransaction(deps.pool, async (c) => {
+      if (deps.quotas) await enforceQuotas(c, deps.quotas, userId, input.groupId, { what: 'run', inFlight: 1, cellUpdates: estimate.cellUpdates })
       // A key older than the window may be used again.
       if (idempotencyKey) await c.query(`update runs set idempotency_key = null where author_id = $1 and idempotency_key = $2`, [userId, idempotencyKey])
+      const rank = await nextSingleRunRank(c, userId)
       const { rows } = await c.query(
-        `insert into runs (group_id, author_id, title, notes, config, config_hash, solver_version, estimate, idempotency_key)
-         values ($1, $2, $3, $4, $5, $6, $7, $8, $9) returning id`,
-        [input.groupId, userId, input.title, input.notes, JSON.stringify(input.config), hash, SOLVER_VERSION, JSON.stringify(estimate), idempotencyKey ?? null],
+        `insert into runs (group_id, author_id, title, notes, config, config_hash, solver_version, estimate, idempotency_key, queue_rank)
+         values ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) returning id`,
+        [input.groupId, userId, input.title, input.notes, JSON.stringify(input.config), hash, SOLVER_VERSION, JSON.stringify(estimate), idempotencyKey ?? null, rank],
       )
       const runId: string = rows[0].id
       await appendRunEvent(c, runId, 0, 'status', { status: 'queued', attempt: 0, error: null })
       // The job is inserted by our transaction's client: it exists exactly when the run row does.
-      const jobId = await deps.boss.send(RUN_QUEUE, { schemaVersion: RUN_JOB_SCHEMA_VERSION, runId } satisfies RunJobPayload, { db: bossDb(c) })
+      const jobId = await deps.boss.send(RUN_QUEUE, { schemaVersion: RUN_JOB_SCHEMA_VERSION, runId } satisfies RunJobPayload, { db: bossDb(c), priority: singleRunPriority(rank) })
       if (!jobId) throw new Error(`queue ${RUN_QUEUE} does not exist`)
       await c.query(`update runs set job_id = $2 where id = $1`, [runId, jobId])
       return runId

@@ -7,6 +7,7 @@ import type { Pool } from 'pg'
 import type { SweepLimits } from '@shared/sweep-points'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
+import type { QuotaConfig } from '../quotas'
 import { startSweepFeeder, type SweepFeeder } from './sweep-feeder'
 import { sweepsRoutes } from './sweeps.routes'
 
@@ -16,7 +17,7 @@ export interface SweepsModule {
   stop: () => Promise<void>
 }
 
-export async function startSweeps(o: { db: Db; pool: Pool; log: Logger; boss: PgBoss; limits?: SweepLimits; feedIntervalMs?: number; mail?: boolean }): Promise<SweepsModule> {
+export async function startSweeps(o: { db: Db; pool: Pool; log: Logger; boss: PgBoss; limits?: SweepLimits; quotas?: QuotaConfig; feedIntervalMs?: number; mail?: boolean }): Promise<SweepsModule> {
   const feeder = await startSweepFeeder({ pool: o.pool, db: o.db, boss: o.boss, log: o.log, intervalMs: o.feedIntervalMs, mail: o.mail })
   return { routes: sweepsRoutes({ ...o, feeder }), feeder, stop: () => feeder.stop() }
 }

@@ -14,6 +14,8 @@ import { RUN_QUEUE } from '../../jobs/queues'
 import { groupRoleOf, requireGroupRole, type Role } from '../../policy/access'
 import { isUuid } from '../../policy/ids'
 import type { AuthContext } from '../auth/auth-context'
+import { inTransaction } from '../../jobs/run-store'
+import { enforceQuotas, type QuotaConfig } from '../quotas'
 import { resolveShare } from '../shares'
 import type { SweepFeeder } from './sweep-feeder'
 import { pointValues, toSweepDetail, toSweepSummary } from './sweeps.mapper'
@@ -26,6 +28,8 @@ export interface SweepsDeps {
   log: Logger
   feeder: Pick<SweepFeeder, 'poke'>
   limits?: SweepLimits
+  /** Per-user and per-group quotas (server/env.ts); a sweep counts as one item in flight and its whole estimate is charged at once. */
+  quotas?: QuotaConfig
 }
 
 /** The sweep if the caller may act on it with `minRole`; a share token stands in for the viewer role. */
@@ -79,6 +83,8 @@ export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefine
   if (!check.ok) {
     throw new AppError('over_limit', 422, check.message, { reasons: check.reasons, totalCellUpdates: total.cellUpdates, limitCellUpdates: limits.maxTotalCellUpdates, points: total.points })
   }
+  const quotas = deps.quotas
+  if (quotas) await inTransaction(deps.pool, (c) => enforceQuotas(c, quotas, auth!.userId, input.groupId, { what: 'sweep', inFlight: 1, cellUpdates: total.cellUpdates }))
   const id = await insertSweep(
     deps.pool,
     { groupId: input.groupId, authorId: auth!.userId, title: input.title, notes: input.notes, baseConfig: input.baseConfig, axes: input.axes, estimate: total },
@@ -111,6 +117,9 @@ export async function cancelSweep(deps: SweepsDeps, auth: AuthContext | undefine
 /** A new run for each point whose newest run failed; 409 when none failed. */
 export async function rerunFailed(deps: SweepsDeps, auth: AuthContext | undefined, id: string): Promise<SweepDetail> {
   const sweep = await sweepFor(deps, auth, id, 'editor')
+  // A finished sweep starts again and takes a place in flight; its re-run points are charged as they are stored.
+  const quotas = deps.quotas
+  if (quotas) await inTransaction(deps.pool, (c) => enforceQuotas(c, quotas, auth!.userId, sweep.groupId, { what: 'sweep', inFlight: sweep.status === 'running' ? 0 : 1, cellUpdates: 0 }))
   const def = { baseConfig: sweep.baseConfig, axes: sweep.axes }
   const values = def.axes.map((a) => axisValues(a.values))
   const n = await rerunFailedPoints(deps.pool, sweep, auth!.userId, (index) => {
