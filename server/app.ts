@@ -6,7 +6,10 @@ import type { Db, Pool } from './db/client'
 import { AppError } from './errors'
 import type { Logger } from './logger'
 import { apiNotFound, errorHandler } from './middleware/error-handler'
+import { jsonBodies } from './middleware/json-bodies'
 import { requestContext } from './middleware/request-id'
+import { sameOriginWrites } from './middleware/same-origin-writes'
+import { securityHeaders, warnOnPlainHttp } from './middleware/security-headers'
 import { accountRoutes } from './modules/auth/account-routes'
 import { authenticate } from './modules/auth/auth.middleware'
 import type { AuthOptions } from './modules/auth/auth-options'
@@ -40,7 +43,12 @@ export function createApp(input: Omit<AppDeps, 'version'> & { version?: string }
   app.disable('x-powered-by')
   app.set('trust proxy', 'loopback')
 
+  const publicUrl = deps.auth?.appUrl
+  warnOnPlainHttp(deps.log, publicUrl)
   app.use(requestContext(deps.log))
+  app.use(securityHeaders(publicUrl))
+  // Before any body is read: cross-site writes and non-JSON bodies are refused (DEVELOPERS.md, "Writes from browsers").
+  app.use('/api', sameOriginWrites(publicUrl), jsonBodies)
   app.use(express.json({ limit: deps.jsonLimit ?? DEFAULT_JSON_LIMIT }))
   app.use(cookieParser())
 

@@ -39,7 +39,7 @@ export function authenticate(deps: AuthDeps): RequestHandler {
     const claims = await verifySessionToken(opts.jwtSecret, cookie)
     const session = claims && (await findActiveSession(deps.db, claims.sessionId, claims.userId))
     if (!claims || !session) {
-      clearSessionCookie(req, res)
+      clearSessionCookie(opts, req, res)
       return next()
     }
     req.auth = { userId: session.user.id, email: session.user.email, isAdmin: session.user.isAdmin, via: 'session', sessionId: session.sessionId }

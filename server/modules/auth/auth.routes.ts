@@ -32,7 +32,7 @@ export function authRoutes(deps: { db: Db }, opts: AuthOptions): Router {
 
   router.post('/sign-out', async (req, res) => {
     if (req.auth?.sessionId) await revokeSession(deps.db, req.auth.sessionId)
-    clearSessionCookie(req, res)
+    clearSessionCookie(opts, req, res)
     res.status(204).end()
   })
 

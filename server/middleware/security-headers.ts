@@ -1,0 +1,54 @@
+import type { RequestHandler } from 'express'
+import helmet from 'helmet'
+import type { Logger } from '../logger'
+
+/**
+ * Response headers that keep the app page from being framed, sniffed or made to run foreign code.
+ * The Content-Security-Policy is the narrowest the built client passes in Chromium
+ * (tests/e2e/security-headers.test.ts visits every page and fails on any violation):
+ * - script-src 'self': the build has no inline script and no eval.
+ * - style-src 'self' 'unsafe-inline': Vuetify writes its theme (colours for light and dark) into a
+ *   <style> element at run time, and its components and ECharts set style attributes; a nonce
+ *   would need the app shell templated per response. Inline styles cannot run code.
+ * - img-src data: blob: for chart exports and the space-time map's canvas images; font-src data:
+ *   for icon fonts a bundler may inline.
+ * - frame-ancestors 'none' (and X-Frame-Options DENY for older browsers): no page may frame us.
+ * HSTS and upgrade-insecure-requests only when the public address is https: on plain http they
+ * would break a local or intranet install.
+ */
+export function securityHeaders(publicUrl: string | undefined): RequestHandler {
+  const https = publicUrl?.startsWith('https://') === true
+  return helmet({
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'"],
+        scriptSrcAttr: ["'none'"],
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        fontSrc: ["'self'", 'data:'],
+        connectSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        baseUri: ["'self'"],
+        formAction: ["'self'"],
+        frameAncestors: ["'none'"],
+        ...(https ? { upgradeInsecureRequests: [] } : {}),
+      },
+    },
+    frameguard: { action: 'deny' },
+    strictTransportSecurity: https ? { maxAge: 180 * 86_400, includeSubDomains: false } : false,
+    // Not no-referrer: under it a browser sends "Origin: null" on its own POSTs, which the
+    // same-origin check would refuse; same-origin still keeps ?token= and ?share= URLs from leaving.
+    referrerPolicy: { policy: 'same-origin' },
+  })
+}
+
+/** Says at start-up when production serves sign-ins without TLS, where cookies can be read on the wire. */
+export function warnOnPlainHttp(log: Logger, publicUrl: string | undefined): void {
+  if (process.env.NODE_ENV !== 'production' || publicUrl?.startsWith('https://')) return
+  log.warn(
+    { publicUrl: publicUrl ?? null },
+    'production without an https PUBLIC_URL: session cookies are marked Secure only when a proxy reports https (X-Forwarded-Proto); serve Sonoweave over https and set PUBLIC_URL to that address',
+  )
+}
