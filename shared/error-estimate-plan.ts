@@ -25,12 +25,15 @@ export const ERROR_ESTIMATE = {
 } as const
 
 export type CoarsePlan =
-  | { ok: true; config: SimulationConfig; grid: GridChoice; fineGrid: GridChoice; order: number }
+  | { ok: true; config: SimulationConfig; grid: GridChoice; fineGrid: FineGrid; order: number }
   | { ok: false; status: 'off' | 'unavailable'; reason: string }
+
+/** What the plan needs of the run's own grid. */
+export type FineGrid = Pick<GridChoice, 'dtS' | 'nz' | 'nt'>
 
 const ps = (s: number) => `${(s * 1e12).toPrecision(3)} ps`
 
-export function planCoarseRun(config: SimulationConfig, fine: GridChoice = chooseGrid(config)): CoarsePlan {
+export function planCoarseRun(config: SimulationConfig, fine: FineGrid = chooseGrid(config)): CoarsePlan {
   if (!config.options.errorEstimate) return { ok: false, status: 'off', reason: 'The error estimate was switched off in the run settings.' }
   if (config.options.noise.enabled) {
     return {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
+import { chooseGrid } from './grid-step'
 import {
   CELL_UPDATES_PER_S_SVEA,
   checkLimits,
@@ -19,7 +20,7 @@ const config = (over: Partial<SimulationConfigInput> = {}) =>
 
 describe('estimateResources', () => {
   it('counts cell-updates as N_ch·N_nodes·N_samples·N_real (physics.md §4), nodes = nz + 1, samples = nt + 1', () => {
-    const two = config({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }] })
+    const two = config({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: { errorEstimate: false } })
     const e = estimateResources(two, { dtS: 5e-12, nz: 2000, nt: 20000 }, 3)
     expect(e.cellUpdates).toBe(2 * 2001 * 20001 * 3)
     expect(e.expectedSeconds).toBeCloseTo(e.cellUpdates / CELL_UPDATES_PER_S_SVEA, 9)
@@ -36,6 +37,37 @@ describe('estimateResources', () => {
     expect(b.memoryBytes.total).toBeLessThan(2.1 * a.memoryBytes.total)
   })
 
+  it('adds the error estimate: the same run on the grid with twice the step, about a quarter of the node-steps', () => {
+    // Companion grid: Δt' = 2Δt tiles L with nz/2 cells, and nt' = ⌈T/Δt'⌉ (shared/grid-step.ts tiling rule).
+    const on = config({ grid: { timeStepPs: 4 } })
+    const off = config({ grid: { timeStepPs: 4 }, options: { errorEstimate: false } })
+    const g = chooseGrid(on)
+    const a = estimateResources(on, g)
+    const b = estimateResources(off, g)
+    const cells = Math.ceil(g.nz / 2 - 1e-9)
+    const steps = Math.ceil(150e-9 / ((g.dtS * g.nz) / cells) - 1e-9)
+    expect(a.errorEstimate).toMatchObject({ cells, steps, cellUpdates: (cells + 1) * (steps + 1) })
+    expect(a.errorEstimate!.timeStepPs).toBeCloseTo((g.dtS * 1e12 * g.nz) / cells, 6)
+    expect(a.cellUpdates).toBe(b.cellUpdates + (cells + 1) * (steps + 1))
+    expect(a.cellUpdates / b.cellUpdates).toBeGreaterThan(1.24)
+    expect(a.cellUpdates / b.cellUpdates).toBeLessThan(1.27)
+    expect(a.expectedSeconds / b.expectedSeconds).toBeCloseTo(a.cellUpdates / b.cellUpdates, 9)
+    expect(a.memoryBytes.errorEstimate).toBeGreaterThan(0)
+    expect(a.memoryBytes.total).toBe(a.memoryBytes.state + a.memoryBytes.maps + a.memoryBytes.traces + a.memoryBytes.errorEstimate)
+    expect(b.errorEstimate).toBeNull()
+    expect(b.memoryBytes.errorEstimate).toBe(0)
+    expect(b.errorEstimateSkipped).toMatch(/switched off/)
+  })
+
+  it('adds nothing for a noise run, whose companion would draw another random field, and says why', () => {
+    const c = config({ options: { noise: { enabled: true } } })
+    const g = chooseGrid(c)
+    const e = estimateResources(c, g)
+    expect(e.errorEstimate).toBeNull()
+    expect(e.cellUpdates).toBe((g.nz + 1) * (g.nt + 1))
+    expect(e.errorEstimateSkipped).toMatch(/thermal noise/)
+  })
+
   it('assumes a slower throughput with the higher-order term', () => {
     const e = estimateResources(config({ options: { higherOrderAcoustic: true } }), { dtS: 5e-12, nz: 100, nt: 100 })
     expect(e.cellUpdatesPerS).toBe(CELL_UPDATES_PER_S_SVEA * SPEED_FACTOR_HIGHER_ORDER)
@@ -48,7 +80,7 @@ describe('checkLimits', () => {
   })
 
   it('refuses 4e10 cell-updates and proposes a halved window, a step √2 coarser and a halved guide', () => {
-    const e = estimateResources(config({ windowNs: 1000 }), { dtS: 10e-12, nz: 99_999, nt: 399_999 })
+    const e = estimateResources(config({ windowNs: 1000, options: { errorEstimate: false } }), { dtS: 10e-12, nz: 99_999, nt: 399_999 })
     const r = checkLimits(e)
     expect(r.ok).toBe(false)
     if (r.ok) return
@@ -65,8 +97,19 @@ describe('checkLimits', () => {
     if (!r.ok) expect(r.message).not.toMatch(/coarser time step/)
   })
 
+  it('counts the error estimate against the limit and proposes switching it off when that is enough', () => {
+    // Δt = 0.1 ps over L/v_g = 0.407 ns and 450 ns: 1.83e10 for the run itself (under 2e10), 2.29e10 with the companion.
+    const c = config({ windowNs: 450, grid: { timeStepPs: 0.1 } })
+    const e = estimateResources(c, chooseGrid(c))
+    const r = checkLimits(e)
+    expect(r.ok).toBe(false)
+    if (r.ok) return
+    expect(r.message).toMatch(/plus 4\.5\de\+9 for the error estimate on the grid with twice the step/)
+    expect(r.message).toMatch(/switch off the error estimate/)
+  })
+
   it('proposes fewer channels when that is enough', () => {
-    const c = config({ channels: [0, 5, 10, 15].map((offsetGHz) => ({ offsetGHz })) })
+    const c = config({ channels: [0, 5, 10, 15].map((offsetGHz) => ({ offsetGHz })), options: { errorEstimate: false } })
     const r = checkLimits(estimateResources(c, { dtS: 5e-12, nz: 9_999, nt: 999_999 })) // 4e10
     expect(r.ok).toBe(false)
     if (!r.ok) expect(r.message).toMatch(/use 2 channels instead of 4/)

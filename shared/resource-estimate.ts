@@ -1,6 +1,8 @@
 // What a run will cost before it starts: cells, steps, cell-updates, memory and expected time, and the
-// refusal of runs over the limits with the knob to turn. Cost model: physics.md §4 (N_ch·N_z·N_t·N_real).
+// refusal of runs over the limits with the knob to turn. Cost model: physics.md §4 (N_ch·N_z·N_t·N_real),
+// plus the error estimate's companion run on the grid with twice the step (about a quarter of the run).
 import type { SimulationConfig } from './simulation-config'
+import { planCoarseRun } from './error-estimate-plan'
 
 /** Grid counts as chosen by shared/grid-step.ts. */
 export interface GridCounts {
@@ -49,8 +51,13 @@ export interface ResourceEstimate {
   cells: number
   steps: number
   timeStepPs: number
+  /** Node-steps of the run and of its error-estimate companion together (the companion's share below). */
   cellUpdates: number
-  memoryBytes: { state: number; maps: number; traces: number; total: number }
+  /** The companion run on the grid with twice the step (shared/error-estimate-plan.ts), or null with the reason. */
+  errorEstimate: { cells: number; steps: number; timeStepPs: number; cellUpdates: number } | null
+  errorEstimateSkipped: string | null
+  /** errorEstimate: the companion's own arrays, allocated while the run's are still held. */
+  memoryBytes: { state: number; maps: number; traces: number; errorEstimate: number; total: number }
   /** Throughput assumed for this option set (cell-updates per second). */
   cellUpdatesPerS: number
   expectedSeconds: number
@@ -63,15 +70,12 @@ export interface ResourceEstimate {
 export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1): ResourceEstimate {
   const channels = config.channels.length
   const o = config.options
-  // Counted like the solver's own counter: every node (nz + 1) at every time sample (nt + 1).
-  const nodes = grid.nz + 1
-  const samples = grid.nt + 1
-  const cellUpdates = channels * realisations * nodes * samples
-  const stateBytesPerCell = STATE_BYTES_PER_CELL + (o.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
-  const state = channels * nodes * stateBytesPerCell
-  const maps = channels * MAPS_PER_CHANNEL * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL
-  // Axes (t and z, float64) count with the traces.
-  const traces = channels * samples * TRACE_BYTES_PER_STEP + 8 * (samples + nodes)
+  const main = runCost(config, grid, realisations)
+  const plan = planCoarseRun(config, grid)
+  const companion = plan.ok ? runCost(plan.config, plan.grid, realisations) : null
+  const cellUpdates = main.cellUpdates + (companion?.cellUpdates ?? 0)
+  const { state, maps, traces } = main
+  const errorEstimateBytes = companion ? companion.state + companion.maps + companion.traces : 0
   const cellUpdatesPerS =
     CELL_UPDATES_PER_S_SVEA *
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
@@ -84,13 +88,31 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     steps: grid.nt,
     timeStepPs: grid.dtS * 1e12,
     cellUpdates,
-    memoryBytes: { state, maps, traces, total: state + maps + traces },
+    errorEstimate: plan.ok ? { cells: plan.grid.nz, steps: plan.grid.nt, timeStepPs: plan.grid.dtS * 1e12, cellUpdates: companion!.cellUpdates } : null,
+    errorEstimateSkipped: plan.ok ? null : plan.reason,
+    memoryBytes: { state, maps, traces, errorEstimate: errorEstimateBytes, total: state + maps + traces + errorEstimateBytes },
     cellUpdatesPerS,
     expectedSeconds: cellUpdates / cellUpdatesPerS,
     windowNs: config.windowNs,
     lengthM: config.waveguide.lengthM,
     // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (physics.md §3).
     maxTimeStepPs: o.higherOrderAcoustic ? 1000 / (20 * config.waveguide.brillouinShiftGHz) : undefined,
+  }
+}
+
+/** Node-steps and arrays of one run on one grid. */
+function runCost(config: SimulationConfig, grid: GridCounts, realisations: number) {
+  const channels = config.channels.length
+  // Counted like the solver's own counter: every node (nz + 1) at every time sample (nt + 1).
+  const nodes = grid.nz + 1
+  const samples = grid.nt + 1
+  const stateBytesPerCell = STATE_BYTES_PER_CELL + (config.options.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
+  return {
+    cellUpdates: channels * realisations * nodes * samples,
+    state: channels * nodes * stateBytesPerCell,
+    maps: channels * MAPS_PER_CHANNEL * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL,
+    // Axes (t and z, float64) count with the traces.
+    traces: channels * samples * TRACE_BYTES_PER_STEP + 8 * (samples + nodes),
   }
 }
 
@@ -113,9 +135,12 @@ export function checkLimits(e: ResourceEstimate, limits: ResourceLimits = DEFAUL
     knobs.push(`use a shorter waveguide, ≤ ${sig(e.lengthM / f)} m instead of ${sig(e.lengthM)} m`)
     const fewer = Math.floor(e.channels / f)
     if (fewer >= 1 && fewer < e.channels) knobs.push(`use ${fewer} channel${fewer > 1 ? 's' : ''} instead of ${e.channels}`)
+    const companion = e.errorEstimate?.cellUpdates ?? 0
+    if (companion > 0 && e.cellUpdates - companion <= limits.maxCellUpdates) knobs.push('switch off the error estimate in the run settings')
     reasons.push(
       `The run needs ${sig(e.cellUpdates)} cell-updates (${e.channels} channel(s) × ${e.cells} cells × ${e.steps} steps` +
-        `${e.realisations > 1 ? ` × ${e.realisations} realisations` : ''}), over the limit of ${sig(limits.maxCellUpdates)}: ${knobs.join('; or ')}.`,
+        `${e.realisations > 1 ? ` × ${e.realisations} realisations` : ''}${companion > 0 ? `, plus ${sig(companion)} for the error estimate on the grid with twice the step` : ''}), ` +
+        `over the limit of ${sig(limits.maxCellUpdates)}: ${knobs.join('; or ')}.`,
     )
   }
   const m = e.memoryBytes
