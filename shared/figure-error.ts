@@ -34,3 +34,37 @@ export const FigureErrors = z.object({
   figures: z.record(z.string(), FigureError),
 })
 export type FigureErrors = z.infer<typeof FigureErrors>
+
+/** Keys whose values are inputs, bookkeeping or the scheme's own check (photon balance, at round-off), not figures. */
+export const NOT_FIGURES: ReadonlySet<string> = new Set(['channel', 'startNs', 'endNs', 'readWindowNs', 'wallTimeS', 'cellUpdatesPerS', 'errorEstimate', 'manleyRoweResidual'])
+
+/** Every finite numeric figure by its dotted path (array items by index), skipping NOT_FIGURES. */
+export function numericLeaves(value: unknown, prefix = '', out = new Map<string, number>()): Map<string, number> {
+  if (typeof value === 'number') {
+    if (Number.isFinite(value)) out.set(prefix, value)
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => numericLeaves(v, prefix ? `${prefix}.${i}` : String(i), out))
+  } else if (value && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) if (!NOT_FIGURES.has(k)) numericLeaves(v, prefix ? `${prefix}.${k}` : k, out)
+  }
+  return out
+}
+
+/**
+ * The figures with every figure replaced by its estimated absolute error (null where there is none), other
+ * fields kept: whatever reads a figure from the figures reads its error from this copy the same way.
+ */
+export function errorShaped<T>(figures: T, errors: FigureErrors['figures'], prefix = ''): T {
+  const at = (k: string | number) => (prefix ? `${prefix}.${k}` : String(k))
+  if (Array.isArray(figures)) return figures.map((v, i) => errorShaped(v, errors, at(i))) as T
+  if (figures && typeof figures === 'object') {
+    const out: Record<string, unknown> = {}
+    for (const [k, v] of Object.entries(figures)) {
+      if (NOT_FIGURES.has(k)) out[k] = v
+      else if (typeof v === 'number' || v === null) out[k] = errors[at(k)]?.absError ?? null
+      else out[k] = errorShaped(v, errors, at(k))
+    }
+    return out as T
+  }
+  return figures
+}

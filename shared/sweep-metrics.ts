@@ -1,6 +1,7 @@
 // The figures of merit a sweep plots and exports per point, read from each run's stored figures
 // (shared/simulation-result.ts) plus the energy windows the configuration defines.
 import type { ChannelFigures, FiguresOfMerit } from './simulation-result'
+import { errorShaped } from './figure-error'
 import type { SimulationConfig } from './simulation-config'
 import type { MetricColumn } from './sweeps'
 
@@ -42,8 +43,22 @@ export function metricColumns(config: Pick<SimulationConfig, 'channels' | 'energ
 
 const finiteOrNull = (x: number | null | undefined) => (typeof x === 'number' && Number.isFinite(x) ? x : null)
 
-/** One point's values by column key; every column present, null where the run gives nothing. */
+/** Key of a column's estimated absolute error (same unit) among a point's values. */
+export const errorKey = (key: string) => `${key}:error`
+
+/**
+ * One point's values by column key; every column present, null where the run gives nothing. Each column also
+ * gets its estimated discretisation error under errorKey(key), null where the run has no estimate for it.
+ */
 export function reduceFigures(figures: FiguresOfMerit | null, columns: MetricColumn[]): Record<string, number | null> {
+  const out = pickColumns(figures, columns)
+  const e = figures?.errorEstimate
+  const errors = e?.status === 'estimated' ? pickColumns(errorShaped(figures!, e.figures), columns) : {}
+  for (const col of columns) out[errorKey(col.key)] = errors[col.key] ?? null
+  return out
+}
+
+function pickColumns(figures: FiguresOfMerit | null, columns: MetricColumn[]): Record<string, number | null> {
   const out: Record<string, number | null> = {}
   for (const col of columns) {
     if (!figures) {

@@ -16,25 +16,11 @@
  * are skipped; a figure that is null in either run gets no estimate.
  */
 import { ERROR_ESTIMATE } from '@shared/error-estimate-plan'
-import type { FigureError, FigureErrors } from '@shared/figure-error'
+import { numericLeaves, type FigureError, type FigureErrors } from '@shared/figure-error'
 import type { FiguresOfMerit } from '@shared/simulation-result'
 
-/** Keys whose values are inputs, bookkeeping or the scheme's own check, not figures of merit. */
-const NOT_FIGURES = new Set(['channel', 'startNs', 'endNs', 'readWindowNs', 'wallTimeS', 'cellUpdatesPerS', 'errorEstimate', 'manleyRoweResidual'])
 /** Angles: differences are taken modulo 2π and the relative error is against a full turn. */
 const isPhase = (key: string) => /PhaseRad$/.test(key)
-
-/** Every finite numeric leaf by its dotted path (array items by index). */
-export function numericLeaves(value: unknown, prefix = '', out = new Map<string, number>()): Map<string, number> {
-  if (typeof value === 'number') {
-    if (Number.isFinite(value)) out.set(prefix, value)
-  } else if (Array.isArray(value)) {
-    value.forEach((v, i) => numericLeaves(v, prefix ? `${prefix}.${i}` : String(i), out))
-  } else if (value && typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) if (!NOT_FIGURES.has(k)) numericLeaves(v, prefix ? `${prefix}.${k}` : k, out)
-  }
-  return out
-}
 
 /** Rounds down to three significant digits, so the suggestion is never coarser than the scaling asks. */
 const floor3 = (x: number) => {
