@@ -4,6 +4,7 @@ import type { ChannelFigures, FiguresOfMerit } from './simulation-result'
 
 const channel = (over: Partial<ChannelFigures>): ChannelFigures => ({
   channel: 0,
+  scheme: 'other',
   energyJ: { pumpIn: 1e-12, stokesIn: 1e-12, pumpOut: 1e-12, stokesOut: 1e-12 },
   peakStokesGainDb: null,
   reflectivity: null,
@@ -15,6 +16,9 @@ const channel = (over: Partial<ChannelFigures>): ChannelFigures => ({
   retrievalEfficiency: null,
   retrievedPhaseRad: null,
   readWindowNs: null,
+  leakThrough: null,
+  retrievalWindow: null,
+  notDetermined: [],
   ...over,
 })
 const figures = (c: ChannelFigures): FiguresOfMerit => ({ channels: [c], windows: [], wallTimeS: 1, cellUpdatesPerS: 1 })

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { MapReduction, Port } from './simulation-config'
+import { RUN_SCHEMES } from './pulse-roles'
 import { FigureErrors } from './figure-error'
 
 /**
@@ -53,14 +54,40 @@ export type ResultGrid = z.infer<typeof ResultGrid>
 
 const nullableNumber = z.number().nullable()
 
+/**
+ * Why a figure is not given as a number. window-outside-run: the light it measures is expected (partly)
+ * outside the simulated time; overlaps-pulse: another pulse's light arrives inside its window;
+ * several-pulses: the port carries more than the one pulse the figure describes.
+ */
+export const NOT_DETERMINED_CODES = ['window-outside-run', 'overlaps-pulse', 'several-pulses'] as const
+export const NotDetermined = z.object({
+  /** The figure's key in ChannelFigures, or "energy" for an energy window. */
+  figure: z.string(),
+  code: z.enum(NOT_DETERMINED_CODES),
+  /** What the user can read and act on. */
+  message: z.string(),
+})
+export type NotDetermined = z.infer<typeof NotDetermined>
+
+/** The window a figure is measured in: expected arrival of the light it refers to and that light's width. */
+export const FigureWindow = z.object({
+  arrivalNs: z.number(),
+  fwhmNs: z.number(),
+  startNs: z.number(),
+  endNs: z.number(),
+})
+export type FigureWindow = z.infer<typeof FigureWindow>
+
 export const PortEnergies = z.object({ pumpIn: z.number(), stokesIn: z.number(), pumpOut: z.number(), stokesOut: z.number() })
 
 export const ChannelFigures = z.object({
   channel: z.number().int().nonnegative(),
+  /** What the channel does (shared/pulse-roles.ts); decides which figures apply. */
+  scheme: z.enum(RUN_SCHEMES).default('other'),
   energyJ: PortEnergies,
-  /** 10·log10(max P_s,out / max P_s,in); null without a Stokes input. */
+  /** 10·log10(max P_s,out / max P_s,in); amplifier runs only. */
   peakStokesGainDb: nullableNumber,
-  /** E_s,out/E_p,in (for CW, P_s(0)/P_p(0)); null without a pump input. */
+  /** E_s,out/E_p,in as a fraction (for CW, P_s(0)/P_p(0)); amplifier and generator runs only. */
   reflectivity: nullableNumber,
   /** Centroid shift of output vs input power beyond the free transit time (ns). */
   pumpDelayNs: nullableNumber,
@@ -72,11 +99,21 @@ export const ChannelFigures = z.object({
    * waveguide at the end counted as "left"; null when α > 0 (photons are then lost on purpose).
    */
   manleyRoweResidual: nullableNumber,
-  /** Pump-port output energy in the read window / data input energy; null unless pulses are labelled data and read. */
+  /**
+   * Storage runs (pulses labelled data and read): energy of the read-out field in the retrieval window as a
+   * fraction of the data energy. The read-out field is the pump output minus that of the same run without
+   * the read pulse, so data light that leaked through unstored is not counted.
+   */
   retrievalEfficiency: nullableNumber,
+  /** Data light reaching the pump output inside the retrieval window without being read out, as a fraction of the data energy. */
+  leakThrough: nullableNumber.default(null),
   /** Phase of the retrieved pump-port field relative to the data pulse, in [0, 2π). */
   retrievedPhaseRad: nullableNumber,
+  /** The retrieval window [startNs, endNs] (same as retrievalWindow). */
   readWindowNs: z.tuple([z.number(), z.number()]).nullable(),
+  retrievalWindow: FigureWindow.nullable().default(null),
+  /** Figures left null for a reason the user should see. */
+  notDetermined: z.array(NotDetermined).default([]),
 })
 export type ChannelFigures = z.infer<typeof ChannelFigures>
 
@@ -85,8 +122,12 @@ export const WindowEnergy = z.object({
   port: Port,
   startNs: z.number(),
   endNs: z.number(),
+  /** Anchored windows: the pulse followed, its expected arrival at the port and the width used. */
+  anchor: z.object({ pulse: z.string(), arrivalNs: z.number(), fwhmNs: z.number() }).nullable().default(null),
   energyJPerChannel: z.array(z.number()),
-  energyJ: z.number(),
+  /** Null when the window is not determined (see notDetermined). */
+  energyJ: z.number().nullable(),
+  notDetermined: NotDetermined.nullable().default(null),
 })
 export type WindowEnergy = z.infer<typeof WindowEnergy>
 

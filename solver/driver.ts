@@ -10,6 +10,7 @@ import { MapRecorder, mapLayout } from './observers/map-recorder'
 import { preRunWarnings } from './observers/warnings'
 import { buildModel, type Model } from './problem/coupled-modes'
 import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, noiseWeight, type FieldState } from './steppers/interaction-kernel'
+import { planStorageReference, type ReferencePlan } from './storage-reference'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -33,6 +34,11 @@ export class SimulationRun {
   private readonly rng: NormalSource | null
   private readonly fast: boolean
   private readonly forceGeneral: boolean
+  /** Storage runs: the same run without the read pulses, forked at plan.forkN (storage-reference.ts). */
+  private referencePlan: ReferencePlan | null = null
+  private reference: SimulationRun | null = null
+  /** A companion keeps no maps: only its port traces are read. */
+  private recordMaps = true
 
   constructor(
     readonly config: SimulationConfig,
@@ -60,6 +66,7 @@ export class SimulationRun {
     this.fast = !this.forceGeneral && fastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
+    this.referencePlan = planStorageReference(config, m.dtS)
   }
 
   get done(): boolean {
@@ -70,11 +77,45 @@ export class SimulationRun {
     return this.n * this.model.nodes * this.model.nCh
   }
 
-  /** Integrate up to `count` time indices; returns how many were done. */
+  /** Integrate up to `count` time indices (and the storage reference alongside); returns how many were done. */
   advance(count: number): number {
+    const start = this.n
+    const end = Math.min(this.model.nt + 1, this.n + count)
+    const plan = this.referencePlan
+    if (plan && !this.reference && end > plan.forkN) {
+      this.integrate(plan.forkN)
+      this.reference = this.fork(plan.config)
+    }
+    this.integrate(end)
+    this.reference?.integrate(end)
+    return end - start
+  }
+
+  /** The reference's port traces (storage runs only, once forked). */
+  get referenceTraces(): ChannelTraces[] | null {
+    return this.reference?.traces ?? null
+  }
+
+  /** A companion run with other inputs, continuing from this run's present state. */
+  private fork(config: SimulationConfig): SimulationRun {
+    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral })
+    c.referencePlan = null
+    c.recordMaps = false
+    for (const key of ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm', 'wRe', 'wIm'] as const) c.state[key].set(this.state[key])
+    this.traces.forEach((t, k) => {
+      c.traces[k].pumpOut.set(t.pumpOut.subarray(0, 2 * this.n))
+      c.traces[k].stokesOut.set(t.stokesOut.subarray(0, 2 * this.n))
+    })
+    // Same draws from here on, so the thermal noise cancels in the difference of the two runs.
+    if (this.rng instanceof SeededRandom && c.rng instanceof SeededRandom) c.rng.copyFrom(this.rng)
+    c.n = this.n
+    return c
+  }
+
+  private integrate(endN: number): void {
     const m = this.model
     const s = this.state
-    const end = Math.min(m.nt + 1, this.n + count)
+    const end = Math.min(m.nt + 1, endN)
     const start = this.n
     const nz = m.nz
     for (let n = start; n < end; n++) {
@@ -96,14 +137,13 @@ export class SimulationRun {
         t.stokesOut[2 * n + 1] = m.sqrtKappa * s.vIm[base]
       }
       if (m.advectionCourant > 0) advectAcoustic(m, s)
-      this.maps.record(n, s)
+      if (this.recordMaps) this.maps.record(n, s)
       if (n < m.nt) {
         this.transport()
         this.inject(n + 1)
       }
     }
-    this.n = end
-    return end - start
+    this.n = Math.max(this.n, end)
   }
 
   /** True if every value written so far is finite (a guard: never hand out a NaN result). */
@@ -129,7 +169,7 @@ export class SimulationRun {
   }
 
   figures(wallTimeS: number) {
-    return computeFigures(this.config, this.model, this.traces, this.leftInside(), wallTimeS, this.cellUpdates)
+    return computeFigures(this.config, this.model, this.traces, this.leftInside(), wallTimeS, this.cellUpdates, this.referenceTraces)
   }
 
   private transport(): void {

@@ -30,11 +30,13 @@ export function figureLines(f: FiguresOfMerit): string[] {
     if (ch.peakStokesGainDb !== null) extra.push(`peak Stokes gain ${ch.peakStokesGainDb.toFixed(2)} dB`)
     if (ch.reflectivity !== null) extra.push(`reflectivity ${sig(ch.reflectivity, 3)}`)
     if (ch.retrievalEfficiency !== null) extra.push(`retrieval efficiency ${sig(ch.retrievalEfficiency, 4)}`)
+    if (ch.leakThrough !== null) extra.push(`leak-through ${sig(ch.leakThrough, 3)}`)
     if (ch.retrievedPhaseRad !== null) extra.push(`retrieved phase ${ch.retrievedPhaseRad.toFixed(3)} rad`)
+    for (const d of ch.notDetermined) if (d.figure === 'retrievalEfficiency' || d.figure.endsWith('Ns')) extra.push(`${d.figure} not determined: ${d.message}`)
     if (ch.manleyRoweResidual !== null) extra.push(`Manley–Rowe residual ${ch.manleyRoweResidual.toExponential(1)}`)
     if (extra.length) lines.push(`  ${extra.join(', ')}`)
   }
-  for (const w of f.windows) lines.push(`window "${w.label}" (${w.port}, ${w.startNs}–${w.endNs} ns): ${joule(w.energyJ)}`)
+  for (const w of f.windows) lines.push(`window "${w.label}" (${w.port}, ${w.startNs}–${w.endNs} ns): ${w.energyJ === null ? `not determined: ${w.notDetermined?.message ?? ''}` : joule(w.energyJ)}`)
   lines.push(`wall time ${f.wallTimeS.toFixed(2)} s, ${sig(f.cellUpdatesPerS / 1e6, 3)} M cell-updates/s`)
   return lines
 }

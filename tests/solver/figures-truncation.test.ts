@@ -6,7 +6,7 @@ import { sampleInput } from '../../solver/grid/input-traces'
 import { simulateSync } from '../../solver/index'
 import { CHIP_WAVEGUIDE } from './chip-fixtures'
 
-const data = (centreNs: number, fwhmNs = 2) => ({ shape: 'gaussian' as const, label: 'data', peakPowerW: 0.01, centreNs, fwhmNs })
+const data = (centreNs: number, fwhmNs = 2) => ({ shape: 'gaussian' as const, label: 'data', peakPowerW: 0.01, centreNs, fwhmNs, phaseRad: 0, frequencyOffsetMHz: 0 })
 const config = (centreNs: number, windowNs = 10) => ({ waveguide: CHIP_WAVEGUIDE, windowNs, channels: [{ pump: { pulses: [data(centreNs)] } }] })
 /** Gaussian pulse energy E = P·F·√(π/(4 ln 2)) (closed form of ∫exp(−4 ln2 t²/F²) dt). */
 const gaussianEnergyJ = (pW: number, fwhmNs: number) => pW * fwhmNs * 1e-9 * Math.sqrt(Math.PI / (4 * Math.LN2))

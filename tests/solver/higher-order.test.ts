@@ -27,7 +27,7 @@ describe('higher-order acoustic option', () => {
   })
 
   it('warns when a pulse is shorter than 5 acoustic periods in SVEA mode', () => {
-    const r = simulateSync(chipConfig({ windowNs: 2, waveguide: { brillouinShiftGHz: 2 }, channels: [{ pump: { pulses: [gaussian(0.1, 1, 0.5)] } }] }))
+    const r = simulateSync(chipConfig({ windowNs: 4, waveguide: { brillouinShiftGHz: 2 }, channels: [{ pump: { pulses: [gaussian(0.1, 2, 0.5)] } }] }))
     expect(r.manifest.warnings.map((w) => w.code)).toContain('svea-short-pulse')
   })
 
