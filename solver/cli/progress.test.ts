@@ -14,7 +14,7 @@ describe('progressSink', () => {
     t = 1000
     p.update(0.5)
     p.done()
-    expect(chunks[0]).toMatch(/^\r\[#{15}-{15}\]  50 % ETA 1\.0 s/)
+    expect(chunks[0]).toMatch(/^\r\[#{15}-{15}\] {2}50 % ETA 1\.0 s/)
     expect(chunks[1]).toBe('\n')
   })
 

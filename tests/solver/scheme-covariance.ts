@@ -49,7 +49,7 @@ export function multiply(a: Matrix, b: Matrix, transposeB = false): Matrix {
 /** P = Σ_{k≥0} Aᵏ Q (Aᵏ)ᵀ by doubling: P ← P + A P Aᵀ, A ← A²; needs spectral radius < 1. */
 export function discreteLyapunov(a: Matrix, q: Matrix, relTol = 1e-14, maxIter = 60): Matrix {
   let A = a
-  let P = { ...q, data: q.data.slice() }
+  const P = { ...q, data: q.data.slice() }
   for (let it = 0; it < maxIter; it++) {
     const add = multiply(multiply(A, P), A, true)
     let change = 0, size = 0
