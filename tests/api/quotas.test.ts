@@ -68,7 +68,7 @@ describe('runs in flight', () => {
     const message = quotaError(await submit(app, m), 429, 'quota_runs_in_flight')
     expect(message).toContain('quota of runs in flight for an account whose email address is not confirmed')
     expect(message).toContain('1 run in flight of at most 1')
-    expect(message).toContain('It frees up as soon as one of them finishes or you cancel it')
+    expect(message).toContain('It frees up as soon as it finishes or you cancel it')
     expect(message).toContain(`raise the quota to ${DEFAULTS.user.runsInFlight}`)
 
     expect((await cancel(app, m, first.body.id)).status).toBe(200)
@@ -88,6 +88,7 @@ describe('runs in flight', () => {
 
     const message = quotaError(await submit(app, m), 429, 'quota_runs_in_flight')
     expect(message).toContain(`quota of runs in flight per user: ${DEFAULTS.user.runsInFlight} runs in flight of at most ${DEFAULTS.user.runsInFlight}`)
+    expect(message).toContain('It frees up as soon as one of them finishes or you cancel it')
 
     await markSucceeded(ids[0])
     expect((await submit(app, m)).status).toBe(202)

@@ -2,7 +2,7 @@
 // these in the submit panel, so they name things as the app does (runs, sweeps, cell-updates), nothing internal.
 import type { QuotaScope } from './quota-usage.repo'
 
-const cells = (n: number) => n.toExponential(2)
+const cells = (n: number) => (n === 0 ? '0' : n.toExponential(2))
 
 /** "14:05 UTC on 2026-12-04 (in 3 h 12 min)". */
 export function describeMoment(at: Date, now: Date): string {
@@ -32,7 +32,7 @@ export function inFlightMessage(r: InFlightRefusal): string {
   const quota = r.unconfirmed ? 'runs in flight for an account whose email address is not confirmed' : 'runs in flight per user'
   const confirm = r.unconfirmed ? ` Confirm your email address with the link we mailed you to raise the quota to ${r.confirmedLimit}.` : ''
   return `You have reached your quota of ${quota}: ${items(r.inFlight)} in flight of at most ${r.limit} (${what}). ` +
-    `It frees up as soon as one of them finishes or you cancel it.${confirm}`
+    `It frees up as soon as ${r.inFlight === 1 ? 'it finishes' : 'one of them finishes'} or you cancel it.${confirm}`
 }
 
 export interface BudgetRefusal {
@@ -53,11 +53,14 @@ export function budgetMessage(r: BudgetRefusal): string {
     ? 'cell-updates per day per group'
     : r.unconfirmed ? 'cell-updates per day for an account whose email address is not confirmed' : 'cell-updates per day per user'
   const whose = r.scope === 'group' ? 'your group’s' : 'your'
-  const confirm = r.scope === 'user' && r.unconfirmed ? ` Confirm your email address with the link we mailed you to raise it to ${cells(r.confirmedLimit)}.` : ''
-  const needs = r.demand > 0 ? `This ${r.what} needs ${cells(r.demand)} cell-updates` : 'Nothing more can be queued'
+  const confirm = r.scope === 'user' && r.unconfirmed ? ` Confirm your email address with the link we mailed you to raise it to ${cells(r.confirmedLimit)} a day.` : ''
+  const needs = `This ${r.what} needs ${cells(r.demand)} cell-updates`
   if (r.freesAt === null) {
     return `${needs}, more than ${whose} whole quota of ${cells(r.limit)} ${quota}. Make it smaller (a shorter window, a coarser time step${r.what === 'sweep' ? ' or fewer points' : ''}).${confirm}`
   }
+  const frees = `Enough frees up at ${describeMoment(r.freesAt, r.now)}, as earlier runs leave the 24-hour window.${confirm}`
+  // A re-run of failed sweep points asks for nothing up front (its points are charged as they are stored).
+  if (r.demand === 0) return `${whose[0].toUpperCase()}${whose.slice(1)} quota of ${cells(r.limit)} ${quota} is used up: ${cells(r.used)} were used in the last 24 hours. ${frees}`
   return `${needs}, but ${whose} quota of ${cells(r.limit)} ${quota} has ${cells(Math.max(0, r.limit - r.used))} left: ${cells(r.used)} were used in the last 24 hours. ` +
-    `Enough frees up at ${describeMoment(r.freesAt, r.now)}, as earlier runs leave the 24-hour window.${confirm}`
+    frees
 }
