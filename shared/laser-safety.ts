@@ -33,6 +33,11 @@ export interface SafetyInputs {
   damageIntensityWPerCm2?: number
 }
 
+/** A power or energy ratio as people say it: "35 % of" below 1, "1.2× / 990×" from 1 up (never capped). */
+export function describeRatio(ratio: number): string {
+  return ratio < 1 ? `${Number((100 * ratio).toPrecision(2))} % of` : `${Number(ratio.toPrecision(ratio < 10 ? 2 : 3))}×`
+}
+
 /** Peak guided intensity in W/cm² from a power and an effective area in µm² (1 µm² = 1e-8 cm²). */
 export function intensityWPerCm2(powerW: number, effectiveAreaUm2: number): number {
   return powerW / (effectiveAreaUm2 * 1e-8)
@@ -65,7 +70,7 @@ export function laserSafetyAdvisories(s: SafetyInputs): Advisory[] {
       code: 'back-reflection',
       severity: 'warning',
       message:
-        `The Stokes light returning to the pump source may reach ${(100 * Math.min(s.stokesToPumpRatio, 1)).toFixed(0)} % of the pump ` +
+        `The Stokes light returning to the pump source may reach ${describeRatio(s.stokesToPumpRatio)} the pump power ` +
         `(above ${100 * BACK_REFLECTION_FRACTION} %). Back-reflected light can damage lasers and amplifiers: use an isolator or circulator.`,
     })
   }

@@ -24,10 +24,10 @@ const channel = (over: Partial<ChannelFigures>): ChannelFigures => ({
 const figures = (c: ChannelFigures): FiguresOfMerit => ({ channels: [c], windows: [], wallTimeS: 1, cellUpdatesPerS: 1 })
 
 describe('runKeyFigure', () => {
-  it('prefers retrieval (a storage run), then Stokes gain, then reflectivity, in display units', () => {
-    expect(runKeyFigure(figures(channel({ retrievalEfficiency: 0.0939, peakStokesGainDb: 3, reflectivity: 0.2 })))).toEqual({ label: 'retrieval', value: 9.39, unit: '%' })
+  it('prefers retrieval (a storage run), then Stokes gain, then reflectivity; energy ratios as fractions, as everywhere else', () => {
+    expect(runKeyFigure(figures(channel({ retrievalEfficiency: 0.0939, peakStokesGainDb: 3, reflectivity: 0.2 })))).toEqual({ label: 'retrieval', value: 0.0939, unit: '' })
     expect(runKeyFigure(figures(channel({ peakStokesGainDb: 3.25, reflectivity: 0.2 })))).toEqual({ label: 'Stokes gain', value: 3.25, unit: 'dB' })
-    expect(runKeyFigure(figures(channel({ reflectivity: 0.25 })))).toEqual({ label: 'reflectivity', value: 25, unit: '%' })
+    expect(runKeyFigure(figures(channel({ reflectivity: 0.25 })))).toEqual({ label: 'reflectivity', value: 0.25, unit: '' })
   })
 
   it('has nothing to show for a run without figures', () => {

@@ -38,9 +38,10 @@ export type KeyFigure = z.infer<typeof KeyFigure>
 export function runKeyFigure(f: FiguresOfMerit | null | undefined): KeyFigure | null {
   const c = f?.channels[0]
   if (!c) return null
-  if (c.retrievalEfficiency !== null) return { label: 'retrieval', value: 100 * c.retrievalEfficiency, unit: '%' }
+  // Energy ratios are fractions, as on the run and sweep pages and in the manifest.
+  if (c.retrievalEfficiency !== null) return { label: 'retrieval', value: c.retrievalEfficiency, unit: '' }
   if (c.peakStokesGainDb !== null) return { label: 'Stokes gain', value: c.peakStokesGainDb, unit: 'dB' }
-  if (c.reflectivity !== null) return { label: 'reflectivity', value: 100 * c.reflectivity, unit: '%' }
+  if (c.reflectivity !== null) return { label: 'reflectivity', value: c.reflectivity, unit: '' }
   return null
 }
 

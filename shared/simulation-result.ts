@@ -105,7 +105,7 @@ export const ChannelFigures = z.object({
    * the read pulse, so data light that leaked through unstored is not counted.
    */
   retrievalEfficiency: nullableNumber,
-  /** Data light reaching the pump output inside the retrieval window without being read out, as a fraction of the data energy. */
+  /** Data light reaching the pump output inside the retrieval window without being read out, as a fraction of the data energy (below 1e-9 given as 0). */
   leakThrough: nullableNumber.default(null),
   /** Phase of the retrieved pump-port field relative to the data pulse, in [0, 2π). */
   retrievedPhaseRad: nullableNumber,

@@ -3,6 +3,7 @@
 import type { ChannelFigures, FiguresOfMerit } from './simulation-result'
 import { errorShaped } from './figure-error'
 import type { SimulationConfig } from './simulation-config'
+import { channelScheme, type RunScheme } from './pulse-roles'
 import type { MetricColumn } from './sweeps'
 
 interface ChannelMetric {
@@ -10,30 +11,46 @@ interface ChannelMetric {
   label: string
   unit: string
   pick: (c: ChannelFigures) => number | null
+  /** The schemes the figure means something in (shared/pulse-roles.ts). */
+  schemes: readonly RunScheme[]
 }
+
+/** Ratios of energies are fractions everywhere (run page, sweep page, CSV, manifest): 0.094, not 9.4 %. */
+export const FRACTION_UNIT = 'fraction'
+
+const ALL: readonly RunScheme[] = ['storage', 'amplifier', 'generator', 'other']
+const STORAGE: readonly RunScheme[] = ['storage']
+const AMPLIFIER: readonly RunScheme[] = ['amplifier']
+const PUMPED: readonly RunScheme[] = ['amplifier', 'generator']
 
 /** Per channel; the energy balance is the Manley–Rowe residual plus the output energies it is made of. */
 export const CHANNEL_METRICS: readonly ChannelMetric[] = [
-  { key: 'retrievalEfficiency', label: 'Retrieval efficiency', unit: '1', pick: (c) => c.retrievalEfficiency },
-  { key: 'pumpDelayNs', label: 'Pump delay', unit: 'ns', pick: (c) => c.pumpDelayNs },
-  { key: 'stokesDelayNs', label: 'Stokes delay', unit: 'ns', pick: (c) => c.stokesDelayNs },
-  { key: 'pumpOutFwhmNs', label: 'Pump output width', unit: 'ns', pick: (c) => c.pumpOutFwhmNs },
-  { key: 'stokesOutFwhmNs', label: 'Stokes output width', unit: 'ns', pick: (c) => c.stokesOutFwhmNs },
-  { key: 'peakStokesGainDb', label: 'Peak Stokes gain', unit: 'dB', pick: (c) => c.peakStokesGainDb },
-  { key: 'reflectivity', label: 'Reflectivity', unit: '1', pick: (c) => c.reflectivity },
-  { key: 'manleyRoweResidual', label: 'Energy balance residual', unit: '1', pick: (c) => c.manleyRoweResidual },
-  { key: 'pumpOutEnergyJ', label: 'Pump output energy', unit: 'J', pick: (c) => c.energyJ.pumpOut },
-  { key: 'stokesOutEnergyJ', label: 'Stokes output energy', unit: 'J', pick: (c) => c.energyJ.stokesOut },
+  { key: 'retrievalEfficiency', label: 'Retrieval efficiency', unit: FRACTION_UNIT, schemes: STORAGE, pick: (c) => c.retrievalEfficiency },
+  { key: 'leakThrough', label: 'Leak-through', unit: FRACTION_UNIT, schemes: STORAGE, pick: (c) => c.leakThrough ?? null },
+  { key: 'pumpDelayNs', label: 'Pump delay', unit: 'ns', schemes: PUMPED, pick: (c) => c.pumpDelayNs },
+  { key: 'stokesDelayNs', label: 'Stokes delay', unit: 'ns', schemes: AMPLIFIER, pick: (c) => c.stokesDelayNs },
+  { key: 'pumpOutFwhmNs', label: 'Pump output width', unit: 'ns', schemes: PUMPED, pick: (c) => c.pumpOutFwhmNs },
+  { key: 'stokesOutFwhmNs', label: 'Stokes output width', unit: 'ns', schemes: AMPLIFIER, pick: (c) => c.stokesOutFwhmNs },
+  { key: 'peakStokesGainDb', label: 'Peak Stokes gain', unit: 'dB', schemes: AMPLIFIER, pick: (c) => c.peakStokesGainDb },
+  { key: 'reflectivity', label: 'Reflectivity', unit: FRACTION_UNIT, schemes: PUMPED, pick: (c) => c.reflectivity },
+  { key: 'manleyRoweResidual', label: 'Energy balance residual', unit: FRACTION_UNIT, schemes: ALL, pick: (c) => c.manleyRoweResidual },
+  { key: 'pumpOutEnergyJ', label: 'Pump output energy', unit: 'J', schemes: ALL, pick: (c) => c.energyJ.pumpOut },
+  { key: 'stokesOutEnergyJ', label: 'Stokes output energy', unit: 'J', schemes: ALL, pick: (c) => c.energyJ.stokesOut },
 ]
 
 const WINDOW_PREFIX = 'window:'
 
-/** Columns for a sweep of this base configuration: channel metrics (prefixed chN. with several channels), then windows. */
+/**
+ * Columns for a sweep of this base configuration: the channel metrics that apply to each channel's scheme
+ * (prefixed chN. with several channels), then windows.
+ */
 export function metricColumns(config: Pick<SimulationConfig, 'channels' | 'energyWindows'>): MetricColumn[] {
   const many = config.channels.length > 1
   const cols: MetricColumn[] = []
-  config.channels.forEach((_, ci) => {
+  config.channels.forEach((ch, ci) => {
+    const scheme = channelScheme(ch)
     for (const m of CHANNEL_METRICS) {
+      if (!m.schemes.includes(scheme)) continue
       cols.push({ key: many ? `ch${ci + 1}.${m.key}` : m.key, label: many ? `${m.label} (channel ${ci + 1})` : m.label, unit: m.unit })
     }
   })

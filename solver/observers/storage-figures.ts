@@ -17,6 +17,12 @@ export const RETRIEVAL_WINDOW_FWHM = 2
 /** Another pulse's light counts as arriving within ±1 FWHM of its expected arrival (98 % of a Gaussian's energy); its tails are what the reference removes. */
 export const OTHER_PULSE_CORE_FWHM = 1
 
+/**
+ * Leak-through below this fraction of the data energy is reported as 0: it is then the far tail of the data
+ * pulse, nothing anyone can act on, and its relative grid error is large (several % at 1e-15).
+ */
+export const LEAK_THROUGH_FLOOR = 1e-9
+
 type StorageFigures = Pick<ChannelFigures, 'retrievalEfficiency' | 'leakThrough' | 'retrievedPhaseRad' | 'readWindowNs' | 'retrievalWindow'> & { notDetermined: NotDetermined[] }
 
 const f3 = (x: number) => String(Number(x.toPrecision(3)))
@@ -63,7 +69,8 @@ export function storageFigures(config: SimulationConfig, k: number, roles: Stora
   if (!(dataJ > 0)) return out
   const [n0, n1] = windowIndices(win.startNs, win.endNs, dtS)
   const ref = refPumpOut ?? new Float64Array(pumpOut.length)
-  out.leakThrough = energyJ(ref, dtS, n0, n1) / dataJ
+  const leak = energyJ(ref, dtS, n0, n1) / dataJ
+  out.leakThrough = leak < LEAK_THROUGH_FLOOR ? 0 : leak
   if (reasons.length > 0) return out
   let sr = 0, si = 0
   for (let n = n0; n <= n1; n++) (sr += pumpOut[2 * n] - ref[2 * n]), (si += pumpOut[2 * n + 1] - ref[2 * n + 1])

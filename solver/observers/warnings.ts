@@ -4,7 +4,7 @@
 import { deriveQuantities } from '@shared/derived-quantities'
 import type { SimulationConfig } from '@shared/simulation-config'
 import type { FiguresOfMerit, SolverWarning } from '@shared/simulation-result'
-import { BACK_REFLECTION_FRACTION, SAFETY_DEFERRAL } from '@shared/laser-safety'
+import { BACK_REFLECTION_FRACTION, SAFETY_DEFERRAL, describeRatio } from '@shared/laser-safety'
 import type { Model } from '../problem/coupled-modes'
 
 const ESTIMATED_BACK_REFLECTION = 'back-reflection'
@@ -15,6 +15,14 @@ export function preRunWarnings(config: SimulationConfig, m: Model, nz: number, n
   return derived.warnings.filter((w) => w.code !== ESTIMATED_BACK_REFLECTION).map(({ code, message }) => ({ code, message }))
 }
 
+const PREFIXES: Array<[number, string]> = [[1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f']]
+/** Energy with an SI prefix chosen after rounding to 3 digits ("7.95 nJ"). */
+function joules(e: number): string {
+  const a = Math.abs(Number(e.toPrecision(3)))
+  const [f, p] = PREFIXES.find(([f]) => a >= f) ?? PREFIXES[PREFIXES.length - 1]
+  return `${Number((e / f).toPrecision(3))} ${p}J`
+}
+
 /** Checks that need the outputs: the Stokes light actually returned towards the pump source. */
 export function postRunWarnings(f: FiguresOfMerit): SolverWarning[] {
   const out: SolverWarning[] = []
@@ -22,7 +30,10 @@ export function postRunWarnings(f: FiguresOfMerit): SolverWarning[] {
     if (c.energyJ.pumpIn > 0 && c.energyJ.stokesOut > BACK_REFLECTION_FRACTION * c.energyJ.pumpIn)
       out.push({
         code: 'strong-reflection',
-        message: `Channel ${c.channel + 1}: the Stokes output exceeds ${BACK_REFLECTION_FRACTION * 100} % of the pump; back-reflected light can damage sources (use isolators). ${SAFETY_DEFERRAL}`,
+        message:
+          `Channel ${c.channel + 1}: the Stokes light leaving towards the pump source (${joules(c.energyJ.stokesOut)}) is ${describeRatio(c.energyJ.stokesOut / c.energyJ.pumpIn)} ` +
+          `the pump energy launched (${joules(c.energyJ.pumpIn)})${c.scheme === 'storage' ? ', mostly write and read pulses passing through' : ''}; ` +
+          `above ${BACK_REFLECTION_FRACTION * 100} % back-reflected light can damage sources (use isolators). ${SAFETY_DEFERRAL}`,
       })
   return out
 }

@@ -1,0 +1,73 @@
+// Each figure carries its meaning: only the figures of the run's scheme, energy ratios as fractions on
+// every surface, cautions with the real ratio.
+import { describe, expect, it } from 'vitest'
+import { SimulationConfig } from '@shared/simulation-config'
+import { metricColumns, reduceFigures } from '@shared/sweep-metrics'
+import { describeRatio } from '@shared/laser-safety'
+import { deriveQuantities } from '@shared/derived-quantities'
+import { runScheme } from '@shared/pulse-roles'
+import { simulateSync } from '../../solver/index'
+import storageExample from '../../solver/examples/store-and-retrieve-chalcogenide-rib.json'
+import { chipConfig, gaussian } from './chip-fixtures'
+
+const storage = SimulationConfig.parse(storageExample)
+// V5 of the validation set: 2 W pump and 50 mW Stokes pulses, T = 0.3 ns, meeting in the chip.
+const amplifier = chipConfig({ windowNs: 12, channels: [{ pump: { pulses: [gaussian(2, 1.5, 0.3)] }, stokes: { pulses: [gaussian(0.05, 1.5, 0.3)] } }] })
+
+describe('figures by scheme', () => {
+  it('tells a storage run from an amplifier run by the pulse roles', () => {
+    expect(runScheme(storage)).toBe('storage')
+    expect(runScheme(amplifier)).toBe('amplifier')
+  })
+
+  it('a storage run has no reflectivity or peak gain anywhere; an amplifier run has no retrieval figures', () => {
+    const s = simulateSync(storage).manifest.figures!
+    const cols = metricColumns(storage).map((c) => c.key)
+    expect(cols).toContain('retrievalEfficiency')
+    expect(cols).toContain('leakThrough')
+    expect(cols).not.toContain('reflectivity')
+    expect(cols).not.toContain('peakStokesGainDb')
+    expect(s.channels[0].reflectivity).toBeNull()
+    expect(s.channels[0].peakStokesGainDb).toBeNull()
+
+    const a = simulateSync(amplifier).manifest.figures!
+    const aCols = metricColumns(amplifier).map((c) => c.key)
+    expect(aCols).toEqual(expect.arrayContaining(['peakStokesGainDb', 'reflectivity', 'stokesDelayNs']))
+    expect(aCols).not.toContain('retrievalEfficiency')
+    expect(a.channels[0].peakStokesGainDb).toBeGreaterThan(0)
+    expect(a.channels[0].retrievalEfficiency).toBeNull()
+  })
+
+  it('gives an energy ratio the same unit on the sweep page, in the CSV and in the manifest: a fraction', () => {
+    const figures = simulateSync(storage).manifest.figures!
+    const cols = metricColumns(storage)
+    const eff = cols.find((c) => c.key === 'retrievalEfficiency')!
+    expect(eff.unit).toBe('fraction')
+    // The sweep value is the manifest's number, not a rescaled copy.
+    expect(reduceFigures(figures, cols).retrievalEfficiency).toBe(figures.channels[0].retrievalEfficiency)
+    expect(figures.channels[0].retrievalEfficiency).toBeGreaterThan(0.01)
+    expect(figures.channels[0].retrievalEfficiency).toBeLessThan(1)
+  })
+})
+
+describe('cautions state the real ratio', () => {
+  it('says the Stokes light is hundreds of times the pump, not "100 % of the pump", in a storage run', () => {
+    const r = simulateSync(storage)
+    const c = r.manifest.figures!.channels[0]
+    const ratio = c.energyJ.stokesOut / c.energyJ.pumpIn
+    expect(ratio).toBeGreaterThan(100)
+    const w = r.manifest.warnings.find((x) => x.code === 'strong-reflection')!
+    expect(w.message).toContain(`${describeRatio(ratio)} the pump energy launched`)
+    expect(w.message).toMatch(/is \d{3}× the pump/)
+    expect(w.message).not.toContain('100 %')
+    // The form's estimate before the run says the same kind of thing.
+    const pre = deriveQuantities({ waveguide: storage.waveguide, config: storage }).warnings.find((x) => x.code === 'back-reflection')!
+    expect(pre.message).toMatch(/may reach \d+× the pump power/)
+  })
+
+  it('writes ratios below 1 as a percentage and from 1 up as a multiple', () => {
+    expect(describeRatio(0.35)).toBe('35 % of')
+    expect(describeRatio(1.2)).toBe('1.2×')
+    expect(describeRatio(986.7)).toBe('987×')
+  })
+})
