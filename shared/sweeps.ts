@@ -39,7 +39,7 @@ export const SweepAxis = z
   .superRefine((a, ctx) => {
     const f = sweepField(a.field)
     if (f.needsPulseLabel && !a.pulseLabel) ctx.addIssue({ code: 'custom', path: ['pulseLabel'], message: `${f.label} needs the label of the pulse(s) to vary` })
-    const bad = axisValues(a.values).find((v) => (f.positive ? v <= 0 : !f.signed && v < 0))
+    const bad = axisLengthOk(a.values) ? axisValues(a.values).find((v) => (f.positive ? v <= 0 : !f.signed && v < 0)) : undefined
     if (bad !== undefined) ctx.addIssue({ code: 'custom', path: ['values'], message: `${f.label} must be ${f.positive ? 'above 0' : 'at least 0'}; got ${bad} ${f.unit}` })
   })
 export type SweepAxis = z.infer<typeof SweepAxis>
@@ -54,8 +54,8 @@ function checkAxes(s: { axes: SweepAxis[] }, ctx: z.RefinementCtx) {
   if (a && b && a.field === b.field && (a.pulseLabel ?? '') === (b.pulseLabel ?? '')) {
     ctx.addIssue({ code: 'custom', path: ['axes', 1, 'field'], message: 'The two axes must vary different fields' })
   }
-  const n = s.axes.reduce((p, x) => p * axisValues(x.values).length, 1)
-  if (n > MAX_SWEEP_POINTS) ctx.addIssue({ code: 'custom', path: ['axes'], message: `The sweep has ${n} points; at most ${MAX_SWEEP_POINTS} are allowed` })
+  const n = s.axes.reduce((p, x) => p * axisLength(x.values), 1)
+  if (s.axes.every((x) => axisLengthOk(x.values)) && n > MAX_SWEEP_POINTS) ctx.addIssue({ code: 'custom', path: ['axes'], message: `The sweep has ${n} points; at most ${MAX_SWEEP_POINTS} are allowed` })
 }
 
 /** What the estimate needs: the base configuration and the axes. */
@@ -72,6 +72,18 @@ export const SweepCreate = z
   .superRefine(checkAxes)
 export type SweepCreate = z.infer<typeof SweepCreate>
 export type SweepCreateInput = z.input<typeof SweepCreate>
+
+/** How many values an axis takes, without building them. */
+export function axisLength(v: AxisValues): number {
+  return v.kind === 'list' ? v.values.length : v.count
+}
+
+// Refinements run even when a count broke its own max (zod reports both), so they must not build a
+// list of 1e21 values before that issue is seen.
+function axisLengthOk(v: AxisValues): boolean {
+  const n = axisLength(v)
+  return Number.isInteger(n) && n >= 1 && n <= MAX_AXIS_VALUES
+}
 
 /** The values an axis takes, in order. Log ranges are geometric: equal ratios between neighbours. */
 export function axisValues(v: AxisValues): number[] {

@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import type { ApiErrorBody } from '@shared/api-error'
 import { AppError, type FieldError } from '../errors'
+import { pathParamName } from './path-param-name'
 
 type ErrorBody = ApiErrorBody['error']
 
@@ -23,12 +24,30 @@ const BODY_ERRORS: Record<string, { status: number; code: string; message: strin
   'request.aborted': { status: 400, code: 'request_aborted', message: 'The request was aborted' },
 }
 
+/**
+ * Express decodes route parameters while matching and throws a URIError (marked 400) for a malformed
+ * percent-encoding such as /api/runs/%E0%A4%A; that is the client's mistake, named by its parameter.
+ */
+function badPathEncoding(err: unknown, req: Parameters<ErrorRequestHandler>[1]): ErrorBody | null {
+  if (!(err instanceof URIError)) return null
+  const raw = /^Failed to decode param '(.*)'$/s.exec(err.message)?.[1]
+  const path = req.originalUrl.split('?')[0]
+  const name = raw === undefined ? null : pathParamName(req.app, path, raw)
+  const message = 'is not valid percent-encoding (a % must be followed by two hexadecimal digits forming UTF-8)'
+  return {
+    code: 'invalid_path',
+    message: `The address has a malformed ${name ? `"${name}" ` : ''}segment`,
+    fields: [{ path: name ?? 'path', message }],
+  }
+}
+
 /** The one place errors become responses. Only AppError and validation messages reach the client. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   if (res.headersSent) return next(err)
   const requestId = req.id
   let status: number
   let body: ErrorBody
+  let pathError: ErrorBody | null
 
   if (err instanceof ZodError) {
     status = 400
@@ -36,6 +55,9 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   } else if (err instanceof AppError) {
     status = err.httpStatus
     body = { code: err.code, message: err.message, ...(err.details?.fields ? { fields: err.details.fields } : {}) }
+  } else if ((pathError = badPathEncoding(err, req))) {
+    status = 400
+    body = pathError
   } else if (typeof err?.type === 'string' && BODY_ERRORS[err.type]) {
     const known = BODY_ERRORS[err.type]
     status = known.status

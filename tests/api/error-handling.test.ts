@@ -19,6 +19,7 @@ function probeRoutes(): Router {
   const r = Router()
   r.post('/echo', validate({ body: Pulse }), (req, res) => res.json(req.body))
   r.get('/list', validate({ query: z.object({ limit: z.coerce.number().int().max(100) }) }), (req, res) => res.json(req.query))
+  r.get('/pulses/:pulseId/samples/:sampleName', (req, res) => res.json(req.params))
   r.get('/conflict', () => {
     throw new AppError('run_locked', 409, 'This run is already being edited')
   })
@@ -114,6 +115,21 @@ describe('error middleware', () => {
     const logged = lines.find((l) => l.requestId === 'trace-abc-123' && l.msg === 'unhandled error')
     expect(logged).toBeDefined()
     expect(JSON.stringify(logged)).toContain('/srv/secret.conf')
+  })
+
+  it('answers malformed percent-encoding in a path parameter with 400 naming that parameter', async () => {
+    // %E0%A4%A is a cut-off three-byte UTF-8 sequence; %ED%A0%80 encodes a lone surrogate, which is not UTF-8 at all.
+    const cut = await request(app).get('/api/probe/pulses/%E0%A4%A/samples/a')
+    const surrogate = await request(app).get('/api/probe/pulses/p1/samples/%ED%A0%80')
+    const good = await request(app).get('/api/probe/pulses/p%201/samples/%F0%9F%98%80')
+
+    expect(cut.status).toBe(400)
+    expect(ApiErrorBody.parse(cut.body).error.fields?.map((f) => f.path)).toEqual(['pulseId'])
+    expect(cut.body.error.code).toBe('invalid_path')
+    expect(surrogate.status).toBe(400)
+    expect(surrogate.body.error.fields.map((f: { path: string }) => f.path)).toEqual(['sampleName'])
+    expect(good.body).toEqual({ pulseId: 'p 1', sampleName: '😀' })
+    expect(lines.some((l) => l.msg === 'unhandled error' && JSON.stringify(l).includes('decode'))).toBe(false)
   })
 
   it('replaces a request id that is unsafe to echo', async () => {

@@ -1,6 +1,7 @@
 import { Router, type Request } from 'express'
 import { z } from 'zod'
 import { RunClone, RunCreate, RunListQuery } from '@shared/runs'
+import { safeText } from '@shared/text'
 import { AppError, conflict, notFound } from '../../errors'
 import { validate } from '../../middleware/validate'
 import { isUuid } from '../../policy/ids'
@@ -14,7 +15,8 @@ import { findArray, findRun } from './runs.repo'
 import { cancelRun, cloneRun, createRun, getRun, listRunsFor, runFor, type RunsDeps } from './runs.service'
 
 const IdempotencyKey = z.string().regex(/^[\x21-\x7e]{1,200}$/, 'must be 1 to 200 visible ASCII characters')
-const ArrayName = z.object({ id: z.string(), name: z.string() })
+// Array names reach a query: the shared text rule keeps NUL (which PostgreSQL cannot take) out.
+const ArrayName = z.object({ id: z.string(), name: safeText().max(200) })
 
 function idempotencyKey(req: Request): string | undefined {
   const raw = req.get('idempotency-key')
@@ -58,7 +60,7 @@ export function runsRoutes(deps: RunsDeps & { relay: RunEventRelay }): Router {
     await streamRunEvents(req, res, run, deps.pool, deps.relay)
   })
 
-  r.get('/:id/arrays/:name', validate({ params: ArrayName, query: ArrayQuery.extend({ share: z.string().optional() }) }), async (req, res) => {
+  r.get('/:id/arrays/:name', validate({ params: ArrayName, query: ArrayQuery.extend({ share: safeText().max(200).optional() }) }), async (req, res) => {
     const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', req.query.share)
     if (run.status !== 'succeeded') throw conflict(`The run has no results yet (it is ${run.status})`)
     const a = await findArray(deps.db, run.id, run.attempt, String(req.params.name))
