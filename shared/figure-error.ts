@@ -31,12 +31,26 @@ export const FigureErrors = z.object({
   coarseTimeStepPs: z.number().positive().nullable(),
   flagAboveRelError: z.number().positive(),
   targetRelError: z.number().positive(),
+  /** Node-steps of the companion run (0 when none ran): its cost beside the run's own counter. */
+  cellUpdates: z.number().nonnegative(),
   figures: z.record(z.string(), FigureError),
 })
 export type FigureErrors = z.infer<typeof FigureErrors>
 
 /** Keys whose values are inputs, bookkeeping or the scheme's own check (photon balance, at round-off), not figures. */
-export const NOT_FIGURES: ReadonlySet<string> = new Set(['channel', 'startNs', 'endNs', 'readWindowNs', 'wallTimeS', 'cellUpdatesPerS', 'errorEstimate', 'manleyRoweResidual'])
+export const NOT_FIGURES: ReadonlySet<string> = new Set([
+  'channel',
+  'startNs',
+  'endNs',
+  'readWindowNs',
+  'retrievalWindow',
+  'anchor',
+  'notDetermined',
+  'wallTimeS',
+  'cellUpdatesPerS',
+  'errorEstimate',
+  'manleyRoweResidual',
+])
 
 /** Every finite numeric figure by its dotted path (array items by index), skipping NOT_FIGURES. */
 export function numericLeaves(value: unknown, prefix = '', out = new Map<string, number>()): Map<string, number> {
@@ -51,8 +65,8 @@ export function numericLeaves(value: unknown, prefix = '', out = new Map<string,
 }
 
 /**
- * The figures with every figure replaced by its estimated absolute error (null where there is none), other
- * fields kept: whatever reads a figure from the figures reads its error from this copy the same way.
+ * The figures with every figure replaced by its estimated absolute error (null where there is none), labels
+ * and channel indices kept: whatever reads a figure from the figures reads its error from this copy the same way.
  */
 export function errorShaped<T>(figures: T, errors: FigureErrors['figures'], prefix = ''): T {
   const at = (k: string | number) => (prefix ? `${prefix}.${k}` : String(k))
@@ -60,7 +74,8 @@ export function errorShaped<T>(figures: T, errors: FigureErrors['figures'], pref
   if (figures && typeof figures === 'object') {
     const out: Record<string, unknown> = {}
     for (const [k, v] of Object.entries(figures)) {
-      if (NOT_FIGURES.has(k)) out[k] = v
+      // The channel index is how readers find a channel; other non-figures have no error.
+      if (NOT_FIGURES.has(k)) out[k] = k === 'channel' ? v : null
       else if (typeof v === 'number' || v === null) out[k] = errors[at(k)]?.absError ?? null
       else out[k] = errorShaped(v, errors, at(k))
     }

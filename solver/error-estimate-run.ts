@@ -46,8 +46,8 @@ export function planCompanion(input: unknown, opts: SimulateOptions): CompanionP
       if (!plan.ok) estimate = noFigureErrors(plan.status, plan.reason, dtS)
       else if (!coarse || coarse.status === 'aborted') return stopped(fine)
       else if (coarse.status === 'failed' || !coarse.manifest.figures) {
-        estimate = noFigureErrors('unavailable', `No error estimate: the run on the grid with twice the step failed (${coarse.message}).`, dtS)
-      } else estimate = estimateFigureErrors(figures, coarse.manifest.figures, dtS, coarse.manifest.grid!.dtS, plan.order)
+        estimate = noFigureErrors('unavailable', `No error estimate: the run on the grid with twice the step failed (${coarse.message}).`, dtS, coarse.manifest.counters.cellUpdates)
+      } else estimate = estimateFigureErrors(figures, coarse.manifest.figures, dtS, coarse.manifest.grid!.dtS, plan.order, coarse.manifest.counters.cellUpdates)
       const warning = flaggedWarning(estimate)
       const manifest = {
         ...fine.manifest,

@@ -25,7 +25,7 @@ const isPhase = (key: string) => /PhaseRad$/.test(key)
 /** Rounds down to three significant digits, so the suggestion is never coarser than the scaling asks. */
 const floor3 = (x: number) => {
   const e = Math.pow(10, Math.floor(Math.log10(x)) - 2)
-  return Math.floor(x / e) * e
+  return Number((Math.floor(x / e) * e).toPrecision(3))
 }
 
 export function figureError(path: string, fine: number, coarse: number, fineDtS: number, coarseDtS: number, p: number = ERROR_ESTIMATE.order): FigureError {
@@ -42,7 +42,14 @@ export function figureError(path: string, fine: number, coarse: number, fineDtS:
 }
 
 /** The estimate for every figure present (finite, non-null) in both runs. */
-export function estimateFigureErrors(fine: FiguresOfMerit, coarse: FiguresOfMerit, fineDtS: number, coarseDtS: number, order: number = ERROR_ESTIMATE.order): FigureErrors {
+export function estimateFigureErrors(
+  fine: FiguresOfMerit,
+  coarse: FiguresOfMerit,
+  fineDtS: number,
+  coarseDtS: number,
+  order: number = ERROR_ESTIMATE.order,
+  coarseCellUpdates = 0,
+): FigureErrors {
   const a = numericLeaves(fine)
   const b = numericLeaves(coarse)
   const figures: Record<string, FigureError> = {}
@@ -50,12 +57,12 @@ export function estimateFigureErrors(fine: FiguresOfMerit, coarse: FiguresOfMeri
     const w = b.get(path)
     if (w !== undefined) figures[path] = figureError(path, v, w, fineDtS, coarseDtS, order)
   }
-  return { ...common(fineDtS, coarseDtS), order, status: 'estimated', reason: null, figures }
+  return { ...common(fineDtS, coarseDtS), order, status: 'estimated', reason: null, cellUpdates: coarseCellUpdates, figures }
 }
 
 /** No estimate, with the reason a user reads. */
-export function noFigureErrors(status: 'unavailable' | 'off', reason: string, fineDtS: number | null): FigureErrors {
-  return { ...common(fineDtS, null), status, reason, figures: {} }
+export function noFigureErrors(status: 'unavailable' | 'off', reason: string, fineDtS: number | null, coarseCellUpdates = 0): FigureErrors {
+  return { ...common(fineDtS, null), status, reason, cellUpdates: coarseCellUpdates, figures: {} }
 }
 
 function common(fineDtS: number | null, coarseDtS: number | null) {
