@@ -8,6 +8,10 @@ export const TRACE_UPLOAD_LIMIT_BYTES = 25 * 1024 * 1024
 export const TRACE_MAX_SAMPLES = 1_000_000
 /** Most signal columns one trace may hold. */
 export const TRACE_MAX_SIGNALS = 16
+/** Most columns a delimited file may have (the signals are picked from them). */
+export const TRACE_MAX_COLUMNS = 64
+/** Longest line of a delimited file (characters): a data line holds a few numbers; one longer is not a table. */
+export const TRACE_MAX_LINE_CHARS = 65_536
 
 export const TIME_UNITS = ['s', 'ms', 'us', 'ns', 'ps'] as const
 export const TraceTimeUnit = z.enum(TIME_UNITS)
@@ -43,7 +47,8 @@ export const TraceImportSettings = z
     decimalSeparator: DecimalSeparator.default('auto').describe('Decimal mark of a text file'),
     /** Column holding time; null when samples are equally spaced by sampleIntervalNs. */
     timeColumn: z.number().int().min(0).nullable().default(0),
-    timeUnit: TraceTimeUnit.default('s').describe('Unit of the time column'),
+    /** May be left out only when the file names the unit (header, number suffixes or metadata). */
+    timeUnit: TraceTimeUnit.optional().describe('Unit of the time column'),
     sampleIntervalNs: z.number().finite().positive().optional().describe('Time between samples (ns), when there is no time column'),
     signalColumns: z.array(z.number().int().min(0)).min(1, 'pick at least one signal column').max(TRACE_MAX_SIGNALS),
     signalUnit: TraceSignalUnit.default('arb').describe('Unit of the signal columns'),

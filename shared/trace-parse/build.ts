@@ -1,10 +1,13 @@
 // A parsed table + the user's choices → the stored trace: time in ns, signals in W (or arbitrary units)
 // with the baseline removed. Every refusal names the row (and file line) it is about.
-import { NS_PER_TIME_UNIT, TRACE_MAX_SAMPLES, type StoredSignalUnit, type TraceImportSettings, type TraceSignalInfo } from '../traces'
+import { NS_PER_TIME_UNIT, TIME_UNIT_LABEL, TRACE_MAX_SAMPLES, type StoredSignalUnit, type TraceImportSettings, type TraceSignalInfo, type TraceTimeUnit } from '../traces'
 import { TraceParseError } from './errors'
+import { namedTimeUnit } from './suggest'
 import type { ParsedTable } from './table'
 
 export interface BuiltTrace {
+  /** The unit the time column was read in (the user's choice, else the one the file names); null without a time column. */
+  timeUnit: TraceTimeUnit | null
   timeNs: Float64Array
   signals: Array<TraceSignalInfo & { values: Float64Array }>
 }
@@ -27,6 +30,23 @@ function wattsPerUnit(s: TraceImportSettings): { factor: number; unit: StoredSig
   }
 }
 
+/**
+ * The unit of the time column: the user's explicit choice, else the one the file names. A file that names
+ * none is refused until the user chooses: a guess from the size of the numbers takes µs for seconds.
+ */
+export function resolveTimeUnit(table: ParsedTable, s: TraceImportSettings): TraceTimeUnit | null {
+  if (s.timeColumn === null) return null
+  if (s.timeUnit) return s.timeUnit
+  const named = namedTimeUnit(table, s.timeColumn)
+  if (named) return named.unit
+  const units = Object.values(TIME_UNIT_LABEL).join(', ')
+  throw new TraceParseError(
+    `The file does not name the unit of its time column ("${table.columns[s.timeColumn]?.name ?? s.timeColumn + 1}"): choose the time unit (${units}).`,
+    { column: s.timeColumn + 1 },
+    'timeUnit',
+  )
+}
+
 function where(table: ParsedTable, row: number): string {
   return table.rowLines.length > row ? `row ${row + 1} (line ${table.rowLines[row]})` : `row ${row + 1}`
 }
@@ -40,12 +60,13 @@ export function buildTrace(table: ParsedTable, s: TraceImportSettings): BuiltTra
     if (c >= nCols) throw new TraceParseError(`Column ${c + 1} does not exist; the file has ${nCols} column${nCols === 1 ? '' : 's'}`)
   }
 
+  const timeUnit = resolveTimeUnit(table, s)
   const timeNs = new Float64Array(n)
-  if (s.timeColumn === null) {
+  if (s.timeColumn === null || timeUnit === null) {
     for (let i = 0; i < n; i++) timeNs[i] = i * s.sampleIntervalNs!
   } else {
     const t = table.data[s.timeColumn]
-    const k = NS_PER_TIME_UNIT[s.timeUnit]
+    const k = NS_PER_TIME_UNIT[timeUnit]
     for (let i = 0; i < n; i++) {
       timeNs[i] = t[i] * k
       if (i > 0 && !(timeNs[i] > timeNs[i - 1])) {
@@ -86,5 +107,5 @@ export function buildTrace(table: ParsedTable, s: TraceImportSettings): BuiltTra
     for (let i = 0; i < n; i++) if (values[i] > peak) peak = values[i]
     return { column: c, label: table.columns[c].name, unit, baseline, peak, values }
   })
-  return { timeNs, signals }
+  return { timeUnit, timeNs, signals }
 }

@@ -4,11 +4,12 @@ import type { DecimalSeparator, Delimiter } from '../traces'
 import { parseDelimited } from './delimited'
 import { isNpy, parseNpy } from './npy'
 import type { ParsedTable } from './table'
-import { decodeText } from './text'
+import { assertText } from './text'
 
 export { TraceParseError, type ParseLocation } from './errors'
 export type { ParsedTable, ImportSuggestions, MetadataEntry } from './table'
-export { buildTrace, type BuiltTrace } from './build'
+export { buildTrace, resolveTimeUnit, type BuiltTrace } from './build'
+export { namedTimeUnit } from './suggest'
 
 export interface ParseOptions {
   delimiter?: Delimiter
@@ -17,5 +18,6 @@ export interface ParseOptions {
 
 export function parseTraceFile(bytes: Uint8Array, opts: ParseOptions = {}): ParsedTable {
   if (isNpy(bytes)) return parseNpy(bytes)
-  return parseDelimited(decodeText(bytes), opts)
+  assertText(bytes)
+  return parseDelimited(bytes, opts)
 }

@@ -99,6 +99,6 @@ export function parseNpy(bytes: Uint8Array): ParsedTable {
     headerLine: null,
     dataStartLine: null,
     metadata,
-    suggestions: suggestChoices(columns, data, metadata),
+    suggestions: suggestChoices(columns, metadata),
   }
 }

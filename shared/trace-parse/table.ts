@@ -10,9 +10,10 @@ export interface MetadataEntry {
 /** What the parser proposes; the user confirms or changes it in the import form. */
 export interface ImportSuggestions {
   timeColumn: number | null
-  timeUnit: TraceTimeUnit
-  /** Where the time unit came from; 'guess' means from the size of the time steps only. */
-  timeUnitSource: 'header' | 'metadata' | 'values' | 'guess'
+  /** The time unit the file names; null when it names none (the user must then choose it). */
+  timeUnit: TraceTimeUnit | null
+  /** Where the file names it: a column's header or number suffixes, or a metadata line. */
+  timeUnitSource: 'header' | 'metadata' | 'none'
   signalColumns: number[]
   signalUnit: TraceSignalUnit
 }

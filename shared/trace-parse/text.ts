@@ -1,5 +1,6 @@
-// Bytes → text, refusing what is not text. UTF-8 first; files from older instruments in Latin-1
-// ("µs" as byte 0xB5) fall back to windows-1252.
+// Refuses bytes that are not text before anything is decoded. (Decoding is line by line, in
+// line-reader.ts: UTF-8 first; files from older instruments in Latin-1, "µs" as byte 0xB5, fall back to
+// windows-1252.)
 import { TraceParseError } from './errors'
 
 /** Control bytes other than tab, LF, CR and form feed: a text file has none (or nearly none). */
@@ -10,7 +11,7 @@ function isControl(b: number): boolean {
 /** Share of control bytes tolerated before a file counts as binary (a stray one survives). */
 const MAX_CONTROL_SHARE = 0.001
 
-export function decodeText(bytes: Uint8Array): string {
+export function assertText(bytes: Uint8Array): void {
   if (bytes.length === 0) throw new TraceParseError('The file is empty')
   let controls = 0
   let first = -1
@@ -26,10 +27,5 @@ export function decodeText(bytes: Uint8Array): string {
         )
       }
     }
-  }
-  try {
-    return new TextDecoder('utf-8', { fatal: true }).decode(bytes)
-  } catch {
-    return new TextDecoder('windows-1252').decode(bytes)
   }
 }
