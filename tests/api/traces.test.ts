@@ -1,5 +1,6 @@
 // The traces API against the real PostgreSQL: upload (multipart), read back byte for byte, parsed arrays,
-// refusals that store nothing, the upload size limit, and group roles.
+// refusals that store nothing, the upload size limit, large files parsed off the event loop, the time
+// unit a file does not name, and group roles.
 import { request as httpRequest } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { readFileSync } from 'node:fs'
@@ -9,6 +10,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { TraceData, TraceDetail, TraceList, TRACE_UPLOAD_LIMIT_BYTES } from '@shared/traces'
 import { createApp } from '../../server/app'
 import { tracesRoutes } from '../../server/modules/traces/traces.routes'
+import { traceParsePool } from '../../server/modules/traces/trace-parse-pool'
+import { oneLineCsv, scopeCsv } from '../traces/big-files'
 import { silentLog, useTestDb } from './helpers'
 import { newMember, newUser, type Member } from './runs-fixtures'
 
@@ -158,6 +161,146 @@ describe('the upload size limit', () => {
     expect(JSON.parse(r.body).error.message).toMatch(/The file is larger than the 25 MB upload limit/)
     expect(r.sent).toBeLessThan(TRACE_UPLOAD_LIMIT_BYTES + 40 * 1024 * 1024)
     expect(await tracesInGroup(editor.groupId)).toBe(before)
+  })
+})
+
+describe('a file that does not name its time unit', () => {
+  // No header: time in µs from 0 to 7.98 in steps of 0.02, read as seconds it would span 8 s.
+  const headerless = () => Buffer.from(Array.from({ length: 400 }, (_, i) => `${(i * 0.02).toFixed(2)},${(1e-3 * Math.exp(-(((i - 200) / 40) ** 2))).toExponential(4)}`).join('\n'))
+  const settings = (extra: Record<string, unknown>) => JSON.stringify({ groupId: editor.groupId, name: 'Probe pulse', timeColumn: 0, signalColumns: [1], signalUnit: 'W', ...extra })
+
+  it('is refused with 422 naming settings.timeUnit when the upload does not say the unit, storing nothing', async () => {
+    const before = await tracesInGroup(editor.groupId)
+
+    const res = await upload(editor, headerless(), 'probe.csv', settings({}))
+
+    expect(res.status).toBe(422)
+    expect(res.body.error.code).toBe('time_unit_required')
+    expect(res.body.error.message).toMatch(/probe.csv: The file does not name the unit of its time column \("Column 1"\): choose the time unit/)
+    expect(res.body.error.fields).toEqual([{ path: 'settings.timeUnit', message: expect.stringMatching(/required/) }])
+    expect(await tracesInGroup(editor.groupId)).toBe(before)
+  })
+
+  it('is stored in the unit the upload gives: 0–7.98 µs is 0–7980 ns', async () => {
+    const res = await upload(editor, headerless(), 'probe.csv', settings({ timeUnit: 'us' }))
+
+    expect(res.status).toBe(201)
+    expect(res.body).toMatchObject({ sampleCount: 400, startNs: 0, settings: { timeUnit: 'us' } })
+    expect(res.body.endNs).toBeCloseTo(7980, 9)
+  })
+
+  it('needs no unit in the upload when the header names it, and stores the header\'s unit', async () => {
+    const res = await upload(editor, corpus('02-semicolon-decimal-comma.csv'), 'x.csv', settings({ signalUnit: 'mW' }))
+
+    expect(res.status).toBe(201)
+    expect(res.body).toMatchObject({ startNs: 0, endNs: 3, settings: { timeUnit: 'us' } })
+  })
+})
+
+describe('large uploads keep the API responsive', () => {
+  let base: string
+  let server: ReturnType<typeof app.listen>
+  beforeAll(async () => {
+    server = app.listen(0, '127.0.0.1')
+    await new Promise((r) => server.once('listening', r))
+    base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+    // The first fetch of a process loads its HTTP client; that pause belongs to the test, not the server.
+    await (await fetch(`${base}/api/health`)).arrayBuffer()
+  })
+  afterAll(() => new Promise<void>((r) => server.close(() => r())))
+
+  /** POSTs a multipart upload over plain node:http, written in 256 kB chunks, so the client adds little work of its own to the event loop. */
+  function post(bytes: Buffer, name: string, settings: string): Promise<{ status: number; body: string }> {
+    return new Promise((resolve, reject) => {
+      const boundary = 'trace-upload-boundary'
+      const head = Buffer.from(
+        `--${boundary}\r\nContent-Disposition: form-data; name="settings"\r\n\r\n${settings}\r\n` +
+          `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${name}"\r\nContent-Type: text/csv\r\n\r\n`,
+      )
+      const tail = Buffer.from(`\r\n--${boundary}--\r\n`)
+      const req = httpRequest(`${base}/api/traces`, {
+        method: 'POST',
+        headers: { 'Content-Type': `multipart/form-data; boundary=${boundary}`, 'Content-Length': String(head.length + bytes.length + tail.length), Authorization: editor.auth },
+      })
+      req.on('response', (res) => {
+        let body = ''
+        res.on('data', (c) => (body += c))
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body }))
+      })
+      req.on('error', reject)
+      const parts: Buffer[] = [head]
+      for (let at = 0; at < bytes.length; at += 256 * 1024) parts.push(bytes.subarray(at, at + 256 * 1024))
+      parts.push(tail)
+      const pump = () => {
+        while (parts.length > 0) if (!req.write(parts.shift())) return void req.once('drain', pump)
+        req.end()
+      }
+      pump()
+    })
+  }
+  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]
+
+  /** GET /api/health again and again while `work` is under way, with the time each answer took. */
+  async function healthDuring<T>(work: Promise<T>): Promise<{ result: T; latenciesMs: number[] }> {
+    let done = false
+    const latenciesMs: number[] = []
+    const probing = (async () => {
+      while (!done || latenciesMs.length < 3) {
+        const t0 = performance.now()
+        const res = await fetch(`${base}/api/health`)
+        await res.arrayBuffer()
+        if (!done) latenciesMs.push(performance.now() - t0)
+        else break
+        await new Promise((r) => setTimeout(r, 20))
+      }
+    })()
+    const result = await work.finally(() => (done = true))
+    await probing
+    return { result, latenciesMs }
+  }
+
+  it('refuses a 20 MB one-line file with 422 naming the line-length limit, while GET /api/health answers within 200 ms', async () => {
+    const bytes = oneLineCsv(20 * 1024 * 1024)
+    const answeredBefore = traceParsePool.answered
+    const before = await tracesInGroup(editor.groupId)
+
+    const { result: res, latenciesMs } = await healthDuring(post(bytes, 'one-line.csv', settingsFor(editor.groupId)))
+
+    expect(res.status).toBe(422)
+    const body = JSON.parse(res.body) as { error: { code: string; message: string } }
+    expect(body.error.code).toBe('unreadable_trace')
+    expect(body.error.message).toMatch(/^one-line.csv: Line 1 is longer than 65,536 characters, the line-length limit for trace files/)
+    // The parse ran in the parse thread, not on the event loop that answers the health probes.
+    expect(traceParsePool.answered).toBe(answeredBefore + 1)
+    expect(latenciesMs.length).toBeGreaterThanOrEqual(1)
+    expect(median(latenciesMs)).toBeLessThan(200)
+    expect(await tracesInGroup(editor.groupId)).toBe(before)
+  })
+
+  it('stores a million-row file (≈21 MB) while the event loop keeps ticking', async () => {
+    const bytes = scopeCsv(1_000_000)
+    const answeredBefore = traceParsePool.answered
+    // A 10 ms timer on the API's event loop; a parse on that loop (about a second for this file) would
+    // show as one gap of that length.
+    const gaps: number[] = []
+    let last = performance.now()
+    const ticker = setInterval(() => {
+      const now = performance.now()
+      gaps.push(now - last)
+      last = now
+    }, 10)
+
+    const { result: res, latenciesMs } = await healthDuring(post(bytes, 'scope.csv', JSON.stringify({ groupId: editor.groupId, name: 'Scope export', timeColumn: 0, signalColumns: [1], signalUnit: 'W' })))
+    clearInterval(ticker)
+
+    expect(res.status).toBe(201)
+    const trace = TraceDetail.parse(JSON.parse(res.body))
+    expect(trace).toMatchObject({ sampleCount: 1_000_000, startNs: 0, settings: { timeUnit: 's' } })
+    expect(trace.endNs).toBeCloseTo(99_999.9, 6)
+    expect(traceParsePool.answered).toBe(answeredBefore + 1)
+    expect(gaps.length).toBeGreaterThan(10)
+    expect(Math.max(...gaps)).toBeLessThan(500)
+    expect(median(latenciesMs)).toBeLessThan(200)
   })
 })
 

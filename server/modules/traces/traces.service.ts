@@ -1,19 +1,20 @@
 // Use cases of measured traces. Group roles as for runs: viewers read, editors upload and delete.
-import { createHash } from 'node:crypto'
 import { ZodError } from 'zod'
-import { buildTrace, parseTraceFile, TraceParseError } from '@shared/trace-parse'
-import { TraceUploadSettings, type TraceData, type TraceDetail, type TraceList } from '@shared/traces'
+import { TraceUploadSettings, type TraceData, type TraceDetail, type TraceImportSettings, type TraceList } from '@shared/traces'
 import type { Db } from '../../db/client'
 import { AppError, notFound } from '../../errors'
 import { isUuid } from '../../policy/ids'
 import { requireGroupRole, type Role } from '../../policy/access'
 import type { AuthContext } from '../auth/auth-context'
 import { fromBytes, packSignals, toBytes, unpackSignals } from './trace-arrays'
+import { ParseThreadError, traceParsePool, type ParseFailure, type ParseSuccess, type TraceParsePool } from './trace-parse-pool'
 import { toDetail, toSummary } from './traces.mapper'
 import { deleteTrace, findTraceArrays, findTraceMeta, findTraceOriginal, insertTrace, listTraces, type TraceMeta } from './traces.repo'
 
 export interface TracesDeps {
   db: Db
+  /** Where uploads are parsed; the server's one parse thread unless a test brings its own. */
+  parsePool?: TraceParsePool
 }
 
 export interface UploadedFile {
@@ -35,22 +36,39 @@ function readSettings(raw: unknown): TraceUploadSettings {
   return parsed.data
 }
 
+/** A refusal from the parser → the answer the uploader sees, naming the file, or the setting to choose. */
+function refusal(fileName: string, f: ParseFailure): AppError {
+  if (f.field === 'timeUnit') {
+    return new AppError('time_unit_required', 422, `${fileName}: ${f.message}`, {
+      fields: [{ path: 'settings.timeUnit', message: 'required: the file does not name the unit of its time column' }],
+    })
+  }
+  return new AppError('unreadable_trace', 422, `${fileName}: ${f.message}`, { where: f.line ? { line: f.line } : {} })
+}
+
+/** Parses in the parse thread (trace-parse-pool.ts); the thread running out of memory or time is the file's doing. */
+async function parseUpload(pool: TraceParsePool, file: UploadedFile, settings: TraceImportSettings): Promise<ParseSuccess> {
+  let answer
+  try {
+    answer = await pool.parse(file.buffer, settings)
+  } catch (err) {
+    if (err instanceof ParseThreadError && err.reason !== 'crash') throw new AppError('unreadable_trace', 422, `${file.originalname}: ${err.message}`)
+    throw err
+  }
+  if (!answer.ok) {
+    if (!answer.parseError) throw new Error(`trace parse thread: ${answer.message}`)
+    throw refusal(file.originalname, answer)
+  }
+  return answer
+}
+
 export async function uploadTrace(deps: TracesDeps, auth: AuthContext | undefined, file: UploadedFile | undefined, rawSettings: unknown): Promise<TraceDetail> {
   const settings = readSettings(rawSettings)
   await requireGroupRole(deps.db, auth, settings.groupId, 'editor', 'Group')
   if (!file) throw new AppError('invalid_input', 400, 'No file was sent; attach it as the "file" part', { fields: [{ path: 'file', message: 'required' }] })
-  const bytes = new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength)
-  let built
-  let table
-  try {
-    table = parseTraceFile(bytes, { delimiter: settings.delimiter, decimalSeparator: settings.decimalSeparator })
-    built = buildTrace(table, settings)
-  } catch (err) {
-    if (err instanceof TraceParseError) throw new AppError('unreadable_trace', 422, `${file.originalname}: ${err.message}`, { where: err.where })
-    throw err
-  }
   const { groupId, ...importSettings } = settings
-  const n = built.timeNs.length
+  const parsed = await parseUpload(deps.parsePool ?? traceParsePool, file, importSettings)
+  const n = parsed.timeNs.length
   // One insert: the original, the settings and the parsed arrays are stored together or not at all.
   const id = await insertTrace(deps.db, {
     groupId,
@@ -60,17 +78,18 @@ export async function uploadTrace(deps: TracesDeps, auth: AuthContext | undefine
     fileName: file.originalname.slice(0, 255) || 'trace',
     contentType: file.mimetype || 'application/octet-stream',
     byteSize: file.buffer.byteLength,
-    sha256: createHash('sha256').update(file.buffer).digest('hex'),
-    format: table.format,
+    sha256: parsed.sha256,
+    format: parsed.format,
     original: file.buffer,
-    settings: importSettings,
-    columns: table.columns,
-    signals: built.signals.map(({ values: _values, ...info }) => info),
+    // The unit the numbers were read in is stored, also when the file named it and the upload did not.
+    settings: { ...importSettings, ...(parsed.timeUnit ? { timeUnit: parsed.timeUnit } : {}) },
+    columns: parsed.columns,
+    signals: parsed.signals.map(({ values: _values, ...info }) => info),
     sampleCount: n,
-    startNs: built.timeNs[0],
-    endNs: built.timeNs[n - 1],
-    timeNs: toBytes(built.timeNs),
-    signalData: toBytes(packSignals(built.signals.map((s) => s.values))),
+    startNs: parsed.timeNs[0],
+    endNs: parsed.timeNs[n - 1],
+    timeNs: toBytes(parsed.timeNs),
+    signalData: toBytes(packSignals(parsed.signals.map((s) => s.values))),
   })
   return toDetail((await findTraceMeta(deps.db, id))!)
 }
