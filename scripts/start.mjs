@@ -1,9 +1,11 @@
 #!/usr/bin/env node
 // `npm start`: everything from a fresh clone to a served app, in one command.
-// dependencies → PostgreSQL → migrations → demo seed → client build → server (API + client + worker).
+// dependencies → PostgreSQL → migrations → demo seed → client build → server (API + client + worker),
+// restarted after a crash.
 import { spawn } from 'node:child_process'
 import { DbScriptError, start as startDb } from './db.mjs'
 import { clientBuildStale, elapsed, ensureDependencies, fail, portFree, ROOT, runStep, TSX } from './lib.mjs'
+import { supervise } from './supervise.mjs'
 
 const t0 = performance.now()
 ensureDependencies()
@@ -42,10 +44,14 @@ if (clientBuildStale()) {
 console.log(`start: ready to serve after ${elapsed(t0)}`)
 
 // The server prints its URL once it listens. It runs one embedded job worker unless told otherwise.
-const server = spawn(process.execPath, [...TSX, 'server/index.ts'], {
-  cwd: ROOT,
-  stdio: 'inherit',
-  env: { ...process.env, ...env, EMBEDDED_WORKER: process.env.EMBEDDED_WORKER ?? 'true' },
+// Supervised: a crash restarts it (a crash loop is given up on, saying so; scripts/supervise.mjs).
+const supervisor = supervise({
+  spawnChild: () =>
+    spawn(process.execPath, [...TSX, 'server/index.ts'], {
+      cwd: ROOT,
+      stdio: 'inherit',
+      env: { ...process.env, ...env, EMBEDDED_WORKER: process.env.EMBEDDED_WORKER ?? 'true' },
+    }),
 })
-for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal))
-server.on('exit', (code, signal) => process.exit(code ?? (signal ? 0 : 1)))
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => supervisor.stop(signal))
+process.exit(await supervisor.done)
