@@ -16,7 +16,7 @@ export interface JobServiceOptions {
   /** Solver threads of this process's worker; 0 runs no worker (the API still enqueues and cancels). */
   threads: number
   bossSchema?: string
-  watchdog?: Pick<WatchdogOptions, 'staleAfterMs' | 'intervalMs'> | false
+  watchdog?: Pick<WatchdogOptions, 'staleAfterMs' | 'intervalMs' | 'workerExpireAfterMs'> | false
   onFinished?: (outcome: RunOutcome) => void
   applicationName?: string
 }

@@ -1,5 +1,6 @@
 // Finds runs whose worker stopped sending heartbeats (killed, frozen, cut off) and hands them back to the
-// queue. pg-boss 10 would only notice at expireIn (24 h here, so long runs are never cut off); this brings
+// queue, and removes the workers-table rows of workers that stopped refreshing them (a killed worker
+// cannot delete its own row, which would otherwise stay, marked busy, for good). pg-boss 10 would only notice at expireIn (24 h here, so long runs are never cut off); this brings
 // a SIGKILLed worker's run back within about STALE_AFTER_MS + INTERVAL_MS. Any process may run it: an
 // advisory lock lets one sweep at a time.
 import type PgBoss from 'pg-boss'
@@ -11,6 +12,8 @@ export const WATCHDOG_DEFAULTS = {
   /** Ten missed heartbeats (run-executor HEARTBEAT_MS = 3 s): a busy database does not trigger it. */
   staleAfterMs: 30_000,
   intervalMs: 10_000,
+  /** Twelve missed presence updates (worker.ts refreshes its row every 10 s); past the queue view's minute. */
+  workerExpireAfterMs: 120_000,
 }
 
 /** pg_try_advisory_xact_lock key: "sonoweave watchdog". */
@@ -22,6 +25,14 @@ export interface WatchdogOptions {
   log: Logger
   staleAfterMs?: number
   intervalMs?: number
+  workerExpireAfterMs?: number
+}
+
+/** Deletes the rows of workers not seen for workerExpireAfterMs; returns their ids. A live worker that was
+ * only cut off from the database puts its row back with its next presence update. */
+export async function expireStaleWorkers(pool: Pool, workerExpireAfterMs = WATCHDOG_DEFAULTS.workerExpireAfterMs): Promise<string[]> {
+  const { rows } = await pool.query(`delete from workers where last_seen_at < now() - make_interval(secs => $1) returning id`, [workerExpireAfterMs / 1000])
+  return rows.map((r) => r.id)
 }
 
 /** One sweep; returns the run ids handed back. */
@@ -65,6 +76,8 @@ export function startWatchdog(o: WatchdogOptions): { stop: () => void } {
     if (running) return
     running = true
     sweepStaleRuns(o)
+      .then(() => expireStaleWorkers(o.pool, o.workerExpireAfterMs))
+      .then((gone) => gone.length > 0 && o.log.warn({ workers: gone }, 'workers that stopped reporting removed'))
       .catch((err) => o.log.warn({ err }, 'watchdog sweep failed'))
       .finally(() => (running = false))
   }, o.intervalMs ?? WATCHDOG_DEFAULTS.intervalMs)
