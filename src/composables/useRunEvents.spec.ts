@@ -54,6 +54,28 @@ function setup() {
 }
 
 describe('useRunEvents', () => {
+  it('forgets the previous run’s status, attempt and progress when the page moves to another run', async () => {
+    const sources: FakeSource[] = []
+    const runId = ref<string | null>('run-1')
+    const scope = effectScope()
+    const ev = scope.run(() => useRunEvents(runId, { createSource: (url) => (sources.push(new FakeSource(url)), sources.at(-1)!) }))!
+    sources[0].emit('status', { status: 'running', attempt: 2, error: null })
+    sources[0].emit('status', { status: 'succeeded', attempt: 2, error: null })
+    expect(ev.status.value).toBe('succeeded')
+
+    // The page shows a clone: first without a stream (its record loads), then with the clone's stream.
+    runId.value = null
+    await nextTick()
+    expect([ev.status.value, ev.attempt.value, ev.progress.value]).toEqual([null, 0, 0])
+    runId.value = 'run-2'
+    await nextTick()
+    expect(ev.status.value).toBeNull()
+    sources[1].emit('status', { status: 'queued', attempt: 1, error: null })
+    expect(sources[1].url).toBe('/api/runs/run-2/events')
+    expect(ev.status.value).toBe('queued')
+    scope.stop()
+  })
+
   it('opens the run event stream and follows status and progress', async () => {
     const { ev, source, scope } = setup()
     expect(source.url).toBe('/api/runs/run-1/events')

@@ -57,8 +57,17 @@ export function useRunEvents(runId: Ref<string | null>, opts: UseRunEventsOption
     connection.value = 'closed'
   }
 
+  /** A new run (or none) under the same page: nothing of the previous run's stream may show meanwhile. */
+  function forget() {
+    status.value = null
+    attempt.value = 0
+    progress.value = 0
+    error.value = null
+  }
+
   function start(id: string) {
     stop()
+    forget()
     buffer.value = freshBuffer()
     mapVersion.value++
     const s = (opts.createSource ?? defaultSource)(runEventsUrl(id, opts.share))
@@ -95,7 +104,11 @@ export function useRunEvents(runId: Ref<string | null>, opts: UseRunEventsOption
     })
   }
 
-  watch(runId, (id) => (id ? start(id) : stop()), { immediate: true })
+  watch(runId, (id) => {
+    if (id) return start(id)
+    stop()
+    forget()
+  }, { immediate: true })
   onScopeDispose(stop)
 
   return { status, attempt, progress, error, connection, buffer, mapVersion, stop }
