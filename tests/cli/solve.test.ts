@@ -29,8 +29,9 @@ describe('npm run solve', () => {
     expect(m.status).toBe('finished')
     expect(m.config.windowNs).toBe(6)
     expect(m.grid!.nt).toBe(m.estimate.steps)
-    // The estimate counts work exactly as the solver does.
-    expect(m.estimate.cellUpdates).toBe(m.counters.cellUpdates)
+    // The estimate counts work exactly as the solver does: the run and its error-estimate companion.
+    expect(m.figures!.errorEstimate!.cellUpdates).toBe(m.estimate.errorEstimate!.cellUpdates)
+    expect(m.estimate.cellUpdates).toBe(m.counters.cellUpdates + m.figures!.errorEstimate!.cellUpdates)
     expect(new Set(readdirSync(out))).toEqual(new Set(['manifest.json', ...m.arrays.map((a) => a.file)]))
     for (const a of m.arrays) {
       const bytes = readFileSync(join(out, a.file))
