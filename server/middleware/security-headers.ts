@@ -6,12 +6,15 @@ import type { Logger } from '../logger'
  * Response headers that keep the app page from being framed, sniffed or made to run foreign code.
  * The Content-Security-Policy is the narrowest the built client passes in Chromium
  * (tests/e2e/security-headers.test.ts visits every page and fails on any violation):
- * - script-src 'self': the build has no inline script and no eval.
- * - style-src 'self' 'unsafe-inline': Vuetify writes its theme (colours for light and dark) into a
- *   <style> element at run time, and its components and ECharts set style attributes; a nonce
- *   would need the app shell templated per response. Inline styles cannot run code.
- * - img-src data: blob: for chart exports and the space-time map's canvas images; font-src data:
- *   for icon fonts a bundler may inline.
+ * - script-src 'self': the build has no inline script and no eval (Zod's compiled parsers, which
+ *   would use `new Function`, are switched off in src/zod-jitless.ts).
+ * - style-src 'self' 'unsafe-inline', both halves measured in Chromium: without inline <style>
+ *   elements (style-src-elem) Vuetify cannot write its theme colours, which it does at run time; without
+ *   inline style attributes (style-src-attr) ECharts' tooltips, HTML with style="…", lose their layout.
+ *   A nonce would need the app shell templated per response and still not cover the attributes.
+ *   Inline styles cannot run code; scripts stay 'self' only.
+ * - img-src data: blob: for the charts' "save as image"; font-src data: for the font subsets the
+ *   build inlines into its CSS.
  * - frame-ancestors 'none' (and X-Frame-Options DENY for older browsers): no page may frame us.
  * HSTS and upgrade-insecure-requests only when the public address is https: on plain http they
  * would break a local or intranet install.

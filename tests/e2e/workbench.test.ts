@@ -60,7 +60,8 @@ describe('workbench', () => {
     expect(await page.locator('h1').textContent()).toBe('E2E store and retrieve')
     expect(await page.locator('.run-page__meta').textContent()).toContain('Halden R7 rib, e2e copy')
     // Every map drawn to its last row from the final arrays.
-    await page.waitForFunction(`[...document.querySelectorAll('section.space-time-map')].every((e) => Number(e.getAttribute('data-rows-filled')) > 0)`)
+    // Polled from the test, not with waitForFunction: that evals in the page, which the app's CSP forbids.
+    await expect.poll(() => page.$$eval('section.space-time-map', (els) => els.every((e) => Number(e.getAttribute('data-rows-filled')) > 0)), { timeout: 30_000 }).toBe(true)
     const fill = await mapFill(page)
     expect(fill).toHaveLength(3)
     for (const m of fill) expect(m.filled).toBe(m.rows)
@@ -126,7 +127,7 @@ describe('workbench', () => {
 
     await editor.goto(`/runs/${runId}`)
     await statusIs(editor, 'Running')
-    await editor.waitForFunction(`Number(document.querySelector('section.space-time-map')?.getAttribute('data-rows-filled')) > 0`, undefined, { timeout: 60_000 })
+    await expect.poll(async () => Number(await editor.locator('section.space-time-map').first().getAttribute('data-rows-filled')), { timeout: 60_000 }).toBeGreaterThan(0)
     const live = await mapFill(editor)
     expect(live[0].filled).toBeLessThan(live[0].rows)
     await screenshot(editor, 'run-live')

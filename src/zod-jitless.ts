@@ -1,0 +1,7 @@
+// Zod compiles object parsers with `new Function` unless told not to. The app's Content-Security-Policy
+// (script-src 'self', no 'unsafe-eval': server/middleware/security-headers.ts) forbids that, and even
+// Zod's probe for it is reported as a violation. The setting is read when a schema is built, so this
+// module is main.ts's first import, ahead of every schema in src/ and shared/.
+import { z } from 'zod'
+
+z.config({ jitless: true })
