@@ -5,6 +5,7 @@ import { dbPerMToPerM, ghzToHz, mhzToHz, nmToM, um2ToM2 } from './units'
 import { pulseFeatureNs, type SimulationConfig } from './simulation-config'
 import type { Waveguide } from './waveguide'
 import { MIN_AUTO_STEPS } from './grid-limits'
+import { shortestFeaturePath, strongestPowerPath, widestOffsetPath } from './grid-binding'
 
 /** Rates of the coupled-mode equations in SI units (see physics brief §1). */
 export interface BrillouinRates {
@@ -82,6 +83,8 @@ export interface GridChoice {
   nt: number
   /** Every rule that bounded Δt, the binding one first ("user" when the step was given). */
   reasons: string[]
+  /** The step the binding rule asked for before rounding (s), and the config field that rule depends on. */
+  binding: { targetDtS: number; field: string; rule: string }
 }
 
 /** Largest power in any port (peak of the largest pulse plus the continuous background) (W). */
@@ -117,33 +120,34 @@ export function chooseGrid(config: SimulationConfig): GridChoice {
   const windowS = config.windowNs * 1e-9
   const pMax = maxPortPowerW(config)
   const tMinS = shortestFeatureNs(config) * 1e-9
-  const bounds: { dtS: number; reason: string }[] = []
+  const bounds: { dtS: number; reason: string; field: string }[] = []
   const ps = (s: number) => `${(s * 1e12).toPrecision(3)} ps`
 
-  if (Number.isFinite(tMinS)) bounds.push({ dtS: tMinS / GRID_RULES.stepsPerShortestFeature, reason: `Δt ≤ shortest pulse feature/20 = ${ps(tMinS / 20)}` })
+  if (Number.isFinite(tMinS)) bounds.push({ dtS: tMinS / GRID_RULES.stepsPerShortestFeature, reason: `Δt ≤ shortest pulse feature/20 = ${ps(tMinS / 20)}`, field: shortestFeaturePath(config) })
   if (pMax > 0) {
+    const field = strongestPowerPath(config)
     const pulseFactor = Number.isFinite(tMinS) ? Math.min(1, rates.gammaBPerS * tMinS) : 1
     const dz = GRID_RULES.maxGainPerCell / (rates.gainPerWM * pMax * pulseFactor)
-    bounds.push({ dtS: dz / vg, reason: `G_B·P_max·Δz·min(1, Γ_B·T) ≤ 0.05 gives Δt ≤ ${ps(dz / vg)}` })
+    bounds.push({ dtS: dz / vg, reason: `G_B·P_max·Δz·min(1, Γ_B·T) ≤ 0.05 gives Δt ≤ ${ps(dz / vg)}`, field })
     const dt = GRID_RULES.maxCouplingPerStep / (rates.kappa * Math.sqrt(vg * pMax))
-    bounds.push({ dtS: dt, reason: `κ√(v_g P_max)·Δt ≤ 0.05 gives Δt ≤ ${ps(dt)}` })
+    bounds.push({ dtS: dt, reason: `κ√(v_g P_max)·Δt ≤ 0.05 gives Δt ≤ ${ps(dt)}`, field })
     if (config.options.kerr && rates.kerrPumpPerWM > 0) {
       const dzK = GRID_RULES.maxKerrPhasePerCell / (rates.kerrPumpPerWM * pMax)
-      bounds.push({ dtS: dzK / vg, reason: `γ·P_max·Δz ≤ 0.01 gives Δt ≤ ${ps(dzK / vg)}` })
+      bounds.push({ dtS: dzK / vg, reason: `γ·P_max·Δz ≤ 0.01 gives Δt ≤ ${ps(dzK / vg)}`, field })
     }
   }
   if (config.options.higherOrderAcoustic) {
     const dt = 1 / (GRID_RULES.stepsPerAcousticPeriod * ghzToHz(wg.brillouinShiftGHz))
-    bounds.push({ dtS: dt, reason: `higher-order acoustic term: Δt ≤ 1/(20 ν_B) = ${ps(dt)}` })
+    bounds.push({ dtS: dt, reason: `higher-order acoustic term: Δt ≤ 1/(20 ν_B) = ${ps(dt)}`, field: 'options.higherOrderAcoustic' })
   }
   let maxDq = 0
   for (const a of config.channels) for (const b of config.channels) maxDq = Math.max(maxDq, Math.abs(channelMismatchPerM(config, a.offsetGHz - b.offsetGHz)))
   if (maxDq > 0) {
     const dz = (2 * Math.PI) / (GRID_RULES.cellsPerMismatchPeriod * maxDq)
-    bounds.push({ dtS: dz / vg, reason: `inter-channel mismatch: Δz ≤ 2π/(10|Δq|) gives Δt ≤ ${ps(dz / vg)}` })
+    bounds.push({ dtS: dz / vg, reason: `inter-channel mismatch: Δz ≤ 2π/(10|Δq|) gives Δt ≤ ${ps(dz / vg)}`, field: widestOffsetPath(config) })
   }
-  bounds.push({ dtS: lengthM / (GRID_RULES.minCells * vg), reason: `at least ${GRID_RULES.minCells} cells along the waveguide` })
-  bounds.push({ dtS: windowS / GRID_RULES.minSteps, reason: `at least ${GRID_RULES.minSteps} time steps` })
+  bounds.push({ dtS: lengthM / (GRID_RULES.minCells * vg), reason: `at least ${GRID_RULES.minCells} cells along the waveguide`, field: 'waveguide.lengthM' })
+  bounds.push({ dtS: windowS / GRID_RULES.minSteps, reason: `at least ${GRID_RULES.minSteps} time steps`, field: 'windowNs' })
   bounds.sort((a, b) => a.dtS - b.dtS)
 
   const userDtS = config.grid.timeStepPs !== undefined ? config.grid.timeStepPs * 1e-12 : undefined
@@ -155,5 +159,6 @@ export function chooseGrid(config: SimulationConfig): GridChoice {
   const nt = Math.max(1, Math.ceil(windowS / dtS - 1e-9))
   const reasons = bounds.map((b) => b.reason)
   if (userDtS !== undefined) reasons.unshift(`user: Δt = ${ps(userDtS)}, rounded to ${ps(dtS)} so that Δz tiles L`)
-  return { dtS, dzM, nz, nt, reasons }
+  const binding = userDtS !== undefined ? { targetDtS: userDtS, field: 'grid.timeStepPs', rule: 'the step you set' } : { targetDtS: bounds[0].dtS, field: bounds[0].field, rule: bounds[0].reason }
+  return { dtS, dzM, nz, nt, reasons, binding }
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
 import { chooseGrid } from './grid-step'
+import { MIN_WINDOW_NS } from './grid-limits'
 import {
   CELL_UPDATES_PER_S_SVEA,
   checkLimits,
@@ -123,5 +124,37 @@ describe('checkLimits', () => {
       expect(r.reasons).toHaveLength(1)
       expect(r.message).toMatch(/traces dominate: shorten the window/)
     }
+  })
+})
+
+describe('the time-step floor', () => {
+  it('refuses a grid whose binding rule asks for a step below MIN_TIME_STEP_PS, on the field that rule depends on', () => {
+    // 1 GW continuous pump: G_B·P_max·Δz ≤ 0.05 (physics.md §4) asks for Δz of nanometres, Δt ≈ 1e-8 ps.
+    const c = config({ channels: [{ pump: { pulses: [], backgroundPowerW: 1e6 } }] })
+    const check = checkLimits(estimateResources(c, chooseGrid(c)))
+
+    expect(check.ok).toBe(false)
+    if (check.ok) return
+    expect(check.fields?.map((f) => f.path)).toEqual(['channels.0.pump.backgroundPowerW'])
+    expect(check.message).toMatch(/below the smallest step the solver takes, 0\.001 ps/)
+    expect(check.message).not.toMatch(/Infinity|NaN/)
+  })
+
+  it('accepts the shortest window the schema allows, whose automatic step sits at the floor', () => {
+    const c = config({ windowNs: MIN_WINDOW_NS, channels: [{ pump: { pulses: [], backgroundPowerW: 0.05 } }] })
+    const e = estimateResources(c, chooseGrid(c))
+
+    expect(checkLimits(e)).toEqual({ ok: true })
+    expect(e.stepBinding?.field).toBe('windowNs')
+  })
+
+  it('refuses the window and the step below their floors in the schema itself', () => {
+    const tiny = SimulationConfig.safeParse({ ...config(), windowNs: 5e-324 })
+    const fine = SimulationConfig.safeParse({ ...config(), grid: { timeStepPs: 1e-6 } })
+    const fewSteps = SimulationConfig.safeParse({ ...config(), windowNs: 0.05, grid: { timeStepPs: 10 } })
+
+    expect(tiny.error?.issues.map((i) => i.path.join('.'))).toContain('windowNs')
+    expect(fine.error?.issues.map((i) => i.path.join('.'))).toContain('grid.timeStepPs')
+    expect(fewSteps.error?.issues.find((i) => i.path.join('.') === 'windowNs')?.message).toMatch(/at least 10 time steps/)
   })
 })

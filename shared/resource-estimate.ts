@@ -3,12 +3,15 @@
 // plus the error estimate's companion run on the grid with twice the step (about a quarter of the run).
 import type { SimulationConfig } from './simulation-config'
 import { planCoarseRun } from './error-estimate-plan'
+import { MIN_TIME_STEP_PS } from './grid-limits'
 
 /** Grid counts as chosen by shared/grid-step.ts. */
 export interface GridCounts {
   dtS: number
   nz: number
   nt: number
+  /** From chooseGrid: the step the binding rule asked for and the field it depends on (for the step floor). */
+  binding?: { targetDtS: number; field: string; rule: string }
 }
 
 /**
@@ -65,6 +68,8 @@ export interface ResourceEstimate {
   windowNs: number
   lengthM: number
   maxTimeStepPs?: number
+  /** The step the binding rule asked for (ps) and the config field it depends on. */
+  stepBinding?: { targetPs: number; field: string; rule: string }
 }
 
 export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1): ResourceEstimate {
@@ -97,6 +102,7 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     lengthM: config.waveguide.lengthM,
     // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (physics.md §3).
     maxTimeStepPs: o.higherOrderAcoustic ? 1000 / (20 * config.waveguide.brillouinShiftGHz) : undefined,
+    stepBinding: grid.binding ? { targetPs: grid.binding.targetDtS * 1e12, field: grid.binding.field, rule: grid.binding.rule } : undefined,
   }
 }
 
@@ -116,13 +122,31 @@ function runCost(config: SimulationConfig, grid: GridCounts, realisations: numbe
   }
 }
 
-export type LimitCheck = { ok: true } | { ok: false; message: string; reasons: string[] }
+/** fields: the config fields to change, when one can be named. */
+export type LimitCheck = { ok: true } | { ok: false; message: string; reasons: string[]; fields?: Array<{ path: string; message: string }> }
 
 const sig = (x: number) => x.toPrecision(3)
 const gib = (bytes: number) => `${sig(bytes / 1024 ** 3)} GiB`
 
+/**
+ * A grid the solver cannot take: a step below MIN_TIME_STEP_PS, or counts that overflowed (an extreme input
+ * makes a rule ask for Δt → 0, and N_z, N_t → ∞). Refused on the field the binding rule depends on.
+ */
+function checkStepFloor(e: ResourceEstimate): LimitCheck | null {
+  const targetPs = e.stepBinding?.targetPs ?? e.timeStepPs
+  // A relative margin: a window at its minimum asks for exactly the floor, give or take rounding.
+  const belowFloor = !(targetPs >= MIN_TIME_STEP_PS * (1 - 1e-9))
+  const counts = [e.cells, e.steps, e.timeStepPs, e.cellUpdates, e.expectedSeconds, e.memoryBytes.total]
+  if (!belowFloor && counts.every(Number.isFinite)) return null
+  const rule = e.stepBinding ? ` (${e.stepBinding.rule})` : ''
+  const message = `The step rules ask for a time step of ${sig(targetPs)} ps${rule}, below the smallest step the solver takes, ${MIN_TIME_STEP_PS} ps; change this value`
+  return { ok: false, message, reasons: [message], fields: [{ path: e.stepBinding?.field ?? 'grid.timeStepPs', message }] }
+}
+
 /** Refuses an estimate over the limits; the message says which knob to turn and by how much. */
 export function checkLimits(e: ResourceEstimate, limits: ResourceLimits = DEFAULT_RESOURCE_LIMITS): LimitCheck {
+  const floor = checkStepFloor(e)
+  if (floor) return floor
   const reasons: string[] = []
   if (e.cellUpdates > limits.maxCellUpdates) {
     const f = e.cellUpdates / limits.maxCellUpdates

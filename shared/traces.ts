@@ -8,6 +8,10 @@ export const TRACE_UPLOAD_LIMIT_BYTES = 25 * 1024 * 1024
 export const TRACE_MAX_SAMPLES = 1_000_000
 /** Most signal columns one trace may hold. */
 export const TRACE_MAX_SIGNALS = 16
+/** Longest time between samples (ns): 1000 s, far beyond any oscilloscope trace; keeps derived times finite. */
+export const TRACE_MAX_SAMPLE_INTERVAL_NS = 1e12
+/** Smallest detector conversion gain (V/W); volts are divided by it, so a subnormal one would give infinite watts. */
+export const TRACE_MIN_RESPONSIVITY_V_PER_W = 1e-6
 /** Most columns a delimited file may have (the signals are picked from them). */
 export const TRACE_MAX_COLUMNS = 64
 /** Longest line of a delimited file (characters): a data line holds a few numbers; one longer is not a table. */
@@ -49,10 +53,11 @@ export const TraceImportSettings = z
     timeColumn: z.number().int().min(0).nullable().default(0),
     /** May be left out only when the file names the unit (header, number suffixes or metadata). */
     timeUnit: TraceTimeUnit.optional().describe('Unit of the time column'),
-    sampleIntervalNs: z.number().finite().positive().optional().describe('Time between samples (ns), when there is no time column'),
+    // Bounded so the derived time axis (index × interval, up to TRACE_MAX_SAMPLES samples) stays finite.
+    sampleIntervalNs: z.number().finite().positive().max(TRACE_MAX_SAMPLE_INTERVAL_NS, `must be at most ${TRACE_MAX_SAMPLE_INTERVAL_NS} ns`).optional().describe('Time between samples (ns), when there is no time column'),
     signalColumns: z.array(z.number().int().min(0)).min(1, 'pick at least one signal column').max(TRACE_MAX_SIGNALS),
     signalUnit: TraceSignalUnit.default('arb').describe('Unit of the signal columns'),
-    responsivityVPerW: z.number().finite().positive().max(1e9).optional().describe('Photodetector conversion gain (V/W), for signals in volts'),
+    responsivityVPerW: z.number().finite().min(TRACE_MIN_RESPONSIVITY_V_PER_W, `must be at least ${TRACE_MIN_RESPONSIVITY_V_PER_W} V/W`).max(1e9).optional().describe('Photodetector conversion gain (V/W), for signals in volts'),
     baseline: TimeWindow.nullable().default(null).describe('Time window (ns) whose mean is subtracted from each signal'),
   })
   .superRefine((s, ctx) => {

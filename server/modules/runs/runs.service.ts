@@ -57,7 +57,7 @@ export async function createRun(deps: RunsDeps, auth: AuthContext | undefined, i
   const userId = auth!.userId
   const estimate = estimateResources(input.config, chooseGrid(input.config))
   const limits = checkLimits(estimate, deps.limits ?? DEFAULT_RESOURCE_LIMITS)
-  if (!limits.ok) throw new AppError('over_limit', 422, limits.message, { reasons: limits.reasons })
+  if (!limits.ok) throw new AppError('over_limit', 422, limits.message, { reasons: limits.reasons, ...(limits.fields ? { fields: limits.fields } : {}) })
   const hash = configHash(input.config)
 
   if (idempotencyKey) {
