@@ -116,8 +116,8 @@ export class TraceParsePool {
     this.start().then(
       () => {
         if (this.current !== job || !this.thread) return
-        // A copy the thread can own: the caller's Buffer may share its memory with others.
-        const bytes = job.bytes.slice()
+        // A copy the thread can own (Buffer#slice would be a view: transferring it would empty the caller's).
+        const bytes = new Uint8Array(job.bytes)
         this.thread.postMessage({ seq: job.seq, bytes, settings: job.settings }, [bytes.buffer])
         const thread = this.thread
         this.timer = setTimeout(() => {
