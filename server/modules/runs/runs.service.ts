@@ -57,7 +57,9 @@ export async function createRun(deps: RunsDeps, auth: AuthContext | undefined, i
   const userId = auth!.userId
   const estimate = estimateResources(input.config, chooseGrid(input.config))
   const limits = checkLimits(estimate, deps.limits ?? DEFAULT_RESOURCE_LIMITS)
-  if (!limits.ok) throw new AppError('over_limit', 422, limits.message, { reasons: limits.reasons, ...(limits.fields ? { fields: limits.fields } : {}) })
+  // Field paths as in the request body, like the 400s of the same form.
+  const fields = limits.ok ? undefined : limits.fields?.map((f) => ({ ...f, path: `config.${f.path}` }))
+  if (!limits.ok) throw new AppError('over_limit', 422, limits.message, { reasons: limits.reasons, ...(fields ? { fields } : {}) })
   const hash = configHash(input.config)
 
   if (idempotencyKey) {
