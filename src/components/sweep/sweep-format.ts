@@ -8,7 +8,8 @@ export function formatValue(x: number | null | undefined): string {
   return a >= 1e4 || a < 1e-3 ? x.toExponential(3) : String(Number(x.toPrecision(4)))
 }
 
-export const unitSuffix = (unit: string) => (unit === '1' ? '' : ` ${unit}`)
+/** Suffix after a value: none for pure numbers and fractions ("0.094"), " ns" etc. otherwise. */
+export const unitSuffix = (unit: string) => (unit === '1' || unit === 'fraction' ? '' : ` ${unit}`)
 
 /** Columns that have a value at some point: what is worth plotting. */
 export function metricsWithData(s: SweepDetail): MetricColumn[] {
