@@ -19,8 +19,13 @@ export function createPool(databaseUrl: string, opts: PoolOptions = {}): pg.Pool
     idleTimeoutMillis: 30_000,
     application_name: opts.applicationName ?? 'sonoweave',
   })
-  // An idle client losing its connection (database restart) must not crash the process.
+  // A database restart ends every connection. node-postgres then emits 'error' on each client, and an
+  // 'error' event nobody listens to ends the process. The pool listens to its idle clients (and re-emits
+  // here); a checked-out client (a transaction, a LISTEN) has no listener unless we give it one. The
+  // client's own query promises still reject, so the code using it learns of the loss; the pool drops the
+  // broken client when it is released.
   pool.on('error', () => {})
+  pool.on('connect', (client) => client.on('error', () => {}))
   return pool
 }
 

@@ -32,7 +32,8 @@ export interface JobService {
 export async function startJobService(o: JobServiceOptions): Promise<JobService> {
   const boss = createBoss({ databaseUrl: o.databaseUrl, schema: o.bossSchema, applicationName: o.applicationName })
   // pg-boss reports database trouble as events; without a listener they would crash the process.
-  boss.on('error', (err) => o.log.error({ err }, 'queue error'))
+  // Logged without the error's attached connection object, which would fill the log on a database restart.
+  boss.on('error', (err: Error & { code?: string }) => o.log.error({ err: { message: err.message, code: err.code } }, 'queue error'))
   await boss.start()
   await declareQueues(boss)
   const worker = o.threads > 0 ? await startWorker({ boss, pool: o.pool, log: o.log, threads: o.threads, onFinished: o.onFinished }) : null
