@@ -14,6 +14,7 @@ import { accountRoutes } from './modules/auth/account-routes'
 import { authenticate } from './modules/auth/auth.middleware'
 import type { AuthOptions } from './modules/auth/auth-options'
 import { healthRoutes } from './modules/health/health.routes'
+import { openApiRoutes } from './openapi/openapi.routes'
 import type { QueueCheck } from './modules/health/health.service'
 import { APP_VERSION } from './version'
 
@@ -56,6 +57,7 @@ export function createApp(input: Omit<AppDeps, 'version'> & { version?: string }
   // req.auth for every API route (session cookie or Bearer token); the policy checks read it.
   api.use(authenticate(deps))
   api.use(healthRoutes(deps))
+  api.use(openApiRoutes(deps))
   api.use(accountRoutes(deps))
   for (const [path, router] of deps.routes ?? []) api.use(path, router)
   // New modules mount their routers here (or pass them through deps.routes).
