@@ -11,27 +11,22 @@ const MISSING_ID = '00000000-0000-4000-8000-000000000000'
 let browser: Browser
 const contexts: BrowserContext[] = []
 
-declare global {
-  interface Window {
-    cspViolations: string[]
-  }
-}
-
 /** A page that records every securitypolicyviolation event and every CSP console complaint. */
 async function watchedPage(): Promise<{ page: Page; violations: () => Promise<string[]> }> {
   const ctx = await newContext(browser, base)
   contexts.push(ctx)
-  // Init scripts run through the DevTools protocol, outside the page's CSP.
-  await ctx.addInitScript(() => {
+  // Init scripts run through the DevTools protocol, outside the page's CSP. (Page code is passed as
+  // strings: this file is type-checked for Node, without the DOM's types.)
+  await ctx.addInitScript(`
     window.cspViolations = []
-    document.addEventListener('securitypolicyviolation', (e) => window.cspViolations.push(`${e.violatedDirective} ${e.blockedURI} at ${location.pathname}`))
-  })
+    document.addEventListener('securitypolicyviolation', (e) => window.cspViolations.push(e.violatedDirective + ' ' + e.blockedURI + ' at ' + location.pathname))
+  `)
   const page = await ctx.newPage()
   const fromConsole: string[] = []
   page.on('console', (m) => {
     if (/Content Security Policy/i.test(m.text())) fromConsole.push(`${m.text()} at ${new URL(page.url()).pathname}`)
   })
-  const violations = async () => [...fromConsole, ...(await page.evaluate(() => window.cspViolations).catch(() => [] as string[]))]
+  const violations = async () => [...fromConsole, ...((await page.evaluate('window.cspViolations').catch(() => [])) as string[])]
   return { page, violations }
 }
 
@@ -61,14 +56,14 @@ describe('Content-Security-Policy in the browser', () => {
     const { page, violations } = await watchedPage()
     await page.goto('/sign-in')
 
-    await page.evaluate(() => {
+    await page.evaluate(`{
       const s = document.createElement('script')
       s.textContent = 'window.inlineRan = true'
       document.body.append(s)
-    })
+    }`)
     await expect.poll(violations).not.toEqual([])
 
-    expect(await page.evaluate(() => (window as unknown as { inlineRan?: boolean }).inlineRan)).toBeUndefined()
+    expect(await page.evaluate('window.inlineRan')).toBeUndefined()
   })
 
   it('shows every signed-out page without a violation', async () => {
