@@ -13,6 +13,7 @@ export function requestContext(log: Logger): RequestHandler {
     req.log = log.child({ requestId: req.id })
     res.setHeader('X-Request-Id', req.id)
     const startedAt = process.hrtime.bigint()
+    // `url` goes through the logger's scrubUrl serializer: share, reset and API tokens never reach the log.
     res.on('finish', () => {
       const ms = Number(process.hrtime.bigint() - startedAt) / 1e6
       const level = res.statusCode >= 500 ? 'error' : 'info'
