@@ -37,6 +37,29 @@ export function figureLines(f: FiguresOfMerit): string[] {
     if (extra.length) lines.push(`  ${extra.join(', ')}`)
   }
   for (const w of f.windows) lines.push(`window "${w.label}" (${w.port}, ${w.startNs}–${w.endNs} ns): ${w.energyJ === null ? `not determined: ${w.notDetermined?.message ?? ''}` : joule(w.energyJ)}`)
+  lines.push(...errorEstimateLines(f))
   lines.push(`wall time ${f.wallTimeS.toFixed(2)} s, ${sig(f.cellUpdatesPerS / 1e6, 3)} M cell-updates/s`)
+  return lines
+}
+
+/** "channels.0.energyJ.stokesOut" → "channel 1 energy stokes out"; windows by their label. */
+function figureName(path: string, f: FiguresOfMerit): string {
+  const words = (k: string) => k.replace(/(Ns|Db|Rad|J)$/, '').replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase()
+  const [group, index, ...rest] = path.split('.')
+  if (group === 'channels') return `channel ${Number(index) + 1} ${rest.map(words).join(' ')}`
+  if (group === 'windows') return `window "${f.windows[Number(index)]?.label ?? index}"`
+  return path.split('.').map(words).join(' ')
+}
+
+/** The largest estimated numerical error, and the flagged figures with the step that fixes them. */
+function errorEstimateLines(f: FiguresOfMerit): string[] {
+  const e = f.errorEstimate
+  if (!e) return []
+  if (e.status !== 'estimated') return [`error estimate: ${e.reason ?? e.status}`]
+  const entries = Object.entries(e.figures).filter(([, x]) => x.relError !== null)
+  if (entries.length === 0) return ['error estimate: no figure to estimate']
+  const [path, worst] = entries.reduce((a, b) => (b[1].relError! > a[1].relError! ? b : a))
+  const lines = [`error estimate (rerun at Δt = ${sig(e.coarseTimeStepPs!, 3)} ps): largest ${sig(100 * worst.relError!, 2)} % (${figureName(path, f)})`]
+  for (const [p, x] of entries) if (x.flagged) lines.push(`  ${figureName(p, f)}: ${sig(100 * x.relError!, 2)} % > ${100 * e.flagAboveRelError} %; Δt ≤ ${x.suggestedTimeStepPs} ps for < ${100 * e.targetRelError} %`)
   return lines
 }
