@@ -15,6 +15,7 @@ export interface RouteNamedMap {
   'accept-invite': RouteRecordInfo<'accept-invite', '/accept-invite', NoParams, NoParams>
   'group-settings': RouteRecordInfo<'group-settings', '/group', NoParams, NoParams>
   tokens: RouteRecordInfo<'tokens', '/tokens', NoParams, NoParams>
+  'api-reference': RouteRecordInfo<'api-reference', '/reference', NoParams, NoParams>
   admin: RouteRecordInfo<'admin', '/admin', NoParams, NoParams>
   'held-mail': RouteRecordInfo<'held-mail', '/admin/held-mail', NoParams, NoParams>
   'new-simulation': RouteRecordInfo<'new-simulation', '/simulations/new', NoParams, NoParams>

@@ -110,6 +110,13 @@ export const routes: AppRoute[] = [
     meta: { title: 'API tokens' },
   },
   {
+    // Not under /api: the dev server proxies every path that starts with /api to the API.
+    path: '/reference',
+    name: 'api-reference',
+    component: () => import('@/pages/ApiReferencePage.vue'),
+    meta: { title: 'API reference' },
+  },
+  {
     // The API answers 403 to non-admins; the page turns that into an "Admins only" message.
     path: '/admin',
     name: 'admin',
