@@ -19,8 +19,8 @@ class FakeClient extends EventEmitter {
   release(err?: unknown) {
     if (this.releases.length > 0) throw new Error('Release called on client which has already been released to the pool.')
     this.releases.push(err)
-    // node-postgres's pool listens for errors of the clients it holds.
-    this.on('error', () => {})
+    // node-postgres's pool listens for errors of the clients it keeps, not of those it destroys.
+    if (!err) this.on('error', () => {})
   }
   notify(runId: string) {
     this.emit('notification', { channel: RUN_EVENTS_CHANNEL, payload: JSON.stringify({ runId }) })
@@ -92,6 +92,8 @@ describe('RunEventRelay', () => {
 
     expect(first.releases).toHaveLength(1)
     expect(first.releases[0]).toBeInstanceOf(Error)
+    // The destroyed client's socket may still report its end; that must not be an unheard 'error'.
+    expect(() => first.emit('error', new Error('read ECONNRESET'))).not.toThrow()
     expect(failedAttempts).toBe(3)
     expect(pool.clients).toHaveLength(2)
     expect(pool.clients[1].queries).toEqual([`listen ${RUN_EVENTS_CHANNEL}`])
@@ -167,6 +169,7 @@ describe('RunEventRelay', () => {
     expect(pool.connects).toBe(before)
     relay.close()
     expect(await relay.subscribe('run-b', () => {}).then((u) => typeof u)).toBe('function')
+    expect(relay.watching).toBe(0)
     await vi.advanceTimersByTimeAsync(60_000)
     expect(pool.connects).toBe(before)
   })

@@ -11,6 +11,7 @@ import type { Logger } from '../../logger'
 import { RUN_EVENTS_CHANNEL } from './run-events.repo'
 
 type Wake = () => void
+const ignore = () => {}
 
 /** First reconnect delay and its cap: retries double from 250 ms to 10 s while the database is away. */
 export const RELAY_BACKOFF = { firstMs: 250, maxMs: 10_000 }
@@ -33,6 +34,7 @@ export class RunEventRelay {
    * database cannot be reached, once a reconnect is scheduled (the watcher is woken when it succeeds).
    */
   async subscribe(runId: string, wake: Wake): Promise<() => void> {
+    if (this.closed) return () => {}
     let set = this.watchers.get(runId)
     if (!set) this.watchers.set(runId, (set = new Set()))
     set.add(wake)
@@ -70,7 +72,10 @@ export class RunEventRelay {
       handedBack = true
       c.removeListener('notification', onNotification)
       c.removeListener('error', onError)
-      // A lost or failed connection is destroyed; the pool keeps only healthy ones.
+      // A lost or failed connection is destroyed; the pool keeps only healthy ones. A destroyed client
+      // can still report its socket's end (ECONNRESET), and nobody else listens to it any more: an
+      // 'error' event without a listener would end the process.
+      if (err) c.on('error', ignore)
       c.release(err ?? false)
     }
     const onNotification = (n: { payload?: string }) => {
