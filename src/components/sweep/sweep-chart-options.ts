@@ -33,7 +33,8 @@ export function lineOption(s: SweepDetail, metrics: MetricColumn[], type: ImageT
     },
     yAxis: units.map((u, i) => ({
       type: 'value',
-      name: u === '1' ? '' : u,
+      // Fractions and pure numbers need no axis title (the legend carries the unit); it would sit on the legend.
+      name: unitSuffix(u) ? u : '',
       position: i === 0 ? 'left' : 'right',
       offset: i > 1 ? (i - 1) * 64 : 0,
       scale: true,
@@ -43,7 +44,7 @@ export function lineOption(s: SweepDetail, metrics: MetricColumn[], type: ImageT
       axisLabel: { formatter: tickLabel },
     })),
     series: metrics.map((m) => ({
-      name: `${m.label}${unitSuffix(m.unit) ? ` (${m.unit})` : ''}`,
+      name: `${m.label}${m.unit === '1' ? '' : ` (${m.unit})`}`,
       type: 'line',
       yAxisIndex: units.indexOf(m.unit),
       showSymbol: true,
