@@ -41,6 +41,11 @@ function badPathEncoding(err: unknown, req: Parameters<ErrorRequestHandler>[1]):
   }
 }
 
+/** Details as the client will read them: dates as ISO strings, nothing that does not survive JSON. */
+function jsonSafe(details: Record<string, unknown>): Record<string, unknown> {
+  return JSON.parse(JSON.stringify(details)) as Record<string, unknown>
+}
+
 /** The one place errors become responses. Only AppError and validation messages reach the client. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
   if (res.headersSent) return next(err)
@@ -54,7 +59,8 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
     body = { code: 'invalid_input', message: 'Some fields are not valid', fields: zodFields(err) }
   } else if (err instanceof AppError) {
     status = err.httpStatus
-    body = { code: err.code, message: err.message, ...(err.details?.fields ? { fields: err.details.fields } : {}) }
+    const { fields, ...details } = err.details ?? {}
+    body = { code: err.code, message: err.message, ...(fields ? { fields } : {}), ...(Object.keys(details).length ? { details: jsonSafe(details) } : {}) }
   } else if ((pathError = badPathEncoding(err, req))) {
     status = 400
     body = pathError

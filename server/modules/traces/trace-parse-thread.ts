@@ -2,7 +2,7 @@
 // the API's event loop. Started by trace-parse-pool.ts through a bootstrap that registers tsx.
 import { createHash } from 'node:crypto'
 import { parentPort, threadId } from 'node:worker_threads'
-import { buildTrace, parseTraceFile, TraceParseError } from '@shared/trace-parse'
+import { buildTrace, parseTraceFile, TraceParseError, type ParseLocation } from '@shared/trace-parse'
 import type { TraceColumn, TraceImportSettings, TraceSignalInfo, TraceTimeUnit } from '@shared/traces'
 
 export interface ParseRequest {
@@ -23,7 +23,7 @@ export type ParseReply =
       sha256: string
       threadId: number
     }
-  | { seq: number; ok: false; parseError: boolean; message: string; field?: 'timeUnit'; line?: number }
+  | { seq: number; ok: false; parseError: boolean; message: string; field?: 'timeUnit'; where?: ParseLocation }
 
 const port = parentPort
 if (!port) throw new Error('trace-parse-thread.ts runs as a worker thread')
@@ -52,7 +52,7 @@ port.on('message', ({ seq, bytes, settings }: ParseRequest) => {
       parseError,
       message: (err as Error).message,
       ...(parseError && err.field ? { field: err.field } : {}),
-      ...(parseError && err.where.line ? { line: err.where.line } : {}),
+      ...(parseError ? { where: { ...err.where } } : {}),
     } satisfies ParseReply)
   }
 })

@@ -43,7 +43,7 @@ function refusal(fileName: string, f: ParseFailure): AppError {
       fields: [{ path: 'settings.timeUnit', message: 'required: the file does not name the unit of its time column' }],
     })
   }
-  return new AppError('unreadable_trace', 422, `${fileName}: ${f.message}`, { where: f.line ? { line: f.line } : {} })
+  return new AppError('unreadable_trace', 422, `${fileName}: ${f.message}`, { where: f.where ?? {} })
 }
 
 /** Parses in the parse thread (trace-parse-pool.ts); the thread running out of memory or time is the file's doing. */
