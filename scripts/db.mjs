@@ -269,6 +269,7 @@ function requirePassword(cluster, say) {
   const password = ensurePassword(cluster)
   const set = psql(`alter role postgres password '${password}'`, cluster)
   if (set.code !== 0) throw new DbScriptError(`could not set the database password: ${lastLine(set.out)}`)
+  writeFileSync(`${hbaFile}.before-password`, hba) // kept in case it held rules of the owner's own
   writeFileSync(hbaFile, HBA)
   const reload = psql('select pg_reload_conf()', cluster)
   if (reload.code !== 0) throw new DbScriptError(`could not reload the database settings: ${lastLine(reload.out)}`)

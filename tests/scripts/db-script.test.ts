@@ -210,6 +210,7 @@ describe('scripts/db.mjs durability and sign-in', () => {
     expect(url).toBe(databaseUrl('sonoweave', c))
     expect(url).toMatch(/^postgres:\/\/postgres:[0-9a-f]{48}@/)
     expect(await signInWithWrongPassword(c)).toMatch(/password authentication failed/)
+    expect(readFileSync(join(c.dataDir, 'pg_hba.conf.before-password'), 'utf8')).toMatch(/127\.0\.0\.1\/32\s+trust/)
     expect(await durabilitySettings(url)).toEqual(DURABLE)
     expect(await selectOne(url)).toBe(1)
     stop(c, { quiet: true })
