@@ -1,4 +1,4 @@
-import { index, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core'
 import type { FitRequest, FitResult } from '@shared/fits'
 import { groups } from './groups'
 import { runs } from './runs'
@@ -30,6 +30,10 @@ export const fits = pgTable(
     result: jsonb('result').$type<FitResult>(),
     error: text('error'),
     jobId: uuid('job_id'),
+    /** Times a worker has taken the fit; a lost worker's fit is handed back until the queue's retry limit. */
+    attempt: integer('attempt').notNull().default(0),
+    /** Refreshed by the worker while the fit runs; the watchdog hands back a fit whose heartbeat stopped. */
+    heartbeatAt: timestamp('heartbeat_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     startedAt: timestamp('started_at', { withTimezone: true }),
     finishedAt: timestamp('finished_at', { withTimezone: true }),
