@@ -67,6 +67,8 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
       handedBack = true
       c.removeListener('notification', onNotification)
       c.removeListener('error', onError)
+      // Destroyed, not pooled: a late socket error must still find a listener or it ends the process.
+      c.on('error', () => {})
       c.release(err ?? true)
     }
     const onNotification = (n: { channel: string; payload?: string }) => {
