@@ -29,6 +29,7 @@ describe('RunFigureError', () => {
   it('shows ± the estimated error in the figure’s unit, with no flag under 1 %', async () => {
     const { wrapper } = await mountWithApp(RunFigureError, { props: { estimate: estimate(), path: 'channels.0.energyJ.stokesOut', unit: 'J' } })
     expect(wrapper.text()).toBe('± 30 fJ')
+    expect(wrapper.find('[title]').attributes('title')).toBe('Estimated numerical error, 0.0015 % of the value')
     expect(wrapper.find('[aria-label]').exists()).toBe(false)
   })
 
