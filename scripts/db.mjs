@@ -153,7 +153,7 @@ function initCluster(cluster, profile) {
     writeFileSync(pwFile, `${password}\n`, { mode: 0o600 })
     if (RUN_AS) run('chown', ['-R', `${RUN_AS}:${RUN_AS}`, pwDir])
     const args = ['-D', dataDir, '-U', 'postgres', '--auth=scram-sha-256', `--pwfile=${pwFile}`, '--data-checksums', '-E', 'UTF8', '--locale=C.UTF-8']
-    // A test cluster is thrown away with its data; skipping initdb's own fsync saves seconds there.
+    // A test cluster is thrown away with its data; skipping initdb's own fsync saves time there.
     if (profile === 'test') args.push('--no-sync')
     const r = run(join(bin, 'initdb'), args, { asPg: true })
     if (r.code !== 0) throw new DbScriptError(`initdb failed: ${lastLine(r.out)}`)
