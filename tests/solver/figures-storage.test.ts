@@ -21,7 +21,6 @@ function run(readNs: number, windowNs = 6, energyWindows: SimulationConfigInput[
 
 /** What the figure used to be: all pump-output energy from the read pulse's entry to two transits later, over the data energy. */
 function oldFixedWindowRatio(r: ReturnType<typeof run>, readNs: number): number {
-  const dtNs = r.timeNs[1] - r.timeNs[0]
   const data = example.channels[0].pump.pulses[0]
   const out = r.channels[0].pumpOut
   let inside = 0, dataJ = 0
