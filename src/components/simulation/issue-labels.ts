@@ -30,6 +30,9 @@ const FIELD_NAMES: Record<string, string> = {
   seed: 'seed',
   startNs: 'start',
   endNs: 'end',
+  pulseIndex: 'pulse it follows',
+  fromFwhm: 'start (widths)',
+  toFwhm: 'end (widths)',
 }
 
 export function describeIssuePath(path: readonly PropertyKey[], channelCount: number): string {
@@ -47,7 +50,7 @@ export function describeIssuePath(path: readonly PropertyKey[], channelCount: nu
     } else if (k === 'energyWindows' && typeof path[i + 1] === 'number') {
       parts.push(`energy window ${(path[i + 1] as number) + 1}`)
       i++
-    } else if (k === 'options' || k === 'grid' || k === 'noise') {
+    } else if (k === 'options' || k === 'grid' || k === 'noise' || k === 'anchor') {
       continue
     } else {
       parts.push(FIELD_NAMES[String(k)] ?? String(k))
