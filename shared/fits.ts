@@ -36,6 +36,27 @@ export const FIT_PARAMETER_META: Record<FitParameterName, { label: string; unit:
 export const HigherOrderChoice = z.enum(['asRun', 'off', 'on', 'compare'])
 export type HigherOrderChoice = z.infer<typeof HigherOrderChoice>
 
+/**
+ * Where a search range may lie: the ranges the run schema itself allows (shared/waveguide.ts,
+ * shared/simulation-config.ts), so every model the fit evaluates is a valid run; the offset and width
+ * factor are bounded so grids and shifted axes derived from them stay finite.
+ */
+export const FIT_PARAMETER_RANGES: Record<FitParameterName, { min: number; max: number; positive?: boolean }> = {
+  timeOffsetNs: { min: -1e6, max: 1e6 },
+  scale: { min: -1e12, max: 1e12 },
+  linewidthMHz: { min: 0, max: 10_000, positive: true },
+  gainCoefficientMPerW: { min: 0, max: 1e-6, positive: true },
+  pulseWidthScale: { min: 0.01, max: 100 },
+  detuningMHz: { min: -1e5, max: 1e5 },
+}
+
+function checkRange(name: FitParameterName, b: Bounds, path: Array<string | number>, ctx: z.RefinementCtx) {
+  const r = FIT_PARAMETER_RANGES[name]
+  const low = r.positive ? b.min <= r.min : b.min < r.min
+  if (low) ctx.addIssue({ code: 'custom', path: [...path, 'min'], message: `must be ${r.positive ? 'above' : 'at least'} ${r.min} ${FIT_PARAMETER_META[name].unit}`.trim() })
+  if (b.max > r.max) ctx.addIssue({ code: 'custom', path: [...path, 'max'], message: `must be at most ${r.max} ${FIT_PARAMETER_META[name].unit}`.trim() })
+}
+
 export const FitRequest = z.object({
   schemaVersion: z.literal(FIT_SCHEMA_VERSION).default(FIT_SCHEMA_VERSION),
   traceId: z.uuid(),
@@ -49,6 +70,9 @@ export const FitRequest = z.object({
   free: z.partialRecord(PhysicalFitParameter, Bounds).default({}),
   higherOrder: HigherOrderChoice.default('asRun'),
   maxIterations: z.number().int().min(1).max(100).default(20),
+}).superRefine((r, ctx) => {
+  checkRange('timeOffsetNs', r.timeOffsetNs, ['timeOffsetNs'], ctx)
+  for (const [name, b] of Object.entries(r.free)) if (b) checkRange(name as PhysicalFitParameter, b, ['free', name], ctx)
 })
 export type FitRequest = z.infer<typeof FitRequest>
 export type FitRequestInput = z.input<typeof FitRequest>
