@@ -1,10 +1,12 @@
-// `npm run bench [-- --quick]`: throughput, memory, linear-cost and work–precision figures of the solver.
+// `npm run bench [-- --quick]`: throughput, memory, linear-cost and work–precision figures of the solver,
+// then the oscillation analysis's coverage table (oscillation-coverage.ts; --quick: white noise only).
 // Prints figures and never asserts; record them in benchmarks/README.md with the date and machine.
 import os from 'node:os'
 import { simulateSync, type SimulationResult } from '../solver/index'
 import type { SimulationConfig } from '@shared/simulation-config'
 import { brillouinRates } from '@shared/grid-step'
 import { cwDepletionCase, exactDepletionStokesOutW, gridCase } from './cases'
+import { oscillationCoverage } from './oscillation-coverage'
 
 const quick = process.argv.includes('--quick')
 /** --quick skips every run above this many cell-updates. */
@@ -106,4 +108,5 @@ console.log(`node ${process.version}, ${os.cpus()[0]?.model ?? 'unknown CPU'} ×
 throughputTable()
 scalingTable()
 workPrecision()
+oscillationCoverage(quick)
 console.log(`\nload average at the end ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`)

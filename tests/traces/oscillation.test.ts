@@ -20,55 +20,81 @@ function record(durationNs: number, dtNs: number, sigma: number, seed = 7) {
 }
 
 describe('oscillation analysis of a closed-form damped sinusoid', () => {
-  it('recovers f and τ by the damped-sine fit within 4σ of its own uncertainties (noise σ = 0.01, 1.25 % of A)', () => {
+  it('recovers f, τ and A by the damped-sine fit within 3σ of its own uncertainties (noise σ = 0.01, 1.25 % of A)', () => {
     const { t, y } = record(40, 0.01, 0.01)
 
     const r = analyseOscillation(t, y)
 
     const fit = r.fit!
-    expect(Math.abs(fit.frequencyGHz - F_GHZ)).toBeLessThan(4 * fit.frequencyUncertaintyGHz!)
-    expect(Math.abs(fit.decayNs - TAU_NS)).toBeLessThan(4 * fit.decayUncertaintyNs!)
-    // And absolutely: 0.05 % in frequency, 2 % in decay time.
+    expect(Math.abs(fit.frequencyGHz - F_GHZ)).toBeLessThan(3 * fit.frequencyUncertaintyGHz!)
+    expect(Math.abs(fit.decayNs! - TAU_NS)).toBeLessThan(3 * fit.decayUncertaintyNs!)
+    expect(Math.abs(fit.amplitude - A)).toBeLessThan(3 * fit.amplitudeUncertainty!)
+    // And absolutely: 0.05 % in frequency, 2 % in decay time and amplitude.
     expect(fit.frequencyGHz).toBeCloseTo(F_GHZ, 2)
-    expect(Math.abs(fit.decayNs / TAU_NS - 1)).toBeLessThan(0.02)
+    expect(Math.abs(fit.decayNs! / TAU_NS - 1)).toBeLessThan(0.02)
     expect(Math.abs(fit.amplitude / A - 1)).toBeLessThan(0.02)
     expect(fit.rmsResidual).toBeGreaterThan(0.008)
     expect(fit.rmsResidual).toBeLessThan(0.012)
+    // White noise: the noise level near f is the average one (within the scatter of a 61-frequency average).
+    expect(fit.noiseColourFactor).toBeGreaterThan(0.7)
+    expect(fit.noiseColourFactor).toBeLessThan(1.4)
   })
 
-  it('recovers f to within the record resolution and τ to 10 % from the spectrum alone', () => {
+  it('recovers f, τ and A from the spectrum within 3σ of its bootstrap uncertainties', () => {
     const { t, y } = record(40, 0.01, 0.01)
 
     const s = analyseOscillation(t, y).spectral!
 
-    // Record length T = 4001 samples × 10 ps.
-    expect(s.frequencyUncertaintyGHz).toBeCloseTo(1 / (2 * 40.01), 9)
-    expect(Math.abs(s.frequencyGHz - F_GHZ)).toBeLessThan(s.frequencyUncertaintyGHz)
+    expect(s.bootstrapReplicates).toBeGreaterThanOrEqual(50)
+    expect(Math.abs(s.frequencyGHz - F_GHZ)).toBeLessThan(3 * s.frequencyUncertaintyGHz!)
+    expect(Math.abs(s.decayNs! - TAU_NS)).toBeLessThan(3 * s.decayUncertaintyNs!)
+    expect(Math.abs(s.amplitude - A)).toBeLessThan(3 * s.amplitudeUncertainty!)
+    // Least squares is the maximum-likelihood estimate for white Gaussian noise and reaches the Cramér–Rao
+    // bound (common practice); the spectrum weighs the noise of the whole 40 ns record equally although the
+    // ripple has died after ~10 ns, so it is less precise, but not by orders of magnitude.
+    const fit = analyseOscillation(t, y).fit!
+    expect(s.frequencyUncertaintyGHz! / fit.frequencyUncertaintyGHz!).toBeGreaterThan(0.8)
+    expect(s.frequencyUncertaintyGHz! / fit.frequencyUncertaintyGHz!).toBeLessThan(30)
     expect(Math.abs(s.decayNs! / TAU_NS - 1)).toBeLessThan(0.1)
   })
 
-  it('reports an unresolved decay when the line is as narrow as the record allows', () => {
-    // τ = 3 ns in a 2 ns record: the line width is set by the record, not the decay.
-    const { t, y } = record(2, 0.005, 0)
+  it('reads the decay of a record shorter than τ from the exact finite-record line shape', () => {
+    // τ = 3 ns in a 2 ns record: the line is barely wider than the record's own; the finite-record form
+    // |1 − q^N|²/|1 − q|² still separates the two, and the fit sees the decay over the record.
+    const { t, y } = record(2, 0.005, 0.002)
 
     const r = analyseOscillation(t, y)
 
-    expect(r.spectral!.decayNs).toBeNull()
-    expect(r.notes.join(' ')).toMatch(/no wider than the record resolution/)
-    // The fit still sees the decay over the record.
-    expect(r.fit!.frequencyGHz).toBeCloseTo(F_GHZ, 3)
-    expect(Math.abs(r.fit!.decayNs / TAU_NS - 1)).toBeLessThan(0.01)
+    expect(r.fit!.frequencyGHz).toBeCloseTo(F_GHZ, 2)
+    expect(Math.abs(r.fit!.decayNs! - TAU_NS)).toBeLessThan(3 * r.fit!.decayUncertaintyNs!)
+    if (r.spectral!.decayNs !== null) expect(Math.abs(r.spectral!.decayNs - TAU_NS)).toBeLessThan(3 * r.spectral!.decayUncertaintyNs!)
+    else expect(r.notes.join(' ')).toMatch(/no wider than the record/)
   })
 
-  it('removes a slow envelope with the moving average before looking for the oscillation', () => {
+  it('removes a slow pulse envelope by default; with removal off the pulse itself is the largest line', () => {
     const { t, y } = record(40, 0.01, 0.005)
     const withPulse = y.map((v, i) => v + 5 * Math.exp(-(((t[i] - 20) / 6) ** 2)))
 
-    const plain = analyseOscillation(t, withPulse, { minFrequencyGHz: 0.01 })
-    const smoothed = analyseOscillation(t, withPulse, { smoothNs: 0.5, minFrequencyGHz: 0.01 })
+    const plain = analyseOscillation(t, withPulse, { envelope: 'none', minFrequencyGHz: 0.01 })
+    const auto = analyseOscillation(t, withPulse, { minFrequencyGHz: 0.01 })
 
-    // Without smoothing the pulse itself is the largest "line"; with it the 7.7 GHz tone is found.
-    expect(plain.spectral!.frequencyGHz).toBeLessThan(1)
-    expect(Math.abs(smoothed.spectral!.frequencyGHz - F_GHZ)).toBeLessThan(0.02)
+    // Without removal the 10 ns pulse dominates the spectrum (below 1 GHz).
+    expect(plain.spectrum.frequencyGHz[plain.spectrum.magnitude.indexOf(Math.max(...plain.spectrum.magnitude))]).toBeLessThan(1)
+    // FWHM of exp(−(t/6)²) is 12√ln2 = 9.99 ns; the ripple on top moves the half-maximum points a little.
+    expect(Math.abs(auto.envelope!.pulse!.fwhmNs / (12 * Math.sqrt(Math.LN2)) - 1)).toBeLessThan(0.1)
+    expect(Math.abs(auto.spectral!.frequencyGHz - F_GHZ)).toBeLessThan(2 * auto.spectral!.frequencyUncertaintyGHz!)
+    expect(Math.abs(auto.fit!.frequencyGHz - F_GHZ)).toBeLessThan(2 * auto.fit!.frequencyUncertaintyGHz!)
+  })
+
+  it('says so instead of giving figures when no ripple stands out of the noise', () => {
+    const noise = gaussianNoise(3)
+    const t = Array.from({ length: 2000 }, (_, i) => i * 0.01)
+    const y = t.map(() => 0.3 + 0.01 * noise())
+
+    const r = analyseOscillation(t, y)
+
+    expect(r.fit).toBeNull()
+    expect(r.spectral).toBeNull()
+    expect(r.notes.join(' ')).toMatch(/No ripple stands out of the noise/)
   })
 })
