@@ -115,9 +115,9 @@ async function openStream(runId: string): Promise<Stream> {
 
 describe('a database restart under a running server', () => {
   it('keeps the server answering with closed and open streams, and a running run finishes once', async () => {
-    // Long enough (several seconds of solver time, as in tests/jobs/worker.test.ts) to be still computing
+    // Long enough (twice the 150 ns run of tests/jobs/worker.test.ts, tens of seconds) to be still computing
     // through both restarts, which take about a second each.
-    const submitted = await api('/runs', { method: 'POST', body: JSON.stringify({ groupId: editor.groupId, title: 'Halden rib, through a restart', config: chipRun(150, 0.5) }) })
+    const submitted = await api('/runs', { method: 'POST', body: JSON.stringify({ groupId: editor.groupId, title: 'Halden rib, through a restart', config: chipRun(300, 0.5) }) })
     expect(submitted.status).toBe(202)
     const run = (await submitted.json()) as { id: string }
     await waitFor('the run to start', async () => (await runStatus(run.id)) === 'running', 120_000)
