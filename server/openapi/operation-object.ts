@@ -12,13 +12,6 @@ const SECURITY: Record<AuthMode, Requirement[]> = {
   admin: SIGNED_IN,
   shareable: [...SIGNED_IN, { shareToken: [] }],
 }
-const AUTH_NOTE: Record<AuthMode, string> = {
-  public: 'No sign-in needed.',
-  user: 'Needs a session cookie or an API token.',
-  admin: 'Site administrators only (session cookie or API token).',
-  shareable: 'Needs a session cookie, an API token, or the `share` token of a share link.',
-}
-
 /** /api/runs/:id → /api/runs/{id} */
 export const templatePath = (expressPath: string) => expressPath.replace(/:(\w+)/g, '{$1}')
 
@@ -94,7 +87,8 @@ export function operationObject(op: ApiOperation, schemas: RouteSchemas, compone
     operationId: operationId(op),
     tags: [op.tag],
     summary: op.summary,
-    description: [op.description, AUTH_NOTE[op.auth]].filter(Boolean).join('\n\n'),
+    ...(op.description ? { description: op.description } : {}),
+    // Who may call it, in one word for readers of the document (security lists the schemes).
     'x-auth': op.auth,
     security: SECURITY[op.auth],
     parameters: parameters(op, schemas, components),

@@ -200,3 +200,14 @@ describe('docs/examples/submit_run.py', () => {
     }
   }, 180_000)
 })
+
+describe('README', () => {
+  it('quotes the Python example only with lines that are in docs/examples/submit_run.py', () => {
+    const readme = readFileSync(join(ROOT, 'README.md'), 'utf8')
+    const section = readme.slice(readme.indexOf('## The API for scripts'))
+    const block = /```python\n([\s\S]*?)```/.exec(section)?.[1]
+    expect(block, 'a python block in the README section').toBeTruthy()
+    const script = new Set(readFileSync(join(ROOT, 'docs/examples/submit_run.py'), 'utf8').split('\n').map((l) => l.trim()))
+    for (const line of block!.split('\n').map((l) => l.trim()).filter(Boolean)) expect(script.has(line), line).toBe(true)
+  })
+})

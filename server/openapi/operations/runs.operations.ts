@@ -28,7 +28,7 @@ export const runsOperations: ApiOperation[] = [
     summary: "Server-sent events of a run's state, progress and map blocks",
     description:
       'Each event has an id; reconnect with the Last-Event-ID header (or ?lastEventId=) to get only later events. The stream ends after the final status event; a finished run with nothing new answers 204.',
-    response: { status: 200, description: 'text/event-stream', contentType: 'text/event-stream', events: { status: RunStatusEvent, progress: RunProgressEvent, block: RunBlockEvent } },
+    response: { status: 200, description: 'The event stream', contentType: 'text/event-stream', events: { status: RunStatusEvent, progress: RunProgressEvent, block: RunBlockEvent } },
   },
   {
     method: 'GET',
