@@ -29,10 +29,10 @@ const BODY_ERRORS: Record<string, { status: number; code: string; message: strin
  * percent-encoding such as /api/runs/%E0%A4%A; that is the client's mistake, named by its parameter.
  */
 function badPathEncoding(err: unknown, req: Parameters<ErrorRequestHandler>[1]): ErrorBody | null {
-  if (!(err instanceof URIError)) return null
-  const raw = /^Failed to decode param '(.*)'$/s.exec(err.message)?.[1]
-  const path = req.originalUrl.split('?')[0]
-  const name = raw === undefined ? null : pathParamName(req.app, path, raw)
+  // Only the router's own decoding failure: a URIError from our code is a bug and stays a 500.
+  const raw = err instanceof URIError ? /^Failed to decode param '(.*)'$/s.exec(err.message)?.[1] : undefined
+  if (raw === undefined) return null
+  const name = pathParamName(req.app, req.originalUrl.split('?')[0], raw)
   const message = 'is not valid percent-encoding (a % must be followed by two hexadecimal digits forming UTF-8)'
   return {
     code: 'invalid_path',
