@@ -4,7 +4,8 @@ import type PgBoss from 'pg-boss'
 import type { Pool, PoolClient } from 'pg'
 import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/runs'
 import { appendRunEvent } from '../modules/runs/run-events.repo'
-import { RUN_QUEUE, RUN_QUEUE_OPTIONS, SINGLE_RUN_PRIORITY, SWEEP_POINT_PRIORITY } from './queues'
+import { singleRunPriority } from './fair-priority'
+import { RUN_QUEUE, RUN_QUEUE_OPTIONS, SWEEP_POINT_PRIORITY } from './queues'
 import { inTransaction } from './run-store'
 
 export const bossDb = (c: PoolClient): PgBoss.Db => ({ executeSql: (text, values) => c.query(text, values) })
@@ -14,7 +15,7 @@ export type ReleaseResult = 'requeued' | 'failed' | 'not-ours' | 'not-running'
 export async function releaseRun(pool: Pool, boss: PgBoss, runId: string, attempt: number, jobId: string | null, reason: string): Promise<ReleaseResult> {
   return inTransaction(pool, async (c) => {
     const db = bossDb(c)
-    const { rows } = await c.query(`select status, attempt, sweep_id from runs where id = $1 for update`, [runId])
+    const { rows } = await c.query(`select status, attempt, sweep_id, queue_rank from runs where id = $1 for update`, [runId])
     if (rows.length === 0 || rows[0].status !== 'running' || rows[0].attempt !== attempt) return 'not-running'
     const job = jobId ? await boss.getJobById(RUN_QUEUE, jobId, { db, includeArchive: false }) : null
     // A job this pg-boss schema does not hold belongs to another deployment sharing the database.
@@ -31,16 +32,25 @@ export async function releaseRun(pool: Pool, boss: PgBoss, runId: string, attemp
       return 'failed'
     }
     let nextJob = jobId
+    // A single run keeps its place in the fair order (fair-priority.ts): it was at the front when it was taken,
+    // so it goes back no later than the front of today's line (ranks start again from 0 when the line empties,
+    // so its stored rank alone may be from an older line). The rank is stored again, since the queue position
+    // users see is read from it. A retried job (state retry) carries the priority of the rank it was sent with.
+    let rank: number | null = null
+    if (!rows[0].sweep_id) {
+      const front = await c.query(`select min(queue_rank) as front from runs where status = 'queued' and sweep_id is null`)
+      rank = Math.min(rows[0].queue_rank, front.rows[0].front ?? rows[0].queue_rank)
+    }
     if (state !== 'retry' && state !== 'created') {
       // The job already ended (its handler returned): carry the run on a new one.
       // A sweep point goes back behind single runs, where the feeder had put it.
-      const priority = rows[0].sweep_id ? SWEEP_POINT_PRIORITY : SINGLE_RUN_PRIORITY
+      const priority = rank === null ? SWEEP_POINT_PRIORITY : singleRunPriority(rank)
       nextJob = await boss.send(RUN_QUEUE, { schemaVersion: RUN_JOB_SCHEMA_VERSION, runId } satisfies RunJobPayload, { db, priority })
       if (!nextJob) throw new Error(`queue ${RUN_QUEUE} does not exist`)
     }
     await c.query(
-      `update runs set status = 'queued', worker_id = null, heartbeat_at = null, progress = 0, job_id = $2, error = null, updated_at = now() where id = $1`,
-      [runId, nextJob],
+      `update runs set status = 'queued', worker_id = null, heartbeat_at = null, progress = 0, job_id = $2, error = null, queue_rank = coalesce($3, queue_rank), updated_at = now() where id = $1`,
+      [runId, nextJob, rank],
     )
     await appendRunEvent(c, runId, attempt, 'status', { status: 'queued', attempt, error: null })
     return 'requeued'
