@@ -2,7 +2,7 @@
 // (shared/simulation-result.ts) plus the energy windows the configuration defines.
 import type { ChannelFigures, FiguresOfMerit } from './simulation-result'
 import { errorShaped } from './figure-error'
-import type { SimulationConfig } from './simulation-config'
+import type { Port, SimulationConfig } from './simulation-config'
 import { channelScheme, type RunScheme } from './pulse-roles'
 import type { MetricColumn } from './sweeps'
 
@@ -39,6 +39,7 @@ export const CHANNEL_METRICS: readonly ChannelMetric[] = [
 ]
 
 const WINDOW_PREFIX = 'window:'
+const PORT_WORDS: Record<Port, string> = { pumpIn: 'pump in', pumpOut: 'pump out', stokesIn: 'Stokes in', stokesOut: 'Stokes out' }
 
 /**
  * Columns for a sweep of this base configuration: the channel metrics that apply to each channel's scheme
@@ -54,7 +55,7 @@ export function metricColumns(config: Pick<SimulationConfig, 'channels' | 'energ
       cols.push({ key: many ? `ch${ci + 1}.${m.key}` : m.key, label: many ? `${m.label} (channel ${ci + 1})` : m.label, unit: m.unit })
     }
   })
-  for (const w of config.energyWindows) cols.push({ key: `${WINDOW_PREFIX}${w.label}`, label: `Energy in “${w.label}” (${w.port})`, unit: 'J' })
+  for (const w of config.energyWindows) cols.push({ key: `${WINDOW_PREFIX}${w.label}`, label: `Energy in “${w.label}” (${PORT_WORDS[w.port]})`, unit: 'J' })
   return cols
 }
 

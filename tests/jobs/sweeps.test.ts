@@ -95,7 +95,7 @@ describe('a 1-D sweep of 8 short runs', () => {
         expect(Number(cell[at('Peak Stokes gain (dB)')])).toBe(ch.peakStokesGainDb)
         expect(Number(cell[at('Reflectivity (fraction)')])).toBe(ch.reflectivity)
         expect(Number(cell[at('Stokes output energy (J)')])).toBe(ch.energyJ.stokesOut)
-        expect(Number(cell[at('Energy in “late Stokes” (stokesOut) (J)')])).toBe(run.figures.windows[0].energyJ)
+        expect(Number(cell[at('Energy in “late Stokes” (Stokes out) (J)')])).toBe(run.figures.windows[0].energyJ)
       })
       // No data/read pulses in this amplifier scheme: no storage column at all.
       expect(cols.some((c) => c.startsWith('Retrieval efficiency'))).toBe(false)
