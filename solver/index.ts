@@ -15,6 +15,9 @@ import { postRunWarnings } from './observers/warnings'
 export const SOLVER_VERSION = '0.1.0'
 export { SOLVER_LIMITS, SimulationRun }
 export type { ChannelTraces, ChannelFigures, FiguresOfMerit, SimulationManifest, SolverWarning }
+// What the server needs to store a run and write its files (the server reaches the solver only here).
+export { arrayFileName, buildRunManifest, npyDescrOf, MANIFEST_FILE, type RunManifest, type RunTimings, type StoredArray } from './io/manifest'
+export { npyHeader, type NpyDescr } from './io/npy'
 
 /** A new block of map rows, handed out as soon as it is computed (rows are time, cols are z). */
 export interface MapFrame {

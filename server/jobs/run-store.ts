@@ -3,7 +3,7 @@
 // worker, can no longer be changed by the worker that lost it.
 import type { Pool, PoolClient } from 'pg'
 import type { FiguresOfMerit } from '@shared/simulation-result'
-import type { RunManifest } from '../../solver/io/manifest'
+import type { RunManifest } from '../../solver/index'
 import { appendRunEvent, type Queryable } from '../modules/runs/run-events.repo'
 
 export async function inTransaction<T>(pool: Pool, work: (c: PoolClient) => Promise<T>): Promise<T> {

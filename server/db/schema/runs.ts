@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import { index, integer, jsonb, type AnyPgColumn, pgEnum, pgTable, real, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import type { RunManifest } from '../../../solver/io/manifest'
+import type { RunManifest } from '../../../solver/index'
 import type { FiguresOfMerit } from '@shared/simulation-result'
 import type { ResourceEstimate } from '@shared/resource-estimate'
 import type { SimulationConfig } from '@shared/simulation-config'

@@ -4,8 +4,7 @@ import type { Response } from 'express'
 import { ZipArchive } from 'archiver'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
-import { npyHeader } from '../../../solver/io/npy'
-import { arrayFileName, npyDescrOf, type RunManifest } from '../../../solver/io/manifest'
+import { arrayFileName, npyDescrOf, npyHeader, type RunManifest } from '../../../solver/index'
 import { findArray, type RunRow, type StoredArray } from './runs.repo'
 
 const PORTS = ['pump_in', 'stokes_in', 'pump_out', 'stokes_out'] as const
