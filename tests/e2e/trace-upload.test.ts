@@ -31,6 +31,8 @@ describe('trace upload', () => {
     await dialog.locator('input[type=file]').setInputFiles({ name: 'probe pulse.csv', mimeType: 'text/csv', buffer: Buffer.from(headerless) })
 
     await dialog.getByRole('alert').filter({ hasText: 'The file does not name the unit of its time column: choose it.' }).waitFor()
+    // The preview was parsed in its worker (allowed by the page's CSP), not on the page's main thread.
+    expect(page.workers().map((w) => w.url())).toEqual([expect.stringMatching(/trace-preview\.worker/)])
     const upload = dialog.getByRole('button', { name: 'Upload', exact: true })
     expect(await upload.isDisabled()).toBe(true)
     await screenshot(page, 'trace-upload-time-unit-asked')
