@@ -110,6 +110,27 @@ export function pulseArrival(ch: Pick<Channel, 'pump' | 'stokes'>, port: PulsePo
   return own
 }
 
+/** A read pulse starts to matter this many FWHM before its centre (Gaussian power there: 2^−36). */
+export const READ_LEAD_FWHM = 3
+
+/**
+ * When the first storage read pulse starts to enter (ns), or null without storage: from then on a storage
+ * run also integrates its reference without the read pulses (solver/storage-reference.ts).
+ */
+export function storageReferenceStartNs(config: Pick<SimulationConfig, 'channels'>): number | null {
+  let startNs = Infinity
+  for (const ch of config.channels) {
+    const r = storageRoles(ch)?.read
+    if (!r) continue
+    const lead = r.shape === 'sampled' ? ((r.powerShape.length - 1) * r.sampleIntervalNs) / 2 : READ_LEAD_FWHM * pulseFwhmNs(r)
+    startNs = Math.min(startNs, r.centreNs - lead)
+  }
+  return Number.isFinite(startNs) ? startNs : null
+}
+
+/** Time index at which the storage reference is forked on a grid of step dtS. */
+export const storageForkStep = (startNs: number, dtS: number) => Math.max(0, Math.floor((startNs * 1e-9) / dtS))
+
 /** Short name of a pulse for messages: its label, or "pump pulse 2". */
 export const pulseName = (ch: Pick<Channel, 'pump' | 'stokes'>, port: PulsePort, index: number) =>
   ch[port].pulses[index]?.label?.trim() || `${port === 'pump' ? 'pump' : 'Stokes'} pulse ${index + 1}`

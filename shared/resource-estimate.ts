@@ -1,6 +1,7 @@
 // What a run will cost before it starts: cells, steps, cell-updates, memory and expected time, and the
 // refusal of runs over the limits with the knob to turn. Cost model: physics.md §4 (N_ch·N_z·N_t·N_real),
 // plus the error estimate's companion run on the grid with twice the step (about a quarter of the run).
+import { storageForkStep, storageReferenceStartNs } from './pulse-roles'
 import type { SimulationConfig } from './simulation-config'
 import { planCoarseRun } from './error-estimate-plan'
 import { MIN_TIME_STEP_PS } from './grid-limits'
@@ -113,12 +114,17 @@ function runCost(config: SimulationConfig, grid: GridCounts, realisations: numbe
   const nodes = grid.nz + 1
   const samples = grid.nt + 1
   const stateBytesPerCell = STATE_BYTES_PER_CELL + (config.options.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
+  // A storage run also integrates its reference without the read pulse from the read pulse's arrival on,
+  // with traces of its own (solver/storage-reference.ts).
+  const startNs = storageReferenceStartNs(config)
+  const referenceSamples = startNs === null ? 0 : Math.max(0, samples - storageForkStep(startNs, grid.dtS))
+  const referenceTraces = startNs === null ? 0 : channels * samples * TRACE_BYTES_PER_STEP
   return {
-    cellUpdates: channels * realisations * nodes * samples,
-    state: channels * nodes * stateBytesPerCell,
+    cellUpdates: channels * realisations * nodes * (samples + referenceSamples),
+    state: channels * nodes * stateBytesPerCell * (startNs === null ? 1 : 2),
     maps: channels * MAPS_PER_CHANNEL * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL,
     // Axes (t and z, float64) count with the traces.
-    traces: channels * samples * TRACE_BYTES_PER_STEP + 8 * (samples + nodes),
+    traces: channels * samples * TRACE_BYTES_PER_STEP + referenceTraces + 8 * (samples + nodes),
   }
 }
 

@@ -73,8 +73,10 @@ export class SimulationRun {
     return this.n > this.model.nt
   }
 
+  /** Node-steps done, the storage reference's included. */
   get cellUpdates(): number {
-    return this.n * this.model.nodes * this.model.nCh
+    const extra = this.reference ? this.reference.n - (this.referencePlan?.forkN ?? this.reference.n) : 0
+    return (this.n + extra) * this.model.nodes * this.model.nCh
   }
 
   /** Integrate up to `count` time indices (and the storage reference alongside); returns how many were done. */

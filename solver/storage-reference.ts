@@ -6,10 +6,7 @@
 //     leak-through     = A_p,out(without read)   (data light that reaches the output unstored)
 // inside the read-out window.
 import type { SimulationConfig } from '@shared/simulation-config'
-import { pulseFwhmNs, storageRoles } from '@shared/pulse-roles'
-
-/** A read pulse starts to matter this many FWHM before its centre (Gaussian power there: 2^−36). */
-const READ_LEAD_FWHM = 3
+import { storageForkStep, storageReferenceStartNs, storageRoles } from '@shared/pulse-roles'
 
 export interface ReferencePlan {
   /** The configuration without the read pulses that define each channel's retrieval. */
@@ -19,15 +16,11 @@ export interface ReferencePlan {
 }
 
 export function planStorageReference(config: SimulationConfig, dtS: number): ReferencePlan | null {
-  let startNs = Infinity
+  const startNs = storageReferenceStartNs(config)
+  if (startNs === null) return null
   const channels = config.channels.map((ch) => {
     const roles = storageRoles(ch)
-    if (!roles) return ch
-    const r = roles.read
-    const lead = r.shape === 'sampled' ? ((r.powerShape.length - 1) * r.sampleIntervalNs) / 2 : READ_LEAD_FWHM * pulseFwhmNs(r)
-    startNs = Math.min(startNs, r.centreNs - lead)
-    return { ...ch, stokes: { ...ch.stokes, pulses: ch.stokes.pulses.filter((_, i) => i !== roles.readIndex) } }
+    return roles ? { ...ch, stokes: { ...ch.stokes, pulses: ch.stokes.pulses.filter((_, i) => i !== roles.readIndex) } } : ch
   })
-  if (!Number.isFinite(startNs)) return null
-  return { config: { ...config, channels }, forkN: Math.max(0, Math.floor((startNs * 1e-9) / dtS)) }
+  return { config: { ...config, channels }, forkN: storageForkStep(startNs, dtS) }
 }
