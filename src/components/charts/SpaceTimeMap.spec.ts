@@ -103,6 +103,17 @@ describe('SpaceTimeMap', () => {
     expect(rgbaAt(vm.pixels(), 0)).not.toEqual(rgbaAt(paintMap(values, 2, 2, { min: 0, max: 0.004 }, 'linear'), 0))
   })
 
+  it('labels a colour bar whose top is just under 1 µW as 1 µW, not 1000 nW', async () => {
+    vi.spyOn(HTMLElement.prototype, 'clientWidth', 'get').mockReturnValue(454)
+    const values = new Float32Array([0, 2.5e-7, 5e-7, 9.99e-7])
+    const { wrapper } = await mountWithApp(SpaceTimeMap, {
+      props: { title: 'Stokes power', units: 'W', values, rows: 2, cols: 2, zRangeM: [0, 0.07], tRangeNs: [0, 6], heightPx: 300 },
+    })
+    await flushPromises()
+    const ticks = wrapper.findAll('.space-time-map__tick').map((t) => t.text())
+    expect(ticks).toEqual(['1 µW', '500 nW', '0 W'])
+  })
+
   it('reads out position and value under the pointer, with units', async () => {
     const { wrapper } = await mountMap()
     const chart = wrapper.find('.space-time-map__chart')
