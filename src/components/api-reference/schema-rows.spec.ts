@@ -48,5 +48,6 @@ describe('limits', () => {
     expect(limits(json(z.number().positive().max(100)))).toEqual(['≤ 100', '> 0'])
     expect(limits(json(z.string().regex(/^[a-z]+$/)))).toEqual(['pattern'])
     expect(limits(json(z.uuid()))).toEqual([])
+    expect(limits(json(z.number().min(0).max(1e9)))).toEqual(['0…1e9'])
   })
 })

@@ -49,19 +49,22 @@ export function typeLabel(s: JsonSchema, components: SchemaComponents): string {
   return t
 }
 
+/** 1e9 rather than 1000000000; small numbers as JavaScript writes them (1e-15, 0.02). */
+const fmt = (n: number) => (Math.abs(n) >= 1e6 ? n.toExponential().replace('e+', 'e') : String(n))
+
 /** Limits a client must respect, written the way a reader checks them. */
 export function limits(s: JsonSchema): string[] {
   const out: string[] = []
   // zod writes the safe-integer bounds on every integer; they say nothing to a reader.
   const num = (k: string) => (typeof s[k] === 'number' && Math.abs(s[k] as number) < Number.MAX_SAFE_INTEGER ? (s[k] as number) : undefined)
   const range = (lo: number | undefined, hi: number | undefined, what: string) => {
-    if (lo !== undefined && hi !== undefined) out.push(`${what}${lo}…${hi}`)
-    else if (lo !== undefined) out.push(`${what}≥ ${lo}`)
-    else if (hi !== undefined) out.push(`${what}≤ ${hi}`)
+    if (lo !== undefined && hi !== undefined) out.push(`${what}${fmt(lo)}…${fmt(hi)}`)
+    else if (lo !== undefined) out.push(`${what}≥ ${fmt(lo)}`)
+    else if (hi !== undefined) out.push(`${what}≤ ${fmt(hi)}`)
   }
   range(num('minimum'), num('maximum'), '')
-  if (num('exclusiveMinimum') !== undefined) out.push(`> ${num('exclusiveMinimum')}`)
-  if (num('exclusiveMaximum') !== undefined) out.push(`< ${num('exclusiveMaximum')}`)
+  if (num('exclusiveMinimum') !== undefined) out.push(`> ${fmt(num('exclusiveMinimum')!)}`)
+  if (num('exclusiveMaximum') !== undefined) out.push(`< ${fmt(num('exclusiveMaximum')!)}`)
   range(num('minLength'), num('maxLength'), 'length ')
   range(num('minItems'), num('maxItems'), 'items ')
   if (s.default !== undefined) out.push(`default ${JSON.stringify(s.default)}`)
