@@ -1,5 +1,5 @@
-// The job service as one unit for a process: pg-boss, the queue declaration, an optional worker and the
-// watchdog. server/index.ts embeds it (one worker thread by default), worker-main.ts runs it alone.
+// The job service as one unit for a process: pg-boss, the queues' declaration (queues.ts), an optional worker
+// (runs and fits) and the watchdog. server/index.ts embeds it (one worker thread by default), worker-main.ts runs it alone.
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
 import type { Logger } from '../logger'
@@ -7,7 +7,7 @@ import { createBoss, declareQueues, RUN_QUEUE } from './queues'
 import type { RunOutcome } from './run-executor'
 import { startWatchdog, type WatchdogOptions } from './watchdog'
 import { startWorker, type RunWorker } from './worker'
-import { startFitWorker } from './handlers/fit'
+import { startFitWorker, type FitWorker } from './handlers/fit'
 
 export interface JobServiceOptions {
   databaseUrl: string
@@ -24,6 +24,7 @@ export interface JobServiceOptions {
 export interface JobService {
   boss: PgBoss
   worker: RunWorker | null
+  fitWorker: FitWorker | null
   /** For /api/health: pg-boss answers and the run queue exists. */
   queueCheck: () => Promise<boolean>
   stop: () => Promise<void>
@@ -44,6 +45,7 @@ export async function startJobService(o: JobServiceOptions): Promise<JobService>
   return {
     boss,
     worker,
+    fitWorker,
     queueCheck: async () => (await boss.getQueue(RUN_QUEUE)) !== null,
     async stop() {
       if (stopped) return

@@ -1,4 +1,4 @@
-// The one place queue policy is declared. pg-boss 10 facts this relies on (docs/stack.md §6): it has no
+// The one place queue policy is declared: names, priorities, retry and expiry of both queues. pg-boss 10 facts this relies on (docs/stack.md §6): it has no
 // heartbeat, expireIn is also a hard runtime limit (an expired handler is retried while it still runs),
 // createQueue does not update an existing queue's options, and send() to an unknown queue returns null.
 import PgBoss from 'pg-boss'
@@ -18,10 +18,26 @@ export const RUN_QUEUE_OPTIONS = {
   retentionDays: 7,
 } as const
 
+export const FIT_QUEUE = 'trace-fits'
+
+/**
+ * A fit is CPU work of minutes (each Levenberg–Marquardt step is several solver runs), so it has its own queue:
+ * fits never wait behind, or block, simulation runs. One priority for all fits: first come, first served.
+ */
+export const FIT_QUEUE_OPTIONS = {
+  // Also the hard runtime limit: far above the 100-iteration cap on the small grids fits use. A lost worker's
+  // fit is found by its heartbeat (watchdog.ts), not by this.
+  expireInSeconds: 6 * 3600,
+  // Tries after the first when a worker is lost; a fit that kills its worker twice ends failed.
+  retryLimit: 1,
+  retryDelay: 5,
+  retentionDays: 7,
+} as const
+
 /**
  * pg-boss fetches `priority desc, created_on`. A single run is sent with SINGLE_RUN_PRIORITY minus its rank in
  * its author's line (fair-priority.ts), a rank of at most MAX_SINGLE_RUN_RANK; fed sweep points sit below every
- * single run, so a sweep never starves interactive work. A run handed back after a lost worker gets the top.
+ * single run, so a sweep never starves interactive work. A run handed back after a lost worker keeps its rank.
  */
 export const SINGLE_RUN_PRIORITY = 0
 // pg-boss stores priority as a 32-bit integer; the sweep priority below must fit too.
@@ -53,8 +69,15 @@ export function createBoss(o: BossOptions): PgBoss {
   })
 }
 
-/** Creates the queue when missing and applies the declared policy when it already exists. */
+const QUEUES = [
+  [RUN_QUEUE, RUN_QUEUE_OPTIONS],
+  [FIT_QUEUE, FIT_QUEUE_OPTIONS],
+] as const
+
+/** Creates each queue when missing and applies the declared policy when it already exists. */
 export async function declareQueues(boss: PgBoss): Promise<void> {
-  await boss.createQueue(RUN_QUEUE, { name: RUN_QUEUE, ...RUN_QUEUE_OPTIONS })
-  await boss.updateQueue(RUN_QUEUE, { name: RUN_QUEUE, ...RUN_QUEUE_OPTIONS })
+  for (const [name, options] of QUEUES) {
+    await boss.createQueue(name, { name, ...options })
+    await boss.updateQueue(name, { name, ...options })
+  }
 }

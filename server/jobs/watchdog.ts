@@ -1,15 +1,16 @@
-// Finds runs whose worker stopped sending heartbeats (killed, frozen, cut off) and hands them back to the
-// queue, and removes the workers-table rows of workers that stopped refreshing them (a killed worker
+// Finds runs and fits whose worker stopped sending heartbeats (killed, frozen, cut off) and hands them back to
+// their queue (fits: modules/fits/fit-release.ts), and removes the workers-table rows of workers that stopped refreshing them (a killed worker
 // cannot delete its own row, which would otherwise stay, marked busy, for good). pg-boss 10 would only notice at expireIn (24 h here, so long runs are never cut off); this brings
 // a SIGKILLed worker's run back within about STALE_AFTER_MS + INTERVAL_MS. Any process may run it: an
 // advisory lock lets one sweep at a time.
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
 import type { Logger } from '../logger'
+import { sweepStaleFits } from '../modules/fits/fit-release'
 import { releaseRun } from './requeue'
 
 export const WATCHDOG_DEFAULTS = {
-  /** Ten missed heartbeats (run-executor HEARTBEAT_MS = 3 s): a busy database does not trigger it. */
+  /** Ten missed heartbeats (HEARTBEAT_MS = 3 s for runs and fits): a busy database does not trigger it. */
   staleAfterMs: 30_000,
   intervalMs: 10_000,
   /** Twelve missed presence updates (worker.ts refreshes its row every 10 s); past the queue view's minute. */
@@ -76,6 +77,8 @@ export function startWatchdog(o: WatchdogOptions): { stop: () => void } {
     if (running) return
     running = true
     sweepStaleRuns(o)
+      .then(() => sweepStaleFits({ pool: o.pool, boss: o.boss, staleAfterMs: o.staleAfterMs ?? WATCHDOG_DEFAULTS.staleAfterMs }))
+      .then((fits) => fits.forEach((f) => o.log.warn(f, 'stale fit handed back')))
       .then(() => expireStaleWorkers(o.pool, o.workerExpireAfterMs))
       .then((gone) => gone.length > 0 && o.log.warn({ workers: gone }, 'workers that stopped reporting removed'))
       .catch((err) => o.log.warn({ err }, 'watchdog sweep failed'))

@@ -1,17 +1,21 @@
 // The fits API against the real PostgreSQL and pg-boss: a closed-form fit answered at once, a solver fit
-// run by the fit worker through its queue, and the group rules (trace and run must share a group).
+// run by the fit worker through its queue, the group rules (trace and run must share a group), deleting a
+// running fit, and the watchdog handing back a fit whose worker stopped sending heartbeats.
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { FitDetail } from '@shared/fits'
+import { FitDetail, FitRequest } from '@shared/fits'
 import { sampleAt } from '@shared/trace-align'
 import { createApp } from '../../server/app'
 import { runArrays, runs } from '../../server/db/schema'
 import { startJobService } from '../../server/jobs/job-service'
+import { FIT_QUEUE } from '../../server/jobs/queues'
+import { startWatchdog } from '../../server/jobs/watchdog'
 import { fitsRoutes } from '../../server/modules/fits/fits.routes'
 import { tracesRoutes } from '../../server/modules/traces/traces.routes'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, gaussian } from '../solver/chip-fixtures'
 import { gaussianNoise } from '../traces/random'
+import { waitFor } from '../jobs/worker-process'
 import { silentLog, testDatabaseUrl, useTestDb } from './helpers'
 import { newMember, queueSchemaFor, type Member } from './runs-fixtures'
 
@@ -30,10 +34,10 @@ const config = chipConfig({
   grid: { timeStepPs: 20, mapRows: 16, mapCols: 16, mapReduction: 'max' },
 })
 
-async function storedRun(groupId: string, authorId: string, status: 'succeeded' | 'running' = 'succeeded'): Promise<string> {
-  const [r] = await db.insert(runs).values({ groupId, authorId, title: 'Stokes amplifier', config, configHash: 'x'.repeat(64), solverVersion: '0.1.0', status, attempt: 1 }).returning({ id: runs.id })
+async function storedRun(groupId: string, authorId: string, status: 'succeeded' | 'running' = 'succeeded', runConfig = config): Promise<string> {
+  const [r] = await db.insert(runs).values({ groupId, authorId, title: 'Stokes amplifier', config: runConfig, configHash: 'x'.repeat(64), solverVersion: '0.1.0', status, attempt: 1 }).returning({ id: runs.id })
   if (status !== 'succeeded') return r.id
-  const result = simulateSync(config)
+  const result = simulateSync(runConfig)
   const rows = result.manifest.arrays
     .filter((a) => a.name === 'time_ns' || a.name.startsWith('ch1_'))
     .map((a) => ({ runId: r.id, attempt: 1, name: a.name, dtype: a.dtype, shape: a.shape, units: a.units, description: a.description, data: Buffer.from(result.arrays[a.name].buffer) }))
@@ -53,12 +57,13 @@ function measuredCsv(): Buffer {
   return Buffer.from(lines.join('\n'))
 }
 
-const jobs = startJobService({ databaseUrl: testDatabaseUrl(), pool, log: silentLog, threads: 1, bossSchema: queueSchemaFor('fits_api'), watchdog: false })
+const bossSchema = queueSchemaFor('fits_api')
+const jobs = startJobService({ databaseUrl: testDatabaseUrl(), pool, log: silentLog, threads: 1, bossSchema, watchdog: false })
 afterAll(async () => (await jobs).stop())
 
 beforeAll(async () => {
   const { boss } = await jobs
-  app = createApp({ db, pool, log: silentLog, routes: [['/traces', tracesRoutes({ db })], ['/fits', fitsRoutes({ db, boss })]] })
+  app = createApp({ db, pool, log: silentLog, routes: [['/traces', tracesRoutes({ db })], ['/fits', fitsRoutes({ db, pool, boss })]] })
   editor = await newMember(db, 'editor')
   viewer = await newMember(db, 'viewer', editor.groupId, 'Mei Okafor')
   outsider = await newMember(db, 'editor', undefined, 'Other Lab')
@@ -137,5 +142,96 @@ describe('POST /api/fits', () => {
     expect(list.body.items.length).toBeGreaterThanOrEqual(1)
     expect((await request(app).get('/api/fits').query({ traceId }).set('Authorization', outsider.auth)).status).toBe(404)
     expect((await request(app).get(`/api/fits/${list.body.items[0].id}`).set('Authorization', outsider.auth)).status).toBe(404)
+  })
+})
+
+const jobState = async (jobId: string) => (await (await jobs).boss.getJobById(FIT_QUEUE, jobId))?.state
+
+describe('a running fit', () => {
+  it('stores the fit and its job together', async () => {
+    const res = await request(app).post('/api/fits').set('Authorization', editor.auth).send(fitBody({ free: { linewidthMHz: { min: 10, max: 100 } }, maxIterations: 2 }))
+    const { rows } = await pool.query(`select job_id from fits where id = $1`, [res.body.id])
+    const job = await (await jobs).boss.getJobById(FIT_QUEUE, rows[0].job_id)
+    expect(job?.data).toEqual({ schemaVersion: 1, fitId: res.body.id })
+  })
+
+  it('stops its thread when deleted, ends its job and leaves nothing stored', async () => {
+    const { fitWorker } = await jobs
+    // The same amplifier on 0.5 ps steps (about a second per model evaluation here), three parameters freed:
+    // dozens of evaluations, so the fit is still running when it is deleted.
+    const slowRun = await storedRun(editor.groupId, editor.userId, 'succeeded', { ...config, grid: { ...config.grid, timeStepPs: 0.5 } })
+    const free = { linewidthMHz: { min: 10, max: 100 }, gainCoefficientMPerW: { min: 1e-11, max: 1e-8 }, detuningMHz: { min: -20, max: 20 } }
+    const res = await request(app).post('/api/fits').set('Authorization', editor.auth).send(fitBody({ runId: slowRun, free, maxIterations: 100 }))
+    expect(res.status).toBe(202)
+    const id: string = res.body.id
+    const { rows } = await pool.query(`select job_id from fits where id = $1`, [id])
+    await waitFor('the fit thread to start', async () => fitWorker!.running().includes(id), 120_000)
+
+    expect((await request(app).delete(`/api/fits/${id}`).set('Authorization', editor.auth)).status).toBe(204)
+
+    await waitFor('the fit thread to stop', async () => !fitWorker!.running().includes(id), 60_000)
+    expect(await jobState(rows[0].job_id)).toBe('cancelled')
+    expect((await pool.query(`select 1 from fits where id = $1`, [id])).rowCount).toBe(0)
+    expect((await request(app).get(`/api/fits/${id}`).set('Authorization', editor.auth)).status).toBe(404)
+  })
+})
+
+describe('the watchdog', () => {
+  const request_ = () => FitRequest.parse(fitBody({ free: { linewidthMHz: { min: 10, max: 100 } }, maxIterations: 10 }))
+
+  /** A fit a worker took and then fell silent on: row running with an hour-old heartbeat, job active. */
+  async function silentFit(attempt: number): Promise<{ id: string; jobId: string }> {
+    const { boss } = await jobs
+    const { rows } = await pool.query(
+      `insert into fits (group_id, author_id, trace_id, run_id, inputs, status, attempt, started_at, heartbeat_at, message)
+       values ($1, $2, $3, $4, $5, 'running', $6, now() - interval '1 hour', now() - interval '1 hour', 'Model evaluation 3') returning id`,
+      [editor.groupId, editor.userId, traceId, runId, JSON.stringify(request_()), attempt],
+    )
+    const id: string = rows[0].id
+    // Deferred, so the live worker does not fetch it, then marked taken as a worker would have.
+    const jobId = (await boss.send(FIT_QUEUE, { schemaVersion: 1, fitId: id }, { startAfter: 3600 }))!
+    await pool.query(`update ${bossSchema}.job set state = 'active', started_on = now(), retry_count = $2 where id = $1`, [jobId, attempt - 1])
+    await pool.query(`update fits set job_id = $2 where id = $1`, [id, jobId])
+    return { id, jobId }
+  }
+
+  async function withWatchdog<T>(work: () => Promise<T>): Promise<T> {
+    const dog = startWatchdog({ pool, boss: (await jobs).boss, log: silentLog, staleAfterMs: 10_000, intervalMs: 200 })
+    try {
+      return await work()
+    } finally {
+      dog.stop()
+    }
+  }
+
+  it('hands back a fit whose heartbeat stopped; a live worker then finishes it', async () => {
+    const { id, jobId } = await silentFit(1)
+
+    const fit = await withWatchdog(() =>
+      waitFor('the fit to be finished by another worker', async () => {
+        const f = FitDetail.parse((await request(app).get(`/api/fits/${id}`).set('Authorization', editor.auth)).body)
+        return (f.status === 'succeeded' || f.status === 'failed') && f
+      }, 120_000),
+    )
+
+    expect(fit.error).toBeNull()
+    expect(fit.status).toBe('succeeded')
+    expect((await pool.query(`select attempt from fits where id = $1`, [id])).rows[0].attempt).toBe(2)
+    expect(await jobState(jobId)).toBe('completed')
+  })
+
+  it('fails a fit with the reason once its tries are spent', async () => {
+    const { id, jobId } = await silentFit(2)
+
+    const fit = await withWatchdog(() =>
+      waitFor('the fit to be given up', async () => {
+        const f = FitDetail.parse((await request(app).get(`/api/fits/${id}`).set('Authorization', editor.auth)).body)
+        return f.status !== 'running' && f
+      }),
+    )
+
+    expect(fit.status).toBe('failed')
+    expect(fit.error).toMatch(/stopped responding; the fit was tried 2 times and is given up/)
+    expect(['failed', 'cancelled']).toContain(await jobState(jobId))
   })
 })

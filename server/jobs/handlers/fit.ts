@@ -1,6 +1,8 @@
 // The fit queue's worker: takes a fit, loads its trace and run, runs the whole fit in a worker thread
 // (fit-thread.ts) and writes throttled progress and the result to the fit row. Bad input ends the fit
-// as failed (it would fail again); a lost worker leaves the job to pg-boss's retry.
+// as failed (it would fail again). While the thread runs, a heartbeat every HEARTBEAT_MS tells the
+// watchdog the worker is alive; a heartbeat that finds the fit deleted or handed back stops the thread at
+// once. A lost worker's fit is handed back by the watchdog (modules/fits/fit-release.ts).
 import { Worker } from 'node:worker_threads'
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
@@ -8,86 +10,116 @@ import { FitJobPayload } from '@shared/fits'
 import { createDb } from '../../db/client'
 import type { Logger } from '../../logger'
 import { fitInputs } from '../../modules/fits/fit-data'
-import { declareFitQueue, FIT_QUEUE } from '../../modules/fits/fit-queue'
+import { releaseFit } from '../../modules/fits/fit-release'
+import { beatFit, claimFit, failFitAttempt, finishFit, writeFitProgress } from '../../modules/fits/fit-store'
 import type { FitThreadMessage } from '../../modules/fits/fit-thread'
-import { failFit, findFit } from '../../modules/fits/fits.repo'
+import { findFit } from '../../modules/fits/fits.repo'
 import { findRun } from '../../modules/runs/runs.repo'
 import { findTraceMeta } from '../../modules/traces/traces.repo'
-import { POLL_INTERVAL_S } from '../queues'
+import { FIT_QUEUE, POLL_INTERVAL_S } from '../queues'
+import { HEARTBEAT_MS, PROGRESS_INTERVAL_MS } from '../run-executor'
 
 const THREAD_FILE = new URL('../../modules/fits/fit-thread.ts', import.meta.url)
 // The thread registers tsx itself, so it loads the same way under `node --import tsx`, the worker
 // process and vitest (whose workers do not pass --import on to new threads).
 const BOOTSTRAP = `import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(THREAD_FILE.href)}) })`
-/** At most one progress write per this period. */
-const PROGRESS_INTERVAL_MS = 1_000
+
+interface FitInHand {
+  fitId: string
+  attempt: number
+  jobId: string
+  thread: Worker
+  /** Why the thread was stopped from outside, if it was. */
+  stopped: 'gone' | 'shutdown' | null
+}
 
 export interface FitWorker {
+  /** Ids of the fits whose thread is alive now. */
+  running: () => string[]
   stop: () => Promise<void>
 }
 
-export async function startFitWorker(o: { boss: PgBoss; pool: Pool; log: Logger }): Promise<FitWorker> {
+export async function startFitWorker(o: { boss: PgBoss; pool: Pool; log: Logger; heartbeatMs?: number }): Promise<FitWorker> {
   const db = createDb(o.pool)
   const log = o.log.child({ queue: FIT_QUEUE })
-  const threads = new Set<Worker>()
-  await declareFitQueue(o.boss)
+  const inHand = new Map<string, FitInHand>()
+
+  async function runThread(fit: FitInHand): Promise<FitThreadMessage | null> {
+    let last = 0
+    let writing: Promise<unknown> = Promise.resolve()
+    const outcome = await new Promise<FitThreadMessage | null>((resolve, reject) => {
+      fit.thread.on('message', (m: FitThreadMessage) => {
+        if (m.type !== 'progress') return resolve(m)
+        if (Date.now() - last < PROGRESS_INTERVAL_MS) return
+        last = Date.now()
+        writing = writing.then(() => writeFitProgress(o.pool, fit.fitId, fit.attempt, m.fraction, m.message)).catch(() => {})
+      })
+      fit.thread.on('error', reject)
+      fit.thread.on('exit', () => resolve(null))
+    })
+    await writing
+    return outcome
+  }
 
   const handler = async ([job]: PgBoss.Job<unknown>[]) => {
     const payload = FitJobPayload.safeParse(job.data)
     if (!payload.success) return void log.error({ jobId: job.id }, 'unreadable fit job dropped')
     const { fitId } = payload.data
-    const claimed = await o.pool.query(`update fits set status = 'running', started_at = now(), progress = 0, message = 'Starting' where id = $1 and status in ('queued', 'running') returning id`, [fitId])
-    if (claimed.rowCount === 0) return // deleted, or already finished
-    const fit = (await findFit(db, fitId))!
-    const [trace, run] = await Promise.all([findTraceMeta(db, fit.traceId), findRun(db, fit.runId)])
-    if (!trace || !run) return void (await failFit(db, fitId, 'The trace or the run was deleted'))
+    const attempt = await claimFit(o.pool, fitId, job.id)
+    if (attempt === null) return // deleted, or already finished
+    const row = await findFit(db, fitId)
+    if (!row) return
+    const [trace, run] = await Promise.all([findTraceMeta(db, row.traceId), findRun(db, row.runId)])
+    if (!trace || !run) return void (await failFitAttempt(o.pool, fitId, attempt, 'The trace or the run was deleted'))
     let inputs
     try {
-      inputs = await fitInputs(db, fit.inputs, trace, run)
+      inputs = await fitInputs(db, row.inputs, trace, run)
     } catch (err) {
-      return void (await failFit(db, fitId, (err as Error).message))
+      return void (await failFitAttempt(o.pool, fitId, attempt, (err as Error).message))
     }
 
-    const abortFlag = new SharedArrayBuffer(4)
-    const thread = new Worker(BOOTSTRAP, { eval: true, workerData: { inputs, abortFlag } })
-    threads.add(thread)
-    let last = 0
-    let writing: Promise<unknown> = Promise.resolve()
-    try {
-      const outcome = await new Promise<FitThreadMessage | null>((resolve, reject) => {
-        thread.on('message', (m: FitThreadMessage) => {
-          if (m.type !== 'progress') return resolve(m)
-          if (Date.now() - last < PROGRESS_INTERVAL_MS) return
-          last = Date.now()
-          writing = writing.then(() => o.pool.query(`update fits set progress = $2, message = $3 where id = $1 and status = 'running'`, [fitId, m.fraction, m.message])).catch(() => {})
+    const fit: FitInHand = { fitId, attempt, jobId: job.id, thread: new Worker(BOOTSTRAP, { eval: true, workerData: { inputs, abortFlag: new SharedArrayBuffer(4) } }), stopped: null }
+    inHand.set(fitId, fit)
+    const beat = setInterval(() => {
+      beatFit(o.pool, fitId, attempt)
+        .then((ours) => {
+          if (ours || fit.stopped) return
+          fit.stopped = 'gone'
+          void fit.thread.terminate()
         })
-        thread.on('error', reject)
-        thread.on('exit', () => resolve(null))
-      })
-      await writing
+        // A database that does not answer is not a reason to stop: the watchdog judges by the heartbeats it sees.
+        .catch(() => {})
+    }, o.heartbeatMs ?? HEARTBEAT_MS)
+    try {
+      const outcome = await runThread(fit)
+      if (fit.stopped) return void log.info({ fitId, attempt, why: fit.stopped }, 'fit thread stopped')
       if (!outcome) throw new Error('The fit thread stopped without an answer')
-      if (outcome.type === 'error') return void (await failFit(db, fitId, outcome.message))
-      if (outcome.type === 'result') {
-        await o.pool.query(`update fits set status = 'succeeded', progress = 1, result = $2, message = $3, finished_at = now() where id = $1`, [
-          fitId,
-          JSON.stringify(outcome.result),
-          `Done after ${outcome.result.models.reduce((s, m) => s + m.evaluations, 0)} model evaluations`,
-        ])
-      }
+      if (outcome.type === 'error') return void (await failFitAttempt(o.pool, fitId, attempt, outcome.message))
+      if (outcome.type === 'result') await finishFit(o.pool, fitId, attempt, outcome.result)
     } catch (err) {
       log.error({ err, fitId }, 'fit thread failed')
-      await failFit(db, fitId, `The fit stopped unexpectedly: ${(err as Error).message}`)
+      await failFitAttempt(o.pool, fitId, attempt, `The fit stopped unexpectedly: ${(err as Error).message}`)
     } finally {
-      threads.delete(thread)
-      void thread.terminate()
+      clearInterval(beat)
+      await fit.thread.terminate()
+      inHand.delete(fitId)
     }
   }
   await o.boss.work(FIT_QUEUE, { pollingIntervalSeconds: POLL_INTERVAL_S, batchSize: 1 }, handler)
   log.info('fit worker started')
   return {
+    running: () => [...inHand.keys()],
     async stop() {
       await o.boss.offWork(FIT_QUEUE)
-      for (const t of threads) await t.terminate()
+      // Fits in hand go back to the queue at once rather than waiting for the watchdog.
+      const fits = [...inHand.values()]
+      for (const f of fits) {
+        f.stopped = 'shutdown'
+        await f.thread.terminate()
+      }
+      for (const f of fits) {
+        await releaseFit(o.pool, o.boss, f.fitId, f.attempt, f.jobId, 'The worker was shut down').catch((err) => log.warn({ err, fitId: f.fitId }, 'could not hand a fit back'))
+      }
     },
   }
 }

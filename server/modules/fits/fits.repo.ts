@@ -26,15 +26,3 @@ export async function listFits(db: Db, by: { traceId?: string; runId?: string })
     .orderBy(desc(fits.createdAt))
     .limit(50)
 }
-
-export async function setFitJob(db: Db, id: string, jobId: string): Promise<void> {
-  await db.update(fits).set({ jobId }).where(eq(fits.id, id))
-}
-
-export async function failFit(db: Db, id: string, error: string): Promise<void> {
-  await db.update(fits).set({ status: 'failed', error, finishedAt: new Date() }).where(eq(fits.id, id))
-}
-
-export async function deleteFit(db: Db, id: string): Promise<void> {
-  await db.delete(fits).where(eq(fits.id, id))
-}
