@@ -14,8 +14,10 @@ export default defineConfig({
     },
   },
   server: {
-    // Plain proxying streams server-sent events event by event; ws for any socket route.
-    proxy: { '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: true, ws: true } },
+    // Plain proxying streams server-sent events event by event; ws for any socket route. xfwd sends the address
+    // the browser used (X-Forwarded-Host/-Proto; the API trusts them from loopback), so the same-origin write
+    // check also passes when the dev server is opened by a LAN address.
+    proxy: { '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: true, ws: true, xfwd: true } },
   },
   build: { outDir: 'dist', chunkSizeWarningLimit: 1200 },
 })

@@ -7,6 +7,7 @@ import { describeDbError } from './db/describe-error'
 import { loadEnv, REPO_ROOT } from './env'
 import { createLogger } from './logger'
 import { configureMailer, stopMailer } from './modules/mail/mailer'
+import { settleAfterResponse } from './modules/auth/after-response'
 import type { QueueCheck } from './modules/health/health.service'
 import type { Router } from 'express'
 import { notifyOnFinish } from './jobs/handlers/run-finished'
@@ -53,7 +54,7 @@ const jobRoutes: Array<[string, Router]> = [
   ['/runs', runsRoutes({ db, pool, log, boss: jobs.boss, relay, quotas: config.quotas })],
   ['/queue', queueRoutes({ pool })],
   ['/traces', tracesRoutes({ db })],
-  ['/fits', fitsRoutes({ db, boss: jobs.boss })],
+  ['/fits', fitsRoutes({ db, pool, boss: jobs.boss })],
 ]
 // -------------------------------------------------------------------------------------------------
 
@@ -65,9 +66,10 @@ stoppers.unshift(sweeps.stop)
 // A group's own waveguides (the presets live in shared/ and need no route).
 jobRoutes.push(['/waveguides', waveguidesRoutes({ db })])
 
-// Mail: SMTP_URL, or the in-process catcher (listed at /api/dev/mail) when it is unset.
+// Mail: SMTP_URL, or the in-process catcher (listed at /api/admin/held-mail) when it is unset.
 await configureMailer({ smtpUrl: config.smtpUrl, log })
-stoppers.push(stopMailer)
+// Mail that requests started after answering (modules/auth/after-response.ts) is sent before the mailer stops.
+stoppers.push(settleAfterResponse, stopMailer)
 
 const auth = { jwtSecret: config.jwtSecret, appUrl: config.publicUrl }
 const app = createApp({ db, pool, log, queueCheck, routes: jobRoutes, auth, distDir: join(REPO_ROOT, 'dist') })
