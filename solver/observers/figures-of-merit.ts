@@ -55,6 +55,10 @@ export function computeFigures(
         if (pulses.length > 1) notDetermined.push({ figure: `${port}${key}Ns`, code: 'several-pulses', message: `The ${port === 'pump' ? 'pump' : 'Stokes'} input carries ${pulses.length} pulses; a delay or width describes a single pulse.` })
         return null
       }
+      if (ch[port].backgroundPowerW > 0) {
+        notDetermined.push({ figure: `${port}${key}Ns`, code: 'overlaps-pulse', message: `The ${port === 'pump' ? 'pump' : 'Stokes'} input has a continuous background under its pulse; a centroid or width would describe the mixture, not the pulse.` })
+        return null
+      }
       const endNs = pulses[0].centreNs + transitS * 1e9 + OUTPUT_TAIL_FWHM * pulseFwhmNs(pulses[0])
       if (endNs > config.windowNs) {
         notDetermined.push({ figure: `${port}${key}Ns`, code: 'window-outside-run', message: `The ${port === 'pump' ? 'pump' : 'Stokes'} pulse has not fully left the waveguide when the run ends at ${f3(config.windowNs)} ns; lengthen the window to at least ${f3(endNs)} ns.` })

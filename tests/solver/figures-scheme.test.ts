@@ -71,3 +71,19 @@ describe('cautions state the real ratio', () => {
     expect(describeRatio(986.7)).toBe('987×')
   })
 })
+
+describe('pulse figures of an amplifier', () => {
+  it('gives the delay and width of a single pulse, and says why not with two pulses or a background under it', () => {
+    const one = simulateSync(amplifier).manifest.figures!.channels[0]
+    expect(one.stokesDelayNs).toBeGreaterThan(0) // slow light: the amplified Stokes is delayed
+    expect(one.pumpOutFwhmNs).toBeGreaterThan(0)
+    const two = chipConfig({ windowNs: 12, channels: [{ pump: { pulses: [gaussian(2, 1.5, 0.3), gaussian(2, 6, 0.3)] }, stokes: { pulses: [gaussian(0.05, 1.5, 0.3)] } }] })
+    const f2 = simulateSync(two).manifest.figures!.channels[0]
+    expect(f2.pumpDelayNs).toBeNull()
+    expect(f2.notDetermined.find((d) => d.figure === 'pumpDelayNs')?.code).toBe('several-pulses')
+    const bg = chipConfig({ windowNs: 12, channels: [{ pump: { pulses: [gaussian(2, 1.5, 0.3)] }, stokes: { pulses: [gaussian(0.05, 1.5, 0.3)], backgroundPowerW: 0.01 } }] })
+    const f3 = simulateSync(bg).manifest.figures!.channels[0]
+    expect(f3.stokesDelayNs).toBeNull()
+    expect(f3.notDetermined.find((d) => d.figure === 'stokesDelayNs')?.message).toMatch(/continuous background/)
+  })
+})
