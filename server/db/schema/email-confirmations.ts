@@ -13,6 +13,8 @@ export const emailConfirmations = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     usedAt: timestamp('used_at', { withTimezone: true }),
+    /** Set for a change of address: confirming the token moves the account to this address. */
+    newEmail: text('new_email'),
   },
   (t) => [index('email_confirmations_user_id_idx').on(t.userId)],
 )

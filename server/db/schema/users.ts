@@ -13,6 +13,10 @@ export const users = pgTable(
     isAdmin: boolean('is_admin').notNull().default(false),
     /** Mail me when a run or sweep of mine finishes (opt-out). */
     notifyOnFinish: boolean('notify_on_finish').notNull().default(true),
+    /** Mail me one digest when a sweep of mine finishes (its points send none of their own). */
+    notifyOnSweepFinish: boolean('notify_on_sweep_finish').notNull().default(true),
+    /** Mail me when I am invited to a group or my role in one changes. */
+    notifyOnGroupChange: boolean('notify_on_group_change').notNull().default(true),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('users_email_lower_key').on(sql`lower(${t.email})`)],
