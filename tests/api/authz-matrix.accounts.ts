@@ -10,6 +10,7 @@ const inA = (viewer: number, editor: number, owner: number) => ({ anonymous: 401
 
 const rows: MatrixRow[] = [
   { route: 'GET /api/health', method: 'get', path: () => '/api/health', expect: all(200) },
+  { route: 'GET /api/openapi.json', method: 'get', path: () => '/api/openapi.json', expect: all(200) },
   { route: 'GET /api/me', method: 'get', path: () => '/api/me', expect: signedIn(200) },
   { route: 'PATCH /api/me', method: 'patch', path: () => '/api/me', body: () => ({ notifyOnFinish: false }), expect: signedIn(200) },
   { route: 'POST /api/auth/sign-out', method: 'post', path: () => '/api/auth/sign-out', expect: all(204) },
