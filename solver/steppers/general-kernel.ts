@@ -1,0 +1,268 @@
+/*
+ * The general interaction kernel: any number of channels, optional higher-order acoustics, Kerr and thermal
+ * noise. It implements steps 1–5 of the contract at the top of interaction-kernel.ts (equations there), one
+ * named function per step; interactSvea is the same arithmetic written flat for the plain one-channel case.
+ */
+import type { Model } from '../problem/coupled-modes'
+import type { NormalSource } from '../noise/random'
+import type { FieldState } from './interaction-kernel'
+
+/*
+ * General path, as the named steps of the contract above. Per-channel scratch (SCRATCH_PER_CHANNEL numbers at
+ * o = SCRATCH_PER_CHANNEL·k): [o, o+1] b̃ then b̄, [o+2, o+3] D₀, [o+4, o+5] B seen by this channel's optics,
+ * [o+6, o+7] the step's noise draw, [o+8, o+9] the extra draw that restores the variance of b̄ (SVEA noise).
+ * The steps run in this order and each loops over the channels, so the random draws keep their order
+ * (per channel: the kick, then the mean's draw) and every sum keeps its rounding: the results are the same
+ * bit for bit as the one-function kernel before the split (tests/solver/kernel-bits.test.ts).
+ */
+
+/** Numbers of scratch per channel (layout above). */
+export const SCRATCH_PER_CHANNEL = 10
+
+/** General path: any number of channels, optional higher-order acoustics, Kerr and thermal noise. */
+export function interactGeneral(m: Model, s: FieldState, j: number, weight: number, rng: NormalSource | null): void {
+  predictAcoustic(m, s, j)
+  if (rng !== null) drawThermalNoise(m, s, j, weight, rng)
+  averageAcoustic(m, s, j, rng !== null && m.higherOrder === null)
+  const kerr = m.kerrHalfPump !== 0 || m.kerrHalfStokes !== 0
+  if (kerr) kerrHalfStep(m, s, j, weight)
+  fieldSeenByOptics(m, s, j)
+  exchangeOptics(m, s, j, weight)
+  if (kerr) kerrHalfStep(m, s, j, weight)
+  if (m.higherOrder === null) correctSvea(m, s, j, rng !== null)
+  else correctHigherOrder(m, s, j, rng !== null)
+}
+
+/** Step 2, predictor: D₀ = iκAₚAₛ* from the entry fields, and the noise-free b̃ (SVEA or ETD). */
+function predictAcoustic(m: Model, s: FieldState, j: number): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm, scratch } = s
+  const K = m.driveK
+  const h = m.dtS
+  const Er = m.svea.eRe
+  const Ei = m.svea.eIm
+  const ho = m.higherOrder
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    const o = SCRATCH_PER_CHANNEL * k
+    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    if (ho === null) {
+      const tr = br + h * d0r
+      const ti = bi + h * d0i
+      scratch[o] = Er * tr - Ei * ti
+      scratch[o + 1] = Er * ti + Ei * tr
+    } else {
+      // g0 = (0, f)·D0 = (−f·D0i, f·D0r), f = −2Ω
+      const g0r = -ho.sourceFactor[1] * d0i
+      const g0i = ho.sourceFactor[1] * d0r
+      const wr = wRe[i], wi = wIm[i]
+      scratch[o] = ho.e00[0] * br - ho.e00[1] * bi + ho.e01[0] * wr - ho.e01[1] * wi + ho.p0b[0] * g0r - ho.p0b[1] * g0i
+      scratch[o + 1] = ho.e00[0] * bi + ho.e00[1] * br + ho.e01[0] * wi + ho.e01[1] * wr + ho.p0b[0] * g0i + ho.p0b[1] * g0r
+    }
+    scratch[o + 2] = d0r
+    scratch[o + 3] = d0i
+  }
+}
+
+/**
+ * Step 5, noise draw: the step's random kick, drawn before the corrector and added to b̃ too, so b̄ carries the
+ * noise of the whole step (docs/numerics.md, "Thermal noise"); adding it only after the corrector would scale
+ * the noise that the light sees by (1 + E)/2, a first-order error in the spontaneous Stokes power.
+ */
+function drawThermalNoise(m: Model, s: FieldState, j: number, weight: number, rng: NormalSource): void {
+  const scratch = s.scratch
+  const ho = m.higherOrder
+  const sd = (ho === null ? m.noiseKickRms : m.noiseForceRms) * Math.SQRT1_2 * noiseWeight(weight)
+  const sdMean = m.noiseMeanRms * Math.SQRT1_2 * noiseWeight(weight)
+  for (let k = 0; k < m.nCh; k++) {
+    const o = SCRATCH_PER_CHANNEL * k
+    const xr = sd * rng.normal(), xi = sd * rng.normal()
+    scratch[o + 6] = xr
+    scratch[o + 7] = xi
+    if (ho === null) {
+      scratch[o] += xr
+      scratch[o + 1] += xi
+      // The trapezoid mean (b + b̃)/2 of the noisy path has the right low-frequency spectrum but a variance
+      // short by V(1 − Re E)/2 (its high-frequency part, ≈ Γ_B Δt/4): an independent white draw of that
+      // variance restores ⟨|b̄|²⟩ = V without touching the spectrum near the gain line.
+      scratch[o + 8] = sdMean * rng.normal()
+      scratch[o + 9] = sdMean * rng.normal()
+    } else {
+      // Langevin force held constant over the step: g = (0, f)·F enters like the light's source.
+      const f = ho.sourceFactor[1]
+      const gr = -f * xi, gi = f * xr
+      scratch[o] += ho.p0b[0] * gr - ho.p0b[1] * gi
+      scratch[o + 1] += ho.p0b[0] * gi + ho.p0b[1] * gr
+    }
+  }
+}
+
+/** b̄ = (b + b̃)/2, the acoustic field the light sees over the step, plus the mean's own draw with SVEA noise. */
+function averageAcoustic(m: Model, s: FieldState, j: number, meanDraw: boolean): void {
+  const { bRe, bIm, scratch } = s
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    const o = SCRATCH_PER_CHANNEL * k
+    scratch[o] = 0.5 * (bRe[i] + scratch[o])
+    scratch[o + 1] = 0.5 * (bIm[i] + scratch[o + 1])
+    if (meanDraw) {
+      scratch[o] += scratch[o + 8]
+      scratch[o + 1] += scratch[o + 9]
+    }
+  }
+}
+
+/** B_k = e^{−i q_k z} Σ_m b̄_m e^{i q_m z}: every channel's grating as channel k's optics see it (b̄ itself for one). */
+function fieldSeenByOptics(m: Model, s: FieldState, j: number): void {
+  const scratch = s.scratch
+  const nCh = m.nCh
+  const nodes = m.nodes
+  for (let k = 0; k < nCh; k++) {
+    const o = SCRATCH_PER_CHANNEL * k
+    let Br = scratch[o], Bi = scratch[o + 1]
+    if (nCh > 1) {
+      const pr = m.phaseRe!, pim = m.phaseIm!
+      let sr = 0, si = 0
+      for (let mm = 0; mm < nCh; mm++) {
+        const x = scratch[SCRATCH_PER_CHANNEL * mm], y = scratch[SCRATCH_PER_CHANNEL * mm + 1]
+        const cr = pr[mm * nodes + j], ci = pim[mm * nodes + j]
+        sr += x * cr - y * ci
+        si += x * ci + y * cr
+      }
+      const kr = pr[k * nodes + j], ki = pim[k * nodes + j]
+      Br = sr * kr + si * ki
+      Bi = si * kr - sr * ki
+    }
+    scratch[o + 4] = Br
+    scratch[o + 5] = Bi
+  }
+}
+
+/** Step 3, optical exchange with B frozen: the Cayley (unitary) rotation of (u, v), β = exchangePerB·weight·B. */
+function exchangeOptics(m: Model, s: FieldState, j: number, weight: number): void {
+  const { uRe, uIm, vRe, vIm, scratch } = s
+  const c = m.exchangePerB * weight
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    const o = SCRATCH_PER_CHANNEL * k
+    const betaR = c * scratch[o + 4], betaI = c * scratch[o + 5]
+    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + q)
+    const a = 1 - q
+    uRe[i] = (a * ur - betaR * vi - betaI * vr) * den
+    uIm[i] = (a * ui + betaR * vr - betaI * vi) * den
+    vRe[i] = (a * vr - betaR * ui + betaI * ur) * den
+    vIm[i] = (a * vi + betaR * ur + betaI * ui) * den
+  }
+}
+
+/** Step 4, SVEA corrector: b ← e^{−λΔt}(b + Δt/2·D₀) + Δt/2·D₁, plus the exact Ornstein–Uhlenbeck kick drawn for the predictor. */
+function correctSvea(m: Model, s: FieldState, j: number, noise: boolean): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm, scratch } = s
+  const K = m.driveK
+  const hh = 0.5 * m.dtS
+  const Er = m.svea.eRe
+  const Ei = m.svea.eIm
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    const o = SCRATCH_PER_CHANNEL * k
+    const nur = uRe[i], nui = uIm[i], nvr = vRe[i], nvi = vIm[i]
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const d0r = scratch[o + 2], d0i = scratch[o + 3]
+    const br = bRe[i], bi = bIm[i]
+    const sr = br + hh * d0r
+    const si = bi + hh * d0i
+    let nbr = Er * sr - Ei * si + hh * d1r
+    let nbi = Er * si + Ei * sr + hh * d1i
+    if (noise) {
+      nbr += scratch[o + 6]
+      nbi += scratch[o + 7]
+    }
+    bRe[i] = nbr
+    bIm[i] = nbi
+  }
+}
+
+/**
+ * Step 4, higher-order corrector: the ETD step of (b, ∂t b) with the source interpolated linearly over the
+ * step, y₁ = E y₀ + (P₀ − P₁) g₀ + P₁ g₁, plus the Langevin force drawn for the predictor, held over the step.
+ */
+function correctHigherOrder(m: Model, s: FieldState, j: number, noise: boolean): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm, scratch } = s
+  const K = m.driveK
+  const ho = m.higherOrder!
+  const f = ho.sourceFactor[1]
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    const o = SCRATCH_PER_CHANNEL * k
+    const nur = uRe[i], nui = uIm[i], nvr = vRe[i], nvi = vIm[i]
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const d0r = scratch[o + 2], d0i = scratch[o + 3]
+    const br = bRe[i], bi = bIm[i]
+    // g = (0, f)·D = (−f·Di, f·Dr)
+    let g0r = -f * d0i, g0i = f * d0r
+    const g1r = -f * d1i, g1i = f * d1r
+    const wr = wRe[i], wi = wIm[i]
+    const qbr = ho.p0b[0] - ho.p1b[0], qbi = ho.p0b[1] - ho.p1b[1]
+    const qwr = ho.p0w[0] - ho.p1w[0], qwi = ho.p0w[1] - ho.p1w[1]
+    let nbr = ho.e00[0] * br - ho.e00[1] * bi + ho.e01[0] * wr - ho.e01[1] * wi + qbr * g0r - qbi * g0i + ho.p1b[0] * g1r - ho.p1b[1] * g1i
+    let nbi = ho.e00[0] * bi + ho.e00[1] * br + ho.e01[0] * wi + ho.e01[1] * wr + qbr * g0i + qbi * g0r + ho.p1b[0] * g1i + ho.p1b[1] * g1r
+    let nwr = ho.e10[0] * br - ho.e10[1] * bi + ho.e11[0] * wr - ho.e11[1] * wi + qwr * g0r - qwi * g0i + ho.p1w[0] * g1r - ho.p1w[1] * g1i
+    let nwi = ho.e10[0] * bi + ho.e10[1] * br + ho.e11[0] * wi + ho.e11[1] * wr + qwr * g0i + qwi * g0r + ho.p1w[0] * g1i + ho.p1w[1] * g1r
+    if (noise) {
+      // The Langevin force drawn for the predictor: g = (0, f)·F, F complex normal, E|F|² = noiseForceRms².
+      const Fr = scratch[o + 6], Fi = scratch[o + 7]
+      g0r = -f * Fi
+      g0i = f * Fr
+      nbr += ho.p0b[0] * g0r - ho.p0b[1] * g0i
+      nbi += ho.p0b[0] * g0i + ho.p0b[1] * g0r
+      nwr += ho.p0w[0] * g0r - ho.p0w[1] * g0i
+      nwi += ho.p0w[0] * g0i + ho.p0w[1] * g0r
+    }
+    bRe[i] = nbr
+    bIm[i] = nbi
+    wRe[i] = nwr
+    wIm[i] = nwi
+  }
+}
+
+/**
+ * Noise amplitude factor of a node of trapezoid weight w: a facet node stands for half a cell, so its
+ * acoustic field carries twice the variance per node (ħω_s n_th/(wΔz)), which keeps the noise per unit
+ * length right at the facets.
+ */
+export function noiseWeight(weight: number): number {
+  return weight === 1 ? 1 : Math.sqrt(1 / weight)
+}
+
+/** SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation. */
+function kerrHalfStep(m: Model, s: FieldState, j: number, weight: number): void {
+  const { uRe, uIm, vRe, vIm } = s
+  let total = 0
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    total += m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+  }
+  for (let k = 0; k < m.nCh; k++) {
+    const i = k * m.nodes + j
+    const pp = m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i])
+    const ps = m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+    rotate(uRe, uIm, i, m.kerrHalfPump * weight * (2 * total - pp))
+    rotate(vRe, vIm, i, m.kerrHalfStokes * weight * (2 * total - ps))
+  }
+}
+
+/** Multiply element i by (1 + iφ/2)/(1 − iφ/2): unit modulus, phase 2·atan(φ/2) = φ + O(φ³). */
+function rotate(re: Float64Array, im: Float64Array, i: number, phi: number): void {
+  const q = 0.25 * phi * phi
+  const cr = (1 - q) / (1 + q)
+  const ci = phi / (1 + q)
+  const r = re[i], x = im[i]
+  re[i] = cr * r - ci * x
+  im[i] = cr * x + ci * r
+}
+
