@@ -1,4 +1,7 @@
-// Command line of `npm run solve -- config.json --out dir/ [--force]` and `npm run solve -- --schema`.
+// Command line of `npm run solve -- config.json --out dir/ [--force]` and `npm run solve -- --schema`, read
+// with node:util parseArgs. Its tokens are checked here rather than in its strict mode, so every mistake gets
+// a message in our words (which option, what it needs) instead of Node's.
+import { parseArgs as parseArgv } from 'node:util'
 
 export interface SolveArgs {
   mode: 'solve' | 'schema' | 'help'
@@ -18,22 +21,41 @@ Exit codes: 0 done, 1 the run failed, 2 bad input or over the resource limits, 1
 
 export class UsageError extends Error {}
 
+const OPTIONS = {
+  out: { type: 'string', short: 'o' },
+  force: { type: 'boolean' },
+  schema: { type: 'boolean' },
+  help: { type: 'boolean', short: 'h' },
+} as const
+
+type OptionName = keyof typeof OPTIONS
+const isOption = (name: string): name is OptionName => Object.hasOwn(OPTIONS, name)
+
 export function parseArgs(argv: string[]): SolveArgs {
+  const { tokens } = parseArgv({ args: argv, options: OPTIONS, allowPositionals: true, strict: false, tokens: true })
   const args: SolveArgs = { mode: 'solve', force: false }
-  for (let i = 0; i < argv.length; i++) {
-    const a = argv[i]
-    if (a === '--schema') args.mode = 'schema'
-    else if (a === '--help' || a === '-h') args.mode = 'help'
-    else if (a === '--force') args.force = true
-    else if (a === '--out' || a === '-o') {
-      const v = argv[++i]
-      if (v === undefined || v.startsWith('--')) throw new UsageError('--out needs a directory')
-      args.outDir = v
-    } else if (a.startsWith('--out=')) args.outDir = a.slice('--out='.length)
-    else if (a.startsWith('-')) throw new UsageError(`Unknown option ${a}`)
-    else if (args.configPath === undefined) args.configPath = a
-    else throw new UsageError(`Unexpected argument ${a}; give one configuration file`)
+  let configPath: string | undefined
+  for (const t of tokens) {
+    if (t.kind === 'positional') {
+      if (configPath !== undefined) throw new UsageError(`Unexpected argument ${t.value}; give one configuration file`)
+      configPath = t.value
+      continue
+    }
+    if (t.kind !== 'option') continue
+    if (!isOption(t.name)) throw new UsageError(`Unknown option ${t.rawName}`)
+    if (OPTIONS[t.name].type === 'boolean') {
+      if (t.inlineValue) throw new UsageError(`${t.rawName} takes no value`)
+      if (t.name === 'force') args.force = true
+      // --help wins over --schema whatever their order: asking for help never prints the schema.
+      else if (t.name === 'help') args.mode = 'help'
+      else if (args.mode !== 'help') args.mode = 'schema'
+      continue
+    }
+    // Without '=', a value starting with '-' is most likely the next option, not a directory.
+    if (t.value === undefined || (!t.inlineValue && t.value.startsWith('-'))) throw new UsageError(`${t.rawName} needs a directory (write --out=DIR for a name that starts with "-")`)
+    args.outDir = t.value
   }
+  args.configPath = configPath
   if (args.mode === 'solve') {
     if (args.configPath === undefined) throw new UsageError('Give a configuration file')
     if (args.outDir === undefined || args.outDir.length === 0) throw new UsageError('Give an output directory with --out DIR')
