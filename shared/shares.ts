@@ -4,6 +4,10 @@ import { safeText } from './text'
 /** Names a module registered with the share service ('run', 'sweep', ...). */
 export const ShareResourceType = safeText({ error: 'Resource type is required' }).trim().min(1).max(40).regex(/^[a-z][a-z0-9-]*$/, 'Not a resource type')
 
+/** `?share=<token>` on the read routes of a shareable resource: it stands in for the viewer role. */
+export const ShareTokenQuery = z.object({ share: safeText().max(200).optional().describe('Share-link token, for readers outside the group') })
+export type ShareTokenQuery = z.infer<typeof ShareTokenQuery>
+
 export const ShareCreateBody = z.object({
   resourceType: ShareResourceType,
   resourceId: z.uuid({ error: 'Not a valid id' }),

@@ -3,6 +3,7 @@
 import { z } from 'zod'
 import { safeText } from './text'
 import { RUN_NOTES_MAX, RUN_TITLE_MAX, RunState } from './runs'
+import { ShareTokenQuery } from './shares'
 import { SimulationConfig } from './simulation-config'
 import { SWEEP_FIELD_IDS, sweepField } from './sweep-fields'
 
@@ -190,9 +191,8 @@ export const SweepList = z.object({
 })
 export type SweepList = z.infer<typeof SweepList>
 
-export const SweepDownloadQuery = z.object({
+export const SweepDownloadQuery = ShareTokenQuery.extend({
   arrays: z.enum(['0', '1', 'true', 'false']).optional().transform((v) => v === '1' || v === 'true'),
-  share: safeText().max(200).optional(),
 })
 
 /** "Pulse width [read] (ns)". */

@@ -1,6 +1,7 @@
 import { Router, type Request } from 'express'
 import { z } from 'zod'
 import { RunClone, RunCreate, RunListQuery } from '@shared/runs'
+import { ShareTokenQuery } from '@shared/shares'
 import { safeText } from '@shared/text'
 import { AppError, conflict, notFound } from '../../errors'
 import { validate } from '../../middleware/validate'
@@ -10,7 +11,7 @@ import { ArrayQuery, sendArray } from './run-arrays'
 import { streamRunZip } from './run-download'
 import type { RunEventRelay } from './run-event-relay'
 import { streamRunEvents } from './run-events.routes'
-import { registerShareable } from '../shares'
+import { registerShareable, shareTokenOf } from '../shares'
 import { findArray, findRun } from './runs.repo'
 import { cancelRun, cloneRun, createRun, getRun, listRunsFor, runFor, type RunsDeps } from './runs.service'
 
@@ -43,7 +44,7 @@ export function runsRoutes(deps: RunsDeps & { relay: RunEventRelay }): Router {
   })
 
   r.get('/:id', async (req, res) => {
-    res.set('Cache-Control', 'no-store').json(await getRun(deps, req.auth, String(req.params.id), req.query.share))
+    res.set('Cache-Control', 'no-store').json(await getRun(deps, req.auth, String(req.params.id), shareTokenOf(req)))
   })
 
   r.post('/:id/cancel', requireAuth, async (req, res) => {
@@ -56,12 +57,12 @@ export function runsRoutes(deps: RunsDeps & { relay: RunEventRelay }): Router {
   })
 
   r.get('/:id/events', async (req, res) => {
-    const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', req.query.share)
+    const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', shareTokenOf(req))
     await streamRunEvents(req, res, run, deps.pool, deps.relay)
   })
 
-  r.get('/:id/arrays/:name', validate({ params: ArrayName, query: ArrayQuery.extend({ share: safeText().max(200).optional() }) }), async (req, res) => {
-    const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', req.query.share)
+  r.get('/:id/arrays/:name', validate({ params: ArrayName, query: ArrayQuery.extend(ShareTokenQuery.shape) }), async (req, res) => {
+    const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', shareTokenOf(req))
     if (run.status !== 'succeeded') throw conflict(`The run has no results yet (it is ${run.status})`)
     const a = await findArray(deps.db, run.id, run.attempt, String(req.params.name))
     if (!a) throw notFound(`Array ${String(req.params.name)}`)
@@ -69,7 +70,7 @@ export function runsRoutes(deps: RunsDeps & { relay: RunEventRelay }): Router {
   })
 
   r.get('/:id/download', async (req, res) => {
-    const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', req.query.share)
+    const run = await runFor(deps, req.auth, String(req.params.id), 'viewer', shareTokenOf(req))
     if (run.status !== 'succeeded' || !run.manifest) throw conflict(`Only finished runs can be downloaded; this one is ${run.status}`)
     await streamRunZip(res, deps.db, run, req.log)
   })

@@ -13,8 +13,8 @@ import { bossDb } from '../../jobs/requeue'
 import { RUN_QUEUE } from '../../jobs/queues'
 import { nextSingleRunRank, singleRunPriority } from '../../jobs/fair-priority'
 import { inTransaction } from '../../jobs/run-store'
-import { groupRoleOf, requireGroupRole, type Role } from '../../policy/access'
-import { resolveShare } from '../shares'
+import { requireGroupRole, type Role } from '../../policy/access'
+import { requireResourceAccess } from '../shares'
 import { isUuid } from '../../policy/ids'
 import type { AuthContext } from '../auth/auth-context'
 import { enforceQuotas, type QuotaConfig } from '../quotas'
@@ -38,17 +38,12 @@ export const IDEMPOTENCY_WINDOW_MS = 60 * 60 * 1000
 
 /**
  * The run, if the caller may act on it with at least `minRole`; 404 otherwise (ids of other groups' runs
- * do not leak). For reads, a valid share token (?share=) stands in for the viewer role.
+ * do not leak). For reads, a valid share token (?share=) stands in for the viewer role (modules/shares).
  */
-export async function runFor(deps: RunsDeps, auth: AuthContext | undefined, id: string, minRole: Role, shareToken?: unknown): Promise<RunRow> {
+export async function runFor(deps: RunsDeps, auth: AuthContext | undefined, id: string, minRole: Role, shareToken?: string): Promise<RunRow> {
   const run = isUuid(id) ? await findRun(deps.db, id) : null
   if (!run) throw notFound('Run')
-  if (minRole === 'viewer' && typeof shareToken === 'string') {
-    const member = auth ? await groupRoleOf(deps.db, auth.userId, run.groupId) : null
-    if (member || (await resolveShare(deps.db, shareToken, 'run', run.id, auth))) return run
-    throw notFound('Run')
-  }
-  await requireGroupRole(deps.db, auth, run.groupId, minRole, 'Run')
+  await requireResourceAccess(deps.db, auth, { type: 'run', id: run.id, groupId: run.groupId, label: 'Run' }, minRole, shareToken)
   return run
 }
 
@@ -133,7 +128,7 @@ export async function cancelRun(deps: RunsDeps, auth: AuthContext | undefined, i
   return toDetail((await findRun(deps.db, run.id))!)
 }
 
-export async function getRun(deps: RunsDeps, auth: AuthContext | undefined, id: string, shareToken?: unknown): Promise<RunDetail> {
+export async function getRun(deps: RunsDeps, auth: AuthContext | undefined, id: string, shareToken?: string): Promise<RunDetail> {
   const run = await runFor(deps, auth, id, 'viewer', shareToken)
   return toDetail(run, await queuePositionOf(deps.db, run))
 }

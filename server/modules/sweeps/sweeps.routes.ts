@@ -3,7 +3,7 @@ import { SweepCreate, SweepDefinition, SweepDownloadQuery, SweepListQuery } from
 import { validate } from '../../middleware/validate'
 import { isUuid } from '../../policy/ids'
 import { requireAuth } from '../auth/auth.middleware'
-import { registerShareable } from '../shares'
+import { registerShareable, shareTokenOf } from '../shares'
 import { streamSweepZip } from './sweep-download'
 import { findSweep } from './sweeps.repo'
 import { cancelSweep, createSweep, estimateSweepFor, getSweep, listSweepsFor, rerunFailed, type SweepsDeps } from './sweeps.service'
@@ -27,7 +27,7 @@ export function sweepsRoutes(deps: SweepsDeps): Router {
   })
 
   r.get('/:id', async (req, res) => {
-    res.set('Cache-Control', 'no-store').json(await getSweep(deps, req.auth, String(req.params.id), req.query.share))
+    res.set('Cache-Control', 'no-store').json(await getSweep(deps, req.auth, String(req.params.id), shareTokenOf(req)))
   })
 
   r.post('/:id/cancel', requireAuth, async (req, res) => {
@@ -40,7 +40,7 @@ export function sweepsRoutes(deps: SweepsDeps): Router {
 
   r.get('/:id/download', validate({ query: SweepDownloadQuery }), async (req, res) => {
     const q = req.query as unknown as { arrays: boolean; share?: string }
-    const sweep = await getSweep(deps, req.auth, String(req.params.id), q.share)
+    const sweep = await getSweep(deps, req.auth, String(req.params.id), shareTokenOf(req))
     await streamSweepZip(res, deps.db, sweep, q.arrays, req.log)
   })
 

@@ -11,12 +11,12 @@ import type { Db } from '../../db/client'
 import { AppError, conflict, notFound } from '../../errors'
 import type { Logger } from '../../logger'
 import { RUN_QUEUE } from '../../jobs/queues'
-import { groupRoleOf, requireGroupRole, type Role } from '../../policy/access'
+import { requireGroupRole, type Role } from '../../policy/access'
 import { isUuid } from '../../policy/ids'
 import type { AuthContext } from '../auth/auth-context'
 import { inTransaction } from '../../jobs/run-store'
 import { enforceQuotas, type QuotaConfig } from '../quotas'
-import { resolveShare } from '../shares'
+import { requireResourceAccess } from '../shares'
 import type { SweepFeeder } from './sweep-feeder'
 import { pointValues, toSweepDetail, toSweepSummary } from './sweeps.mapper'
 import { cancelSweepRuns, findSweep, insertSweep, listSweeps, pointRuns, rerunFailedPoints, type NewPointRun, type SweepRow } from './sweeps.repo'
@@ -32,16 +32,11 @@ export interface SweepsDeps {
   quotas?: QuotaConfig
 }
 
-/** The sweep if the caller may act on it with `minRole`; a share token stands in for the viewer role. */
-export async function sweepFor(deps: SweepsDeps, auth: AuthContext | undefined, id: string, minRole: Role, shareToken?: unknown): Promise<SweepRow> {
+/** The sweep if the caller may act on it with `minRole`; a share token stands in for the viewer role (modules/shares). */
+export async function sweepFor(deps: SweepsDeps, auth: AuthContext | undefined, id: string, minRole: Role, shareToken?: string): Promise<SweepRow> {
   const sweep = isUuid(id) ? await findSweep(deps.pool, id) : null
   if (!sweep) throw notFound('Sweep')
-  if (minRole === 'viewer' && typeof shareToken === 'string') {
-    const member = auth ? await groupRoleOf(deps.db, auth.userId, sweep.groupId) : null
-    if (member || (await resolveShare(deps.db, shareToken, 'sweep', sweep.id, auth))) return sweep
-    throw notFound('Sweep')
-  }
-  await requireGroupRole(deps.db, auth, sweep.groupId, minRole, 'Sweep')
+  await requireResourceAccess(deps.db, auth, { type: 'sweep', id: sweep.id, groupId: sweep.groupId, label: 'Sweep' }, minRole, shareToken)
   return sweep
 }
 
@@ -94,7 +89,7 @@ export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefine
   return getSweep(deps, auth, id)
 }
 
-export async function getSweep(deps: SweepsDeps, auth: AuthContext | undefined, id: string, shareToken?: unknown): Promise<SweepDetail> {
+export async function getSweep(deps: SweepsDeps, auth: AuthContext | undefined, id: string, shareToken?: string): Promise<SweepDetail> {
   const sweep = await sweepFor(deps, auth, id, 'viewer', shareToken)
   return toSweepDetail(sweep, await pointRuns(deps.pool, sweep.id))
 }
