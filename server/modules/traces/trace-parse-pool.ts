@@ -33,23 +33,38 @@ interface Job {
   seq: number
   bytes: Uint8Array
   settings: TraceImportSettings
+  deadlineMs: number
   resolve: (r: ParseSuccess | ParseFailure) => void
   reject: (err: Error) => void
+}
+
+export interface TraceParsePoolOptions {
+  /** The thread's heap limit (MB). */
+  heapMb?: number
+  /** How long one parse may take (ms), unless the call says otherwise. */
+  deadlineMs?: number
 }
 
 export class TraceParsePool {
   /** Files parsed to an answer so far (successes and refusals), for the tests that check the thread did the work. */
   answered = 0
+  private readonly heapMb: number
+  private readonly deadlineMs: number
   private thread: Worker | null = null
   private ready: Promise<void> | null = null
   private queue: Job[] = []
   private current: Job | null = null
   private seq = 0
 
+  constructor(o: TraceParsePoolOptions = {}) {
+    this.heapMb = o.heapMb ?? THREAD_HEAP_MB
+    this.deadlineMs = o.deadlineMs ?? PARSE_DEADLINE_MS
+  }
+
   /** Parses `bytes` in the thread. The bytes are copied, so the caller keeps its buffer. */
-  parse(bytes: Uint8Array, settings: TraceImportSettings): Promise<ParseSuccess | ParseFailure> {
+  parse(bytes: Uint8Array, settings: TraceImportSettings, o: { deadlineMs?: number } = {}): Promise<ParseSuccess | ParseFailure> {
     return new Promise((resolve, reject) => {
-      this.queue.push({ seq: ++this.seq, bytes, settings, resolve, reject })
+      this.queue.push({ seq: ++this.seq, bytes, settings, deadlineMs: o.deadlineMs ?? this.deadlineMs, resolve, reject })
       this.pump()
     })
   }
@@ -64,7 +79,7 @@ export class TraceParsePool {
 
   private start(): Promise<void> {
     if (this.ready) return this.ready
-    const thread = new Worker(BOOTSTRAP, { eval: true, resourceLimits: { maxOldGenerationSizeMb: THREAD_HEAP_MB } })
+    const thread = new Worker(BOOTSTRAP, { eval: true, resourceLimits: { maxOldGenerationSizeMb: this.heapMb } })
     // An idle thread must not keep the process alive; a request waiting for it keeps its own socket open.
     thread.unref()
     this.thread = thread
@@ -80,7 +95,7 @@ export class TraceParsePool {
       thread.on('error', (err: Error & { code?: string }) => {
         lost =
           err.code === 'ERR_WORKER_OUT_OF_MEMORY'
-            ? new ParseThreadError(`the file needs more than the ${THREAD_HEAP_MB} MB of memory one upload may use`, 'memory')
+            ? new ParseThreadError(`the file needs more than the ${this.heapMb} MB of memory one upload may use`, 'memory')
             : new ParseThreadError(`the parser stopped: ${err.message}`, 'crash')
       })
       thread.on('exit', () => {
@@ -121,13 +136,13 @@ export class TraceParsePool {
         this.thread.postMessage({ seq: job.seq, bytes, settings: job.settings }, [bytes.buffer])
         const thread = this.thread
         this.timer = setTimeout(() => {
-          this.finish(job, () => job.reject(new ParseThreadError(`reading the file took longer than ${PARSE_DEADLINE_MS / 1000} s`, 'deadline')))
+          this.finish(job, () => job.reject(new ParseThreadError(`reading the file took longer than ${job.deadlineMs / 1000} s`, 'deadline')))
           if (this.thread === thread) {
             this.thread = null
             this.ready = null
           }
           void thread.terminate()
-        }, PARSE_DEADLINE_MS)
+        }, job.deadlineMs)
         this.timer.unref()
       },
       (err: Error) => this.finish(job, () => job.reject(err)),

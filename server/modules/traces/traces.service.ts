@@ -52,7 +52,7 @@ async function parseUpload(pool: TraceParsePool, file: UploadedFile, settings: T
   try {
     answer = await pool.parse(file.buffer, settings)
   } catch (err) {
-    if (err instanceof ParseThreadError && err.reason !== 'crash') throw new AppError('unreadable_trace', 422, `${file.originalname}: ${err.message}`)
+    if (err instanceof ParseThreadError && err.reason !== 'crash') throw new AppError('unreadable_trace', 422, `${file.originalname}: ${err.message}`, { where: {} })
     throw err
   }
   if (!answer.ok) {
