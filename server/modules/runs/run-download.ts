@@ -5,6 +5,7 @@ import { ZipArchive } from 'archiver'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
 import { arrayFileName, npyDescrOf, npyHeader, type RunManifest } from '../../../solver/index'
+import { splitComplex } from './array-window'
 import { findArray, type RunRow, type StoredArray } from './runs.repo'
 
 const PORTS = ['pump_in', 'stokes_in', 'pump_out', 'stokes_out'] as const
@@ -20,15 +21,16 @@ function f64(a: StoredArray): Float64Array {
 /** One CSV per channel: time, then re, im and power of each port trace. */
 export function tracesCsv(time: StoredArray, traces: StoredArray[]): string {
   const t = f64(time)
-  const cols = traces.map((a) => ({ name: a.name, v: f64(a) }))
+  // Each interleaved complex trace split into its real and imaginary parts (strided views, array-window.ts).
+  const cols = traces.map((a) => ({ name: a.name, ...splitComplex(f64(a)) }))
   const unit = asciiUnits(traces[0]?.units ?? 'W')
   const header = ['time (ns)', ...cols.flatMap((c) => [`${c.name} re (${unit})`, `${c.name} im (${unit})`, `${c.name} power (W)`])]
   const lines = [header.join(',')]
   for (let n = 0; n < t.length; n++) {
     const row = [String(t[n])]
     for (const c of cols) {
-      const re = c.v[2 * n]
-      const im = c.v[2 * n + 1]
+      const re = c.re[n]
+      const im = c.im[n]
       row.push(String(re), String(im), String(re * re + im * im))
     }
     lines.push(row.join(','))
