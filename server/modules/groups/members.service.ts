@@ -6,6 +6,7 @@ import { AppError, notFound } from '../../errors'
 import { requireGroupRole, type Role } from '../../policy/access'
 import { isUuid } from '../../policy/ids'
 import type { AuthContext } from '../auth/auth-context'
+import { notifyRoleChanged } from '../mail/notify-group'
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 
@@ -43,13 +44,16 @@ async function memberRole(tx: Tx, groupId: string, userId: string): Promise<Role
 /** Owners change anyone's role, their own included, as long as an owner remains. */
 export async function changeRole(db: Db, auth: AuthContext | undefined, groupId: string, userId: string, role: Role): Promise<GroupMember[]> {
   await requireGroupRole(db, auth, groupId, 'owner', 'Group')
-  await db.transaction(async (tx) => {
+  const before = await db.transaction(async (tx) => {
     const owners = await lockOwners(tx, groupId)
     const current = await memberRole(tx, groupId, userId)
     if (!current) throw notFound('Member')
     if (current === 'owner' && role !== 'owner' && owners.length <= 1) throw lastOwner()
     await tx.update(memberships).set({ role }).where(and(eq(memberships.groupId, groupId), eq(memberships.userId, userId)))
+    return current
   })
+  // The change stands whether or not the notice can be mailed.
+  if (before !== role) await notifyRoleChanged(db, { userId, groupId, role, byUserId: auth!.userId }).catch(() => false)
   return listMembers(db, auth, groupId)
 }
 
