@@ -14,6 +14,8 @@ export class ApiError extends Error {
     message: string,
     readonly fields: ApiFieldError[] = [],
     readonly requestId?: string,
+    /** What the server knew beyond the message; its shape per code is ERROR_DETAILS in shared/api-error.ts. */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message)
   }
@@ -46,7 +48,7 @@ export function apiErrorFrom(status: number, body: unknown): ApiError {
   const parsed = ApiErrorBody.safeParse(body)
   if (parsed.success) {
     const e = parsed.data.error
-    return new ApiError(status, e.code, e.message, e.fields ?? [], e.requestId)
+    return new ApiError(status, e.code, e.message, e.fields ?? [], e.requestId, e.details ?? {})
   }
   const message = STATUS_TEXT[status] ?? `The server answered with status ${status}.`
   return new ApiError(status, `http_${status}`, message)

@@ -39,6 +39,15 @@ async function readBody(res: Response): Promise<unknown> {
   }
 }
 
+async function send(method: HttpMethod, url: string, init: { headers: Record<string, string>; body?: BodyInit; signal?: AbortSignal }): Promise<Response> {
+  try {
+    return await fetch(url, { method, headers: init.headers, body: init.body, credentials: 'include', signal: init.signal })
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause
+    throw networkError(cause)
+  }
+}
+
 /** The one fetch wrapper: same origin, cookies included, JSON in and out, errors as ApiError. */
 export async function apiRequest<T = unknown>(path: string, opts: RequestOptions<T> = {}): Promise<T> {
   const { method = 'GET', body, query, schema, acceptStatus = [], signal } = opts
@@ -50,14 +59,7 @@ export async function apiRequest<T = unknown>(path: string, opts: RequestOptions
     payload = JSON.stringify(body)
   }
 
-  let res: Response
-  try {
-    res = await fetch(urlFor(path, query), { method, headers, body: payload, credentials: 'include', signal })
-  } catch (cause) {
-    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause
-    throw networkError(cause)
-  }
-
+  const res = await send(method, urlFor(path, query), { headers, body: payload, signal })
   const data = await readBody(res)
   if (!res.ok && !acceptStatus.includes(res.status)) throw apiErrorFrom(res.status, data)
   if (!schema) return data as T
@@ -66,6 +68,43 @@ export async function apiRequest<T = unknown>(path: string, opts: RequestOptions
     throw new ApiError(res.status, 'bad_response', `Unexpected response from ${method} ${path}.`)
   }
   return parsed.data
+}
+
+/** GET of raw bytes (large arrays), with the same cookies and errors as apiRequest; the headers describe the bytes. */
+export async function apiBytes(path: string, opts: Pick<RequestOptions<unknown>, 'query' | 'signal'> = {}): Promise<{ bytes: ArrayBuffer; headers: Headers; status: number }> {
+  const res = await send('GET', urlFor(path, opts.query), { headers: { Accept: 'application/octet-stream' }, signal: opts.signal })
+  if (!res.ok) throw apiErrorFrom(res.status, await readBody(res))
+  return { bytes: await res.arrayBuffer(), headers: res.headers, status: res.status }
+}
+
+/**
+ * POST of a multipart form with upload progress (fetch reports none, so this one call uses XMLHttpRequest),
+ * answering and failing exactly as apiRequest does. `onProgress` gets the sent fraction.
+ */
+export function apiUpload<T>(path: string, form: FormData, opts: { schema: ZodType<T>; onProgress?: (fraction: number) => void }): { done: Promise<T>; abort: () => void } {
+  const xhr = new XMLHttpRequest()
+  const done = new Promise<T>((resolve, reject) => {
+    xhr.open('POST', urlFor(path))
+    xhr.withCredentials = true
+    xhr.setRequestHeader('Accept', 'application/json')
+    xhr.upload.onprogress = (e) => e.lengthComputable && opts.onProgress?.(e.loaded / e.total)
+    xhr.onerror = () => reject(networkError(new Error('upload failed')))
+    xhr.onabort = () => reject(new ApiError(0, 'aborted', 'The upload was cancelled.'))
+    xhr.onload = () => {
+      let body: unknown = null
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : null
+      } catch {
+        body = xhr.responseText
+      }
+      if (xhr.status < 200 || xhr.status > 299) return reject(apiErrorFrom(xhr.status, body))
+      const parsed = opts.schema.safeParse(body)
+      if (parsed.success) resolve(parsed.data)
+      else reject(new ApiError(xhr.status, 'bad_response', `Unexpected response from POST ${path}.`))
+    }
+    xhr.send(form)
+  })
+  return { done, abort: () => xhr.abort() }
 }
 
 export const api = {

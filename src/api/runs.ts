@@ -1,8 +1,7 @@
 import { z } from 'zod'
 import { RunDetail, RunList, type RunClone, type RunListQuery } from '@shared/runs'
 import { CreatedShareLink } from '@shared/shares'
-import { api, ApiError } from './client'
-import { apiErrorFrom, networkError } from './api-error'
+import { api, apiBytes, ApiError } from './client'
 
 /** Query of GET /api/runs as the list view builds it (page and pageSize always set). */
 export type RunListParams = Partial<RunListQuery> & { page: number; pageSize: number }
@@ -42,31 +41,10 @@ const Shape = z.string().regex(/^\d+(,\d+)*$/)
 
 /** Fetches an array as raw bytes: maps and traces are too large for JSON to be pleasant. */
 export async function fetchRunArray(id: string, name: string, share?: ShareToken, signal?: AbortSignal): Promise<RunArray> {
-  let res: Response
-  try {
-    res = await fetch(withShare(`/api/runs/${encodeURIComponent(id)}/arrays/${encodeURIComponent(name)}?format=binary`, share), {
-      credentials: 'include',
-      headers: { Accept: 'application/octet-stream' },
-      signal,
-    })
-  } catch (cause) {
-    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause
-    throw networkError(cause)
-  }
-  if (!res.ok) {
-    const text = await res.text()
-    let body: unknown = null
-    try {
-      body = JSON.parse(text)
-    } catch {
-      /* not JSON: the status text will do */
-    }
-    throw apiErrorFrom(res.status, body)
-  }
+  const res = await apiBytes(`/runs/${encodeURIComponent(id)}/arrays/${encodeURIComponent(name)}`, { query: { format: 'binary', share }, signal })
   const dtype = DTYPES[res.headers.get('X-Dtype') ?? '']
   const shapeHeader = res.headers.get('X-Shape') ?? ''
   if (!dtype || !Shape.safeParse(shapeHeader).success) throw new ApiError(res.status, 'bad_response', `Array ${name} came without a readable dtype or shape.`)
-  const bytes = await res.arrayBuffer()
-  const data = dtype === 'f4' ? new Float32Array(bytes) : new Float64Array(bytes)
+  const data = dtype === 'f4' ? new Float32Array(res.bytes) : new Float64Array(res.bytes)
   return { name, dtype, shape: shapeHeader.split(',').map(Number), units: decodeURIComponent(res.headers.get('X-Units') ?? ''), data }
 }
