@@ -1,5 +1,6 @@
 // The upload route's parse thread (server/modules/traces/trace-parse-pool.ts): files are parsed off the
-// calling thread, in order, and a parse that runs past its deadline costs its thread, not the next file.
+// calling thread, in order; a parse that runs past its deadline or out of the thread's heap costs that
+// thread, not the process or the next file.
 import { threadId } from 'node:worker_threads'
 import { afterAll, describe, expect, it } from 'vitest'
 import { TraceImportSettings } from '@shared/traces'
@@ -49,5 +50,16 @@ describe('the trace parse pool', () => {
     if (!warm.ok || !next.ok) throw new Error('the small files were refused')
     expect(next.threadId).not.toBe(warm.threadId)
     expect(next.timeNs.length).toBe(3)
+  })
+
+  it("answers a thread that ran out of its heap as the file's memory problem, and this process carries on", async () => {
+    // 2 MB of heap is too little for any parse (the thread needs more just to load the parser).
+    const pool = newPool({ heapMb: 2 })
+
+    const lost = await pool.parse(scopeCsv(1_000), settings).catch((e: unknown) => e)
+
+    expect(lost).toBeInstanceOf(ParseThreadError)
+    expect((lost as ParseThreadError).reason).toBe('memory')
+    expect((lost as ParseThreadError).message).toBe('the file needs more than the 2 MB of memory one upload may use')
   })
 })

@@ -80,7 +80,7 @@ export class TraceParsePool {
   private start(): Promise<void> {
     if (this.ready) return this.ready
     const thread = new Worker(BOOTSTRAP, { eval: true, resourceLimits: { maxOldGenerationSizeMb: this.heapMb } })
-    // An idle thread must not keep the process alive; a request waiting for it keeps its own socket open.
+    // The thread keeps the process alive only while it has a file in hand (pump refs it, finish unrefs it).
     thread.unref()
     this.thread = thread
     this.ready = new Promise<void>((ok, fail) => {
@@ -122,13 +122,16 @@ export class TraceParsePool {
     this.current = null
     settle()
     this.pump()
+    if (!this.current) this.thread?.unref()
   }
 
   private pump(): void {
     if (this.current || this.queue.length === 0) return
     const job = this.queue.shift()!
     this.current = job
-    this.start().then(
+    const started = this.start()
+    this.thread?.ref()
+    started.then(
       () => {
         if (this.current !== job || !this.thread) return
         // A copy the thread can own (Buffer#slice would be a view: transferring it would empty the caller's).
