@@ -1,9 +1,10 @@
 import { execFileSync } from 'node:child_process'
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { decodeNpy, encodeNpy, npyHeader, type NpyDescr } from './npy'
+import { readNpyArray } from '@shared/trace-parse/npy'
+import { encodeNpy, npyHeader, type NpyDescr } from './npy'
 
 const ascii = (b: Uint8Array) => String.fromCharCode(...b)
 
@@ -61,8 +62,9 @@ describe('NPY round trip', () => {
       { descr: '<f8' as const, shape: [5], data: f8 },
       { descr: '<f4' as const, shape: [3, 1], data: f4 },
     ]) {
-      const back = decodeNpy(encodeNpy(a))
+      const back = readNpyArray(encodeNpy(a))
       expect(back.descr).toBe(a.descr)
+      expect(back.fortranOrder).toBe(false)
       expect(back.shape).toEqual(a.shape)
       expect(Array.from(back.data)).toEqual(Array.from(a.data))
       expect((10 + back.headerLength) % 64).toBe(0)
@@ -82,6 +84,25 @@ describe('NPY round trip', () => {
       writeFileSync(path, encodeNpy({ descr: '<c16', shape: [3], data }))
       const out = execFileSync('python3', ['-c', `import numpy as np; a = np.load(${JSON.stringify(path)}); print(a.dtype.str, a.shape, a.real.tolist(), a.imag.tolist())`]).toString().trim()
       expect(out).toBe('<c16 (3,) [1.0, 3.0, 5.0] [2.0, 4.0, -6.0]')
+    } finally {
+      rmSync(dir, { recursive: true, force: true })
+    }
+  })
+
+  it.skipIf(!hasNumpy())('the shared reader reads numpy-written big-endian complex and float32 files (numpy as reference)', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'npy-'))
+    try {
+      const c = join(dir, 'c.npy')
+      const f = join(dir, 'f.npy')
+      execFileSync('python3', ['-c', `import numpy as np; np.save(${JSON.stringify(c)}, np.array([1+2j, -3.5+0.25j], dtype='>c16')); np.save(${JSON.stringify(f)}, np.arange(6, dtype='<f4').reshape(2, 3))`])
+      const complex = readNpyArray(new Uint8Array(readFileSync(c)))
+      expect(complex.descr).toBe('>c16')
+      expect(complex.shape).toEqual([2])
+      expect(Array.from(complex.data)).toEqual([1, 2, -3.5, 0.25])
+      const real = readNpyArray(new Uint8Array(readFileSync(f)))
+      expect(real.descr).toBe('<f4')
+      expect(real.shape).toEqual([2, 3])
+      expect(Array.from(real.data)).toEqual([0, 1, 2, 3, 4, 5])
     } finally {
       rmSync(dir, { recursive: true, force: true })
     }

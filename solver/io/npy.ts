@@ -6,6 +6,7 @@
 //               spaces and ended by '\n' so that 10 + HLEN is a multiple of 64 (the data starts aligned)
 //   then the raw data in C order.
 // Pure byte work, no fs: the CLI writes the returned bytes. Complex data are interleaved (re, im) float64.
+// Reading is shared/trace-parse/npy.ts (readNpyArray), the project's one NPY reader.
 
 export type NpyDescr = '<c16' | '<f8' | '<f4'
 
@@ -76,31 +77,4 @@ export function encodeNpy(a: NpyArray): Uint8Array {
   out.set(head, 0)
   out.set(body, head.length)
   return out
-}
-
-/** Reads an NPY v1.0 file written by encodeNpy or numpy (little-endian, C order, the three dtypes above). */
-export function decodeNpy(bytes: Uint8Array): NpyArray & { headerLength: number } {
-  for (let i = 0; i < NPY_MAGIC.length; i++) if (bytes[i] !== NPY_MAGIC[i]) throw new Error('Not an NPY file (bad magic)')
-  if (bytes[6] !== 1 || bytes[7] !== 0) throw new Error(`Unsupported NPY version ${bytes[6]}.${bytes[7]}`)
-  const headerLength = bytes[8] | (bytes[9] << 8)
-  let text = ''
-  for (let i = PREAMBLE_BYTES; i < PREAMBLE_BYTES + headerLength; i++) text += String.fromCharCode(bytes[i])
-  const descr = /'descr':\s*'([^']+)'/.exec(text)?.[1]
-  const fortran = /'fortran_order':\s*(True|False)/.exec(text)?.[1]
-  const shapeText = /'shape':\s*\(([^)]*)\)/.exec(text)?.[1]
-  if (descr !== '<c16' && descr !== '<f8' && descr !== '<f4') throw new Error(`Unsupported NPY dtype ${descr}`)
-  if (fortran !== 'False') throw new Error('Only C-order NPY arrays are supported')
-  if (shapeText === undefined) throw new Error('NPY header has no shape')
-  const shape = shapeText
-    .split(',')
-    .map((s) => s.trim())
-    .filter((s) => s.length > 0)
-    .map(Number)
-  const start = PREAMBLE_BYTES + headerLength
-  // Copy so the typed array is aligned whatever the source buffer's offset.
-  const body = bytes.slice(start)
-  const data = descr === '<f4' ? new Float32Array(body.buffer, 0, body.byteLength / 4) : new Float64Array(body.buffer, 0, body.byteLength / 8)
-  const a = { descr, shape, data } as NpyArray
-  checkArray(a)
-  return { ...a, headerLength }
 }

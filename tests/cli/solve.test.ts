@@ -2,7 +2,7 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, 
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
-import { decodeNpy } from '../../solver/io/npy'
+import { readNpyArray } from '@shared/trace-parse/npy'
 import type { RunManifest } from '../../solver/io/manifest'
 import { REPO, runCli, startCli } from './run-cli'
 
@@ -35,7 +35,7 @@ describe('npm run solve', () => {
     expect(new Set(readdirSync(out))).toEqual(new Set(['manifest.json', ...m.arrays.map((a) => a.file)]))
     for (const a of m.arrays) {
       const bytes = readFileSync(join(out, a.file))
-      const npy = decodeNpy(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength))
+      const npy = readNpyArray(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength))
       expect(npy.descr).toBe(a.npyDescr)
       expect(npy.descr).toBe(`<${a.dtype}`)
       expect(npy.shape).toEqual(a.shape)
@@ -45,7 +45,7 @@ describe('npm run solve', () => {
     // The launched data pulse is the configured one: peak |A|² = 10 mW at t ≈ 1 ns (the Gaussian's centre).
     const read = (f: string) => {
       const b = readFileSync(join(out, f))
-      return decodeNpy(new Uint8Array(b.buffer, b.byteOffset, b.byteLength)).data
+      return readNpyArray(new Uint8Array(b.buffer, b.byteOffset, b.byteLength)).data
     }
     const pumpIn = read('ch1_pump_in.npy')
     const timeNs = read('time_ns.npy')
