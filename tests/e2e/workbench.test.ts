@@ -3,7 +3,7 @@
 // invalid field blocks submit with its message; a long run fills its maps live and an editor cancels it.
 import { readFileSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import type { Browser, BrowserContext, Page } from 'playwright-core'
+import type { Browser, BrowserContext, Page, Route } from 'playwright-core'
 import { DEMO, launchBrowser, newContext, screenshot, signIn } from './browser'
 import { readEntry, zipEntries } from './zip-entries'
 
@@ -24,6 +24,8 @@ async function pageAs(who: { email: string; password: string }, theme: 'light' |
   return page
 }
 
+/** The status chip's words (src/components/run/run-format.ts). */
+const STATUS_LABELS: Record<string, string> = { queued: 'Queued', running: 'Running', succeeded: 'Succeeded', failed: 'Failed', cancelled: 'Cancelled' }
 const statusIs = (page: Page, label: string, timeout = 60_000) => page.locator('[data-testid=run-status]', { hasText: label }).first().waitFor({ timeout })
 
 /** data-rows-filled / data-rows of the three maps on a run page. */
@@ -77,11 +79,30 @@ describe('workbench', () => {
     await page.waitForTimeout(300) // let the line charts paint before the picture
     await screenshot(page, 'run-finished')
 
-    // Clone → queue an identical run: a second finished run for the comparison below.
+    // Clone → queue an identical run: a second finished run for the comparison below. The page is reused for the
+    // clone, and must show the clone's own status from its first paint, never the original's "Succeeded" (which
+    // offered a download of a run still queued). The clone's live stream is held back a moment so that only its
+    // record can speak when its title first shows.
+    const holdCloneStream = async (route: Route) => {
+      if (!route.request().url().includes(firstId)) await new Promise((r) => setTimeout(r, 2_000))
+      // The browser may have dropped the request meanwhile (the page moved on); then there is nothing to pass on.
+      await route.continue().catch(() => {})
+    }
+    await page.route(/\/api\/runs\/[0-9a-f-]{36}\/events/, holdCloneStream)
+    const cloneRecord = page.waitForResponse((res) => /^\/api\/runs\/[0-9a-f-]{36}$/.test(new URL(res.url()).pathname) && !res.url().includes(firstId))
+    cloneRecord.catch(() => {}) // awaited below; a failure before then is reported by the step that failed
     await page.getByRole('button', { name: 'Clone' }).click()
     await page.getByText('Queue an identical run').click()
     await page.waitForURL((u) => /\/runs\/[0-9a-f-]{36}/.test(u.pathname) && !u.pathname.endsWith(firstId))
-    await page.locator('h1', { hasText: 'E2E store and retrieve (copy)' }).waitFor()
+    const statusAtFirstPaint = await (
+      await page.waitForFunction(() => {
+        if (!document.querySelector('h1')?.textContent?.includes('(copy)')) return null
+        return document.querySelector('[data-testid=run-status]')?.textContent?.trim() ?? ''
+      }, undefined, { polling: 'raf' })
+    ).jsonValue()
+    const recordStatus = ((await (await cloneRecord).json()) as { status: string }).status
+    expect(statusAtFirstPaint).toBe(STATUS_LABELS[recordStatus])
+    await page.unroute(/\/api\/runs\/[0-9a-f-]{36}\/events/, holdCloneStream)
     await statusIs(page, 'Succeeded')
 
     // The link the user clicks, fetched with the page's own session: Chromium's download manager now and then
