@@ -24,7 +24,13 @@ export const PersonName = safeText().trim().min(1, 'Name is required').max(NAME_
 /** Opaque secrets we mail or hand out (base64url). Bounded so junk never reaches a hash or the database. */
 export const SecretToken = safeText({ error: 'Token is required' }).trim().min(16, 'Not a valid token').max(200, 'Not a valid token')
 
-export const SignUpBody = z.object({ email: Email, password: Password, name: PersonName.optional() })
+export const SignUpBody = z.object({
+  email: Email,
+  password: Password,
+  name: PersonName.optional(),
+  /** The invitation the visitor followed: when it was sent to this address, the address counts as confirmed. */
+  invitationToken: SecretToken.optional(),
+})
 export type SignUpBody = z.infer<typeof SignUpBody>
 
 // Sign-in checks only presence and size: an old password shorter than today's rule must still work.
@@ -39,10 +45,31 @@ export const PasswordResetRequestBody = z.object({ email: Email })
 export const PasswordResetCompleteBody = z.object({ token: SecretToken, password: Password })
 export type PasswordResetCompleteBody = z.infer<typeof PasswordResetCompleteBody>
 
+/** Which mails a user gets; account mails (confirmation, reset, address change) always go out. */
+export const MailSettings = z.object({
+  notifyOnFinish: z.boolean().describe('Mail me when a single run of mine finishes'),
+  notifyOnSweepFinish: z.boolean().describe('Mail me one digest when a sweep of mine finishes'),
+  notifyOnGroupChange: z.boolean().describe('Mail me when I am invited to a group or my role in one changes'),
+})
+export type MailSettings = z.infer<typeof MailSettings>
+
 export const UpdateMeBody = z
-  .object({ name: PersonName.optional(), notifyOnFinish: z.boolean().optional() })
-  .refine((b) => b.name !== undefined || b.notifyOnFinish !== undefined, 'Nothing to change')
+  .object({ name: PersonName.optional(), ...MailSettings.partial().shape })
+  .refine((b) => Object.values(b).some((v) => v !== undefined), 'Nothing to change')
 export type UpdateMeBody = z.infer<typeof UpdateMeBody>
+
+/** Signed in, with the current password: a borrowed unlocked screen is not enough to take the account. */
+export const ChangePasswordBody = z.object({
+  currentPassword: safeText({ error: 'Current password is required' }).min(1, 'Current password is required').max(200, 'At most 200 characters'),
+  newPassword: Password,
+})
+export type ChangePasswordBody = z.infer<typeof ChangePasswordBody>
+
+export const ChangeEmailBody = z.object({
+  currentPassword: ChangePasswordBody.shape.currentPassword,
+  newEmail: Email,
+})
+export type ChangeEmailBody = z.infer<typeof ChangeEmailBody>
 
 export const GroupRole = z.enum(['owner', 'editor', 'viewer'])
 export type GroupRole = z.infer<typeof GroupRole>
@@ -54,6 +81,8 @@ export const MeUser = z.object({
   isAdmin: z.boolean().default(false),
   emailConfirmed: z.boolean().optional(),
   notifyOnFinish: z.boolean().optional(),
+  notifyOnSweepFinish: z.boolean().optional(),
+  notifyOnGroupChange: z.boolean().optional(),
 })
 export type MeUser = z.infer<typeof MeUser>
 

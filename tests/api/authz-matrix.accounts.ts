@@ -13,6 +13,9 @@ const rows: MatrixRow[] = [
   { route: 'GET /api/openapi.json', method: 'get', path: () => '/api/openapi.json', expect: all(200) },
   { route: 'GET /api/me', method: 'get', path: () => '/api/me', expect: signedIn(200) },
   { route: 'PATCH /api/me', method: 'patch', path: () => '/api/me', body: () => ({ notifyOnFinish: false }), expect: signedIn(200) },
+  // A wrong current password: signed-in callers reach the check (400), anonymous ones do not.
+  { route: 'POST /api/me/password', method: 'post', path: () => '/api/me/password', body: () => ({ currentPassword: 'not the password', newPassword: 'a brand new passphrase' }), expect: signedIn(400) },
+  { route: 'POST /api/me/email', method: 'post', path: () => '/api/me/email', body: () => ({ currentPassword: 'not the password', newEmail: uniqueEmail('moved') }), expect: signedIn(400) },
   { route: 'POST /api/auth/sign-out', method: 'post', path: () => '/api/auth/sign-out', expect: all(204) },
   { route: 'POST /api/auth/resend-confirmation', method: 'post', path: () => '/api/auth/resend-confirmation', expect: signedIn(202) },
 

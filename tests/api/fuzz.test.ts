@@ -56,7 +56,10 @@ const ROUTES: Record<string, RouteSpec> = {
   'POST /api/auth/password-reset/complete': { path: () => '/api/auth/password-reset/complete', body: () => ({ token: 'r'.repeat(43), password: 'correct horse battery' }), variants: HASHING_VARIANTS, validStatus: 400 },
   'GET /api/me': { path: () => '/api/me' },
   'GET /api/openapi.json': { path: () => '/api/openapi.json' },
-  'PATCH /api/me': { path: () => '/api/me', body: () => ({ name: 'Fuzz Owner', notifyOnFinish: false }) },
+  'PATCH /api/me': { path: () => '/api/me', body: () => ({ name: 'Fuzz Owner', notifyOnFinish: false, notifyOnSweepFinish: true, notifyOnGroupChange: false }) },
+  // A wrong current password keeps the account as it is; few variants, as wrong passwords count toward the account's limit.
+  'POST /api/me/password': { path: () => '/api/me/password', body: () => ({ currentPassword: 'not the password', newPassword: 'correct horse battery' }), variants: 8, validStatus: 400 },
+  'POST /api/me/email': { path: () => '/api/me/email', body: () => ({ currentPassword: 'not the password', newEmail: 'fuzz-moved@test.example' }), variants: 8, validStatus: 400 },
   'GET /api/groups': { path: () => '/api/groups' },
   'POST /api/groups': { path: () => '/api/groups', body: () => ({ name: 'Fuzzed group' }) },
   'GET /api/groups/:groupId': { path: (w) => `/api/groups/${w.groupId}` },

@@ -18,7 +18,7 @@ export function accountRoutes(deps: AccountDeps): Router {
   const router = Router()
   const opts = resolveAuthOptions(deps.auth)
   router.use('/auth', authRoutes(deps, opts))
-  router.use('/me', meRoutes(deps))
+  router.use('/me', meRoutes(deps, opts))
   router.use('/groups', groupsRoutes(deps, opts))
   router.use('/invitations', invitationsRoutes(deps))
   router.use('/tokens', tokensRoutes(deps))

@@ -1,5 +1,5 @@
 import { Router, type Request } from 'express'
-import { ConfirmEmailBody, PasswordResetCompleteBody, PasswordResetRequestBody, SignInBody, SignUpBody, UpdateMeBody } from '@shared/auth'
+import { ChangeEmailBody, ChangePasswordBody, ConfirmEmailBody, PasswordResetCompleteBody, PasswordResetRequestBody, SignInBody, SignUpBody, UpdateMeBody } from '@shared/auth'
 import type { Db } from '../../db/client'
 import { validate } from '../../middleware/validate'
 import type { AuthOptions } from './auth-options'
@@ -8,7 +8,8 @@ import { afterResponse } from './after-response'
 import { checkCredentials, completePasswordReset, confirmEmail, requestPasswordReset, resendConfirmation, RESET_ACCEPTED, signUp, type LinkTo } from './auth.service'
 import { appLink } from './links'
 import { loadMe, toMeUser, updateMe } from './me.service'
-import { accountSignInLimiter, mailRequestLimiter, signInLimiter } from './rate-limit'
+import { changePassword, requestEmailChange } from './account.service'
+import { accountSignInLimiter, mailRequestLimiter, passwordCheckLimiter, signInLimiter } from './rate-limit'
 import { clearSessionCookie, startSession } from './session-cookie'
 import { revokeSession } from './sessions.repo'
 
@@ -37,8 +38,7 @@ export function authRoutes(deps: { db: Db }, opts: AuthOptions): Router {
   })
 
   router.post('/confirm-email', validate({ body: ConfirmEmailBody }), async (req, res) => {
-    await confirmEmail(deps.db, req.body.token)
-    res.json({ ok: true, message: 'Thank you: your address is confirmed.' })
+    res.json(await confirmEmail(deps.db, req.log, req.body.token))
   })
 
   router.post('/resend-confirmation', requireAuth, mailLimit, async (req, res) => {
@@ -60,15 +60,23 @@ export function authRoutes(deps: { db: Db }, opts: AuthOptions): Router {
   return router
 }
 
-/** /api/me: who is signed in, with their groups and roles; PATCH for name and mail preference. */
-export function meRoutes(deps: { db: Db }): Router {
+/** /api/me: who is signed in, with their groups and roles; PATCH for name and mail settings; password and address changes. */
+export function meRoutes(deps: { db: Db }, opts: AuthOptions): Router {
   const router = Router()
+  const checkLimit = passwordCheckLimiter(opts)
   router.use(requireAuth)
   router.get('/', async (req, res) => {
     res.set('Cache-Control', 'no-store').json(await loadMe(deps.db, req.auth!))
   })
   router.patch('/', validate({ body: UpdateMeBody }), async (req, res) => {
     res.json(await updateMe(deps.db, req.auth!, req.body))
+  })
+  // Validation first: only wrong passwords count against the limit, not malformed bodies.
+  router.post('/password', validate({ body: ChangePasswordBody }), checkLimit, async (req, res) => {
+    res.json(await changePassword(deps.db, req.auth!.userId, req.auth!.sessionId, req.body))
+  })
+  router.post('/email', validate({ body: ChangeEmailBody }), checkLimit, mailRequestLimiter(opts), async (req, res) => {
+    res.status(202).json(await requestEmailChange(deps.db, req.log, (path, token) => appLink(opts, req, path, token), req.auth!.userId, req.body))
   })
   return router
 }

@@ -6,7 +6,9 @@ import type { Logger } from '../../logger'
 import { sendMail } from '../mail/mailer'
 import { alreadyRegisteredMail, confirmationMail, passwordResetMail } from '../mail/templates'
 import { EMAIL_CONFIRMATION_TTL_MS, PASSWORD_RESET_TTL_MS } from './auth-options'
-import { consumeOneTimeToken, issueOneTimeToken, spendAllTokens } from './one-time-tokens.repo'
+import { invitationProvesAddress } from '../groups/invitations.service'
+import { completeEmailChange } from './account.service'
+import { consumeEmailConfirmation, consumeOneTimeToken, issueOneTimeToken, spendAllTokens } from './one-time-tokens.repo'
 import { hashPassword, verifyPassword } from './passwords'
 import { revokeAllSessions } from './sessions.repo'
 import { findUserByEmail, findUserById, insertUser, markEmailConfirmed, updateUser } from './users.repo'
@@ -18,6 +20,8 @@ export const CONFIRM_PATH = '/confirm-email'
 export const RESET_PATH = '/reset-password'
 
 const SIGN_UP_ACCEPTED: AcceptedMessage = { ok: true, message: 'Check your mailbox: we sent a message to that address.' }
+/** Only the holder of an invitation to the address sees this, so it tells nobody else who has an account. */
+const SIGN_UP_INVITED: AcceptedMessage = { ok: true, message: 'Your account is ready and your address is confirmed by the invitation.' }
 export const RESET_ACCEPTED: AcceptedMessage = { ok: true, message: 'If that address has an account, a reset link is on its way.' }
 const BAD_LINK = () => new AppError('invalid_token', 400, 'This link is not valid any more: it was used already, has expired or was mistyped')
 
@@ -31,13 +35,19 @@ async function mailQuietly(log: Logger, send: () => Promise<void>): Promise<void
 }
 
 /**
- * Creates the account and mails a confirmation link; for an address that already has an account,
+ * Creates the account and mails a confirmation link (none when the sign-up came through a valid
+ * invitation to the same address, which proves it already); for an address that already has an account,
  * mails its owner a reset link instead. The answer is the same either way.
  */
 export async function signUp(db: Db, log: Logger, linkTo: LinkTo, body: SignUpBody): Promise<AcceptedMessage> {
   const passwordHash = await hashPassword(body.password)
   const name = body.name ?? body.email.split('@')[0]
   const created = await insertUser(db, { email: body.email, name, passwordHash })
+  if (created && body.invitationToken && (await invitationProvesAddress(db, body.invitationToken, created.email))) {
+    // The invitation link came through that mailbox: a second confirmation mail would only confuse.
+    await markEmailConfirmed(db, created.id)
+    return SIGN_UP_INVITED
+  }
   if (created) {
     const token = await issueOneTimeToken(db, emailConfirmations, created.id, EMAIL_CONFIRMATION_TTL_MS)
     await mailQuietly(log, () => sendMail(confirmationMail(created.email, linkTo(CONFIRM_PATH, token))))
@@ -59,11 +69,14 @@ export async function checkCredentials(db: Db, body: SignInBody): Promise<User> 
   return user
 }
 
-export async function confirmEmail(db: Db, token: string): Promise<void> {
-  const userId = await consumeOneTimeToken(db, emailConfirmations, token)
-  if (!userId) throw BAD_LINK()
-  await markEmailConfirmed(db, userId)
-  await spendAllTokens(db, emailConfirmations, userId)
+/** Confirms the sign-up address, or moves the account to the new address a change link was sent to. */
+export async function confirmEmail(db: Db, log: Logger, token: string): Promise<AcceptedMessage> {
+  const used = await consumeEmailConfirmation(db, token)
+  if (!used) throw BAD_LINK()
+  if (used.newEmail) return completeEmailChange(db, log, used.userId, used.newEmail)
+  await markEmailConfirmed(db, used.userId)
+  await spendAllTokens(db, emailConfirmations, used.userId)
+  return { ok: true, message: 'Thank you: your address is confirmed.' }
 }
 
 export async function resendConfirmation(db: Db, log: Logger, linkTo: LinkTo, userId: string): Promise<AcceptedMessage> {

@@ -14,6 +14,8 @@ export function toMeUser(user: User): MeResponse['user'] {
     isAdmin: user.isAdmin,
     emailConfirmed: user.emailConfirmedAt !== null,
     notifyOnFinish: user.notifyOnFinish,
+    notifyOnSweepFinish: user.notifyOnSweepFinish,
+    notifyOnGroupChange: user.notifyOnGroupChange,
   }
 }
 

@@ -33,3 +33,21 @@ export async function spendAllTokens(db: Db, table: OneTimeTable, userId: string
   const t = table as typeof passwordResets
   await db.update(t).set({ usedAt: sql`now()` }).where(and(eq(t.userId, userId), isNull(t.usedAt)))
 }
+
+/** Like consumeOneTimeToken for e-mail confirmations, with the new address a change link carries. */
+export async function consumeEmailConfirmation(db: Db, token: string): Promise<{ userId: string; newEmail: string | null } | null> {
+  const t = emailConfirmations
+  const [row] = await db
+    .update(t)
+    .set({ usedAt: sql`now()` })
+    .where(and(eq(t.tokenHash, hashSecretToken(token)), isNull(t.usedAt), gt(t.expiresAt, sql`now()`)))
+    .returning({ userId: t.userId, newEmail: t.newEmail })
+  return row ?? null
+}
+
+/** A confirmation link for a change of address; only its hash and the address are stored. */
+export async function issueEmailChangeToken(db: Db, userId: string, newEmail: string, ttlMs: number): Promise<string> {
+  const { token, hash } = newSecretToken()
+  await db.insert(emailConfirmations).values({ userId, tokenHash: hash, newEmail, expiresAt: new Date(Date.now() + ttlMs) })
+  return token
+}

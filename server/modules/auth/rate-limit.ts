@@ -54,3 +54,19 @@ export function mailRequestLimiter(opts: AuthOptions): RequestHandler {
     handler: limited('Too many requests from your address; try again later'),
   })
 }
+
+/**
+ * Wrong current passwords (password or address change) per signed-in account: the same budget as
+ * sign-in failures per account, so a stolen session cannot be used to guess the password faster.
+ */
+export function passwordCheckLimiter(opts: AuthOptions): RequestHandler {
+  return rateLimit({
+    windowMs: ACCOUNT_LOCK_WINDOW_MS,
+    limit: opts.signInFailuresPerAccount,
+    skipSuccessfulRequests: true,
+    keyGenerator: (req) => `password-check:${req.auth?.userId ?? 'anonymous'}`,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: limited('Too many wrong passwords for this account; wait 15 minutes and try again'),
+  })
+}

@@ -21,7 +21,7 @@ export async function insertUser(db: Db, row: { email: string; name: string; pas
   return user ?? null
 }
 
-export async function updateUser(db: Db, id: string, patch: Partial<Pick<User, 'name' | 'notifyOnFinish' | 'passwordHash' | 'emailConfirmedAt' | 'isAdmin'>>): Promise<User> {
+export async function updateUser(db: Db, id: string, patch: Partial<Pick<User, 'name' | 'notifyOnFinish' | 'notifyOnSweepFinish' | 'notifyOnGroupChange' | 'passwordHash' | 'emailConfirmedAt' | 'isAdmin'>>): Promise<User> {
   const [user] = await db.update(users).set(patch).where(eq(users.id, id)).returning()
   return user
 }

@@ -122,3 +122,12 @@ export async function acceptInvitation(db: Db, auth: AuthContext, token: string)
     return { groupId: inv.groupId, role: m.role }
   })
 }
+
+/**
+ * Whether `token` is a pending invitation sent to `email`: the holder of the link read that mailbox,
+ * so an account signed up with it through the link needs no separate confirmation.
+ */
+export async function invitationProvesAddress(db: Db, token: string, email: string): Promise<boolean> {
+  const inv = await findPending(db, token)
+  return inv !== null && inv.email.trim().toLowerCase() === email.trim().toLowerCase()
+}

@@ -3,6 +3,8 @@ import { z } from 'zod'
 import {
   AcceptedMessage,
   ApiTokenCreateBody,
+  ChangeEmailBody,
+  ChangePasswordBody,
   ApiTokenSummary,
   ConfirmEmailBody,
   CreatedApiToken,
@@ -33,7 +35,9 @@ export const accountOperations: ApiOperation[] = [
   { method: 'POST', path: '/api/auth/password-reset/request', tag: 'Account', auth: 'public', summary: 'Mail a password reset link (same answer for unknown addresses)', body: PasswordResetRequestBody, response: accepted(202, 'Accepted') },
   { method: 'POST', path: '/api/auth/password-reset/complete', tag: 'Account', auth: 'public', summary: 'Set a new password with the mailed token', body: PasswordResetCompleteBody, response: accepted(200, 'Changed') },
   { method: 'GET', path: '/api/me', tag: 'Account', auth: 'user', summary: 'The signed-in account with its groups and roles', response: { status: 200, description: 'The account', schema: MeResponse } },
-  { method: 'PATCH', path: '/api/me', tag: 'Account', auth: 'user', summary: 'Change the display name or the mail preference', body: UpdateMeBody, response: { status: 200, description: 'The account', schema: MeResponse } },
+  { method: 'PATCH', path: '/api/me', tag: 'Account', auth: 'user', summary: 'Change the display name or which mails you get', body: UpdateMeBody, response: { status: 200, description: 'The account', schema: MeResponse } },
+  { method: 'POST', path: '/api/me/password', tag: 'Account', auth: 'user', summary: 'Change the password (current one required); every other session ends', body: ChangePasswordBody, response: accepted(200, 'Changed') },
+  { method: 'POST', path: '/api/me/email', tag: 'Account', auth: 'user', summary: 'Change the address: a confirmation link goes to the new one, which takes effect when it is opened', body: ChangeEmailBody, response: accepted(202, 'Accepted') },
 
   { method: 'GET', path: '/api/tokens', tag: 'API tokens', auth: 'user', summary: 'Your API tokens (never their secrets)', response: { status: 200, description: 'Tokens', schema: z.object({ tokens: z.array(ApiTokenSummary) }) } },
   {
