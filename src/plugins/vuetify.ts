@@ -1,10 +1,9 @@
 import { createVuetify, type ThemeDefinition } from 'vuetify'
-import { aliases, mdi } from 'vuetify/iconsets/mdi'
 import 'vuetify/styles'
-import '@mdi/font/css/materialdesignicons.css'
 import '@fontsource/roboto/400.css'
 import '@fontsource/roboto/500.css'
 import '@fontsource/roboto/700.css'
+import { aliases, namedMdi } from './icons'
 import { darkPalette, lightPalette, THEME_DARK, THEME_LIGHT, type Palette, type ThemeName } from './palette'
 
 function themeFrom(p: Palette, dark: boolean): ThemeDefinition {
@@ -39,7 +38,7 @@ export function createAppVuetify(initialTheme: ThemeName = THEME_LIGHT) {
       defaultTheme: initialTheme,
       themes: { [THEME_LIGHT]: themeFrom(lightPalette, false), [THEME_DARK]: themeFrom(darkPalette, true) },
     },
-    icons: { defaultSet: 'mdi', aliases, sets: { mdi } },
+    icons: { defaultSet: 'mdi', aliases, sets: { mdi: namedMdi } },
     // Dense by default: the people using this read tables of numbers, not marketing cards.
     defaults: {
       VBtn: { rounded: 'md' },
