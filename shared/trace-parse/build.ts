@@ -51,6 +51,15 @@ function where(table: ParsedTable, row: number): string {
   return table.rowLines.length > row ? `row ${row + 1} (line ${table.rowLines[row]})` : `row ${row + 1}`
 }
 
+/** A value that is, or becomes in the chosen unit, too large for a double (e.g. 1e999 in the file). */
+function notFinite(table: ParsedTable, row: number, column: number, raw: number, what: 'time' | 'signal'): TraceParseError {
+  const line = table.rowLines.length > row ? table.rowLines[row] : undefined
+  return new TraceParseError(
+    `The ${what} value at ${where(table, row)}, column "${table.columns[column]?.name ?? column + 1}" (${raw}) is too large to store in the chosen unit.`,
+    { line, column: column + 1 },
+  )
+}
+
 export function buildTrace(table: ParsedTable, s: TraceImportSettings): BuiltTrace {
   const n = table.rowCount
   const nCols = table.columns.length
@@ -69,6 +78,7 @@ export function buildTrace(table: ParsedTable, s: TraceImportSettings): BuiltTra
     const k = NS_PER_TIME_UNIT[timeUnit]
     for (let i = 0; i < n; i++) {
       timeNs[i] = t[i] * k
+      if (!Number.isFinite(timeNs[i])) throw notFinite(table, i, s.timeColumn, t[i], 'time')
       if (i > 0 && !(timeNs[i] > timeNs[i - 1])) {
         const line = table.rowLines.length > i ? table.rowLines[i] : undefined
         throw new TraceParseError(
@@ -96,7 +106,10 @@ export function buildTrace(table: ParsedTable, s: TraceImportSettings): BuiltTra
   const signals = s.signalColumns.map((c) => {
     const raw = table.data[c]
     const values = new Float64Array(n)
-    for (let i = 0; i < n; i++) values[i] = raw[i] * factor
+    for (let i = 0; i < n; i++) {
+      values[i] = raw[i] * factor
+      if (!Number.isFinite(values[i])) throw notFinite(table, i, c, raw[i], 'signal')
+    }
     let baseline = 0
     if (baseTo >= baseFrom) {
       for (let i = baseFrom; i <= baseTo; i++) baseline += values[i]

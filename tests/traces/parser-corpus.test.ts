@@ -223,6 +223,14 @@ describe('malformed files are refused with what and where', () => {
     expect(e.message).toMatch(/Time is not increasing at row 4 \(line 5\): 2 follows 3/)
   })
 
+  it('a value too large for a double, naming the row and column (1e999 reads as Infinity)', () => {
+    const e = refusal(Buffer.from('time_ns,power_mW\n0,1\n1,1e999\n2,3\n'), { timeUnit: 'ns', signalUnit: 'mW' })
+    expect(e.message).toMatch(/signal value at row 2 \(line 3\), column "power_mW" \(Infinity\) is too large/)
+    expect(e.where).toMatchObject({ line: 3, column: 2 })
+    // A finite time that overflows only once converted to ns is refused too.
+    expect(refusal(Buffer.from('t,p\n0,1\n1e300,2\n'), { timeUnit: 's' }).message).toMatch(/time value at row 2/)
+  })
+
   it('a word inside the data', () => {
     expect(refusal(malformed('text-in-data.csv')).message).toMatch(/Line 3, column 2: "abc" is not a number/)
   })
