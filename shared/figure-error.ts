@@ -45,6 +45,8 @@ export const NOT_FIGURES: ReadonlySet<string> = new Set([
   'readWindowNs',
   'retrievalWindow',
   'anchor',
+  'arrivalNs',
+  'fwhmNs',
   'notDetermined',
   'wallTimeS',
   'cellUpdatesPerS',

@@ -5,7 +5,7 @@
 // the estimate. Then the flag, the reasons for no estimate, the switch and where the estimate is carried.
 import { describe, expect, it } from 'vitest'
 import { planCoarseRun } from '@shared/error-estimate-plan'
-import type { FigureError, FigureErrors } from '@shared/figure-error'
+import { numericLeaves, type FigureError, type FigureErrors } from '@shared/figure-error'
 import { SimulationManifest, type FiguresOfMerit } from '@shared/simulation-result'
 import { errorKey, metricColumns, reduceFigures } from '@shared/sweep-metrics'
 import type { SweepDetail } from '@shared/sweeps'
@@ -215,6 +215,23 @@ describe('when there is no estimate', () => {
     expect(e.figures['channels.0.energyJ.pumpOut']).toBeDefined()
     // Settings and the scheme's own photon-balance check are not figures.
     expect(Object.keys(e.figures).some((k) => /wallTimeS|cellUpdatesPerS|manleyRowe|\.channel$/.test(k))).toBe(false)
+  })
+
+  it('gives no estimate to window settings: the retrieval window, an energy window’s bounds and anchor', () => {
+    const r = simulateSync(chipConfig({ windowNs: 20, channels: [{ pump: { backgroundPowerW: 0.05 } }] }))
+    const base = r.manifest.figures!
+    const win = { arrivalNs: 7.5, fwhmNs: 1.2, startNs: 5.1, endNs: 9.9 }
+    const figures: FiguresOfMerit = {
+      ...base,
+      channels: [{ ...base.channels[0], readWindowNs: [win.startNs, win.endNs], retrievalWindow: win }],
+      windows: [{ label: 'echo', port: 'pumpOut', startNs: win.startNs, endNs: win.endNs, anchor: { pulse: 'read', arrivalNs: 7.5, fwhmNs: 1.2 }, energyJPerChannel: [1e-12], energyJ: 1e-12, notDetermined: null }],
+    }
+    const coarse: FiguresOfMerit = { ...figures, windows: [{ ...figures.windows[0], energyJ: 1.1e-12 }] }
+    const keys = Object.keys(estimateFigureErrors(figures, coarse, 1e-12, 2e-12).figures)
+    expect(keys).toContain('windows.0.energyJ')
+    expect(keys.filter((k) => /arrivalNs|fwhmNs|startNs|endNs|readWindowNs|retrievalWindow|anchor/.test(k))).toEqual([])
+    // The keys themselves are settings wherever they sit, so a window added later is skipped too.
+    expect([...numericLeaves({ window: { arrivalNs: 1, fwhmNs: 2, energyJ: 3 } }).keys()]).toEqual(['window.energyJ'])
   })
 })
 
