@@ -20,6 +20,7 @@ const estimate = (over: Partial<FigureErrors> = {}): FigureErrors => ({
   cellUpdates: 1000,
   figures: {
     'channels.0.peakStokesGainDb': { value: 0.4177, coarseValue: 0.4, absError: 0.0059, relError: 0.0142, flagged: true, suggestedTimeStepPs: 10.2 },
+    'channels.0.energyJ.pumpIn': { value: 5.3e-12, coarseValue: 5.3e-12, absError: 5.4e-28, relError: 1.02e-16, flagged: false, suggestedTimeStepPs: null },
     'channels.0.energyJ.stokesOut': { value: 2e-9, coarseValue: 2.00009e-9, absError: 3e-14, relError: 1.5e-5, flagged: false, suggestedTimeStepPs: null },
   },
   ...over,
@@ -31,6 +32,13 @@ describe('RunFigureError', () => {
     expect(wrapper.text()).toBe('± 30 fJ')
     expect(wrapper.find('[title]').attributes('title')).toBe('Estimated numerical error, 0.0015 % of the value')
     expect(wrapper.find('[aria-label]').exists()).toBe(false)
+  })
+
+  it('says "exact to round-off" rather than a noise-sized number when the estimate is below 1e-12 of the value', async () => {
+    const { wrapper } = await mountWithApp(RunFigureError, { props: { estimate: estimate(), path: 'channels.0.energyJ.pumpIn', unit: 'J' } })
+    expect(wrapper.text()).toBe('exact to round-off')
+    expect(wrapper.text()).not.toContain('e-28')
+    expect(wrapper.find('[title]').attributes('title')).toMatch(/same value to within round-off/)
   })
 
   it('flags a figure over 1 % and names the step that brings it under 0.1 %', async () => {
