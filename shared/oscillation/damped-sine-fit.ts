@@ -22,6 +22,8 @@ import { dtft } from './spectral-line'
 /** Half-width in independent frequencies of the band that sets the noise level at f (M above). */
 const NOISE_BAND_HALF = 30
 const LM_ITERATIONS = 25
+/** From the original optimum a resampled trace's optimum is a few Gauss–Newton steps away. */
+const REFIT_ITERATIONS = 3
 
 export interface JointFit {
   frequencyGHz: number
@@ -91,11 +93,16 @@ export interface FitStart {
 
 export type FitFailure = 'no-ripple' | 'at-limit' | 'singular'
 
-export function fitDampedSine(t: Float64Array, y: Float64Array, basis: SplineBasis, starts: FitStart[]): JointFit | FitFailure {
-  const n = t.length
-  const dt = t[1] - t[0]
-  const T = t[n - 1]
-  const project = makeProjector(t, basis)
+interface LeastSquaresEnd {
+  p: number[]
+  err: number
+  iterations: number
+}
+type Projector = ReturnType<typeof makeProjector>
+
+/** Levenberg–Marquardt over (f, γ) with (c, a, b) solved for each; null when it leaves the finite numbers. */
+function minimise(project: Projector, y: Float64Array, st: FitStart, limits: { min: number[]; max: number[] }, iterations: number): LeastSquaresEnd | null {
+  const n = y.length
   const idx = Float64Array.from({ length: n }, (_, i) => i)
   const zero = new Float64Array(n)
   // The library asks for y(x) sample by sample: solve once per parameter set and index the result.
@@ -114,21 +121,39 @@ export function fitDampedSine(t: Float64Array, y: Float64Array, basis: SplineBas
     const out = cached
     return (x: number) => out[x]
   }
-  const nyq = 1 / (2 * dt)
-  const limits = { min: [0.5 / T, -1 / T], max: [nyq, 1 / (2 * dt)] }
-  let best: { p: number[]; err: number; iterations: number } | null = null
+  const T = 0.5 / limits.min[0]
+  const result = levenbergMarquardt({ x: idx, y }, model, {
+    initialValues: [st.frequencyGHz, Math.max(0, st.gamma)],
+    minValues: limits.min,
+    maxValues: limits.max,
+    gradientDifference: [1e-7 * st.frequencyGHz, 1e-7 * Math.max(st.gamma, 1 / T)],
+    centralDifference: false,
+    damping: 1e-3,
+    maxIterations: iterations,
+    errorTolerance: 0,
+  })
+  return result.parameterValues.every(Number.isFinite) ? { p: result.parameterValues, err: result.parameterError, iterations: result.iterations } : null
+}
+
+/**
+ * The envelope of a resampled trace, from the same joint fit restarted at the original (f, γ): so that the
+ * trade-off between envelope and ripple shape is resampled too, not frozen at the original fit.
+ */
+export function refitEnvelope(project: Projector, y: Float64Array, start: FitStart, T: number, dt: number): Float64Array | null {
+  const end = minimise(project, y, start, { min: [0.5 / T, -1 / T], max: [1 / (2 * dt), 1 / (2 * dt)] }, REFIT_ITERATIONS)
+  return end ? (project(y, end.p[0], end.p[1])?.envelope ?? null) : null
+}
+
+export function fitDampedSine(t: Float64Array, y: Float64Array, basis: SplineBasis, starts: FitStart[]): JointFit | FitFailure {
+  const n = t.length
+  const dt = t[1] - t[0]
+  const T = t[n - 1]
+  const project = makeProjector(t, basis)
+  const limits = { min: [0.5 / T, -1 / T], max: [1 / (2 * dt), 1 / (2 * dt)] }
+  let best: LeastSquaresEnd | null = null
   for (const st of starts) {
-    const result = levenbergMarquardt({ x: idx, y }, model, {
-      initialValues: [st.frequencyGHz, Math.max(0, st.gamma)],
-      minValues: limits.min,
-      maxValues: limits.max,
-      gradientDifference: [1e-7 * st.frequencyGHz, 1e-7 * Math.max(st.gamma, 1 / T)],
-      centralDifference: false,
-      damping: 1e-3,
-      maxIterations: LM_ITERATIONS,
-      errorTolerance: 0,
-    })
-    if (result.parameterValues.every(Number.isFinite) && (!best || result.parameterError < best.err)) best = { p: result.parameterValues, err: result.parameterError, iterations: result.iterations }
+    const end = minimise(project, y, st, limits, LM_ITERATIONS)
+    if (end && (!best || end.err < best.err)) best = end
   }
   if (!best) return 'singular'
   const [f, gamma] = best.p

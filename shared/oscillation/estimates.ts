@@ -1,5 +1,6 @@
 // Turns the fit's covariance and the spectrum's bootstrap into reported figures with 1σ uncertainties.
 // τ = 1/γ: σ_τ = σ_γ/γ² (first-order propagation); A = √(a² + b²): σ_A² = gᵀ Σ_ab g with g = (a, b)/A.
+// Spectrum: θ̃ = θ̂ − bias, σ = √(sd² + bias²) from the bootstrap (spectral-bootstrap.ts).
 import type { JointFit } from './damped-sine-fit'
 import type { BootstrapResult } from './spectral-bootstrap'
 import type { LineEstimate } from './spectral-line'
@@ -30,18 +31,25 @@ export function fitEstimate(fit: JointFit, curve: DampedSineEstimate['curve'], n
   }
 }
 
-export function spectralEstimate(line: LineEstimate, boot: BootstrapResult, notes: string[]): SpectralEstimate {
-  if (line.decayNs !== null && !boot.decay) notes.push('The spectral decay time is not determined in enough resampled traces to give its uncertainty')
-  const f = boot?.frequency
-  const d = line.decayNs !== null ? boot?.decay : null
-  const A = boot?.amplitude
+export function spectralEstimate(line: LineEstimate, boot: BootstrapResult, notes: string[]): SpectralEstimate | null {
+  const f = boot.frequency
+  if (!f) {
+    notes.push('The spectral peak was not found in enough resampled traces to give an uncertainty')
+    return null
+  }
+  const d = line.decayNs !== null ? boot.decay : null
+  if (line.decayNs !== null && !d) notes.push('The spectral line width gives no decay time in enough resampled traces to state its uncertainty')
+  const A = boot.amplitude
+  // The bias correction is only as good as the fitted model the replicates came from: its standard
+  // uncertainty is taken as its own size (a conservative choice), added in quadrature to the spread.
+  const u = (x: { sd: number; bias: number } | null | undefined) => (x ? Math.hypot(x.sd, x.bias) : null)
   return {
-    frequencyGHz: line.frequencyGHz - (f?.bias ?? 0),
-    frequencyUncertaintyGHz: f?.sd ?? null,
-    decayNs: line.decayNs === null ? null : line.decayNs - (d?.bias ?? 0),
-    decayUncertaintyNs: d?.sd ?? null,
+    frequencyGHz: line.frequencyGHz - f.bias,
+    frequencyUncertaintyGHz: u(f),
+    decayNs: line.decayNs === null || !d ? null : line.decayNs - d.bias,
+    decayUncertaintyNs: u(d),
     amplitude: line.amplitude - (A?.bias ?? 0),
-    amplitudeUncertainty: A?.sd ?? null,
+    amplitudeUncertainty: u(A),
     bootstrapReplicates: boot.replicates,
   }
 }

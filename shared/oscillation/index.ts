@@ -14,7 +14,7 @@
  * Times in ns from the start of the analysed window, frequencies in GHz.
  */
 import { planEnvelope } from './envelope-basis'
-import { fitDampedSine } from './damped-sine-fit'
+import { fitDampedSine, refitEnvelope } from './damped-sine-fit'
 import { envelopeAlone, makeProjector } from './envelope-projection'
 import { paddedPower, peakBins, spectralLine, spectrumForDrawing } from './spectral-line'
 import { spectralBootstrap } from './spectral-bootstrap'
@@ -80,7 +80,7 @@ export function analyseOscillation(timeNs: ArrayLike<number>, values: ArrayLike<
       fitted,
       residuals: y.map((v, i) => v - fitted[i]),
       leverage: fit.leverage,
-      envelopeOf: (yb) => project(yb, fit.frequencyGHz, fit.gamma)?.envelope ?? null,
+      envelopeOf: (yb) => refitEnvelope(project, yb, { frequencyGHz: fit.frequencyGHz, gamma: fit.gamma }, t[n - 1], dt),
       dtNs: dt,
       minF,
       world: { frequencyGHz: fit.frequencyGHz, decayNs: fit.gamma > 0 ? 1 / fit.gamma : null, amplitude: Math.hypot(fit.a, fit.b) },

@@ -6,11 +6,13 @@
  * which restores the noise the fit absorbed; Davison & Hinkley, Bootstrap Methods and their Application,
  * 1997, §6.2.3) and centred, resampled in moving blocks of length ℓ
  * (Künsch, Ann. Stat. 17, 1217 (1989)) so that correlation between neighbouring samples, from the noise or
- * from the envelope removal, survives the resampling. ℓ = twice the first lag at which the residuals'
+ * from the envelope removal, survives the resampling. Each replicate's envelope comes from the joint fit
+ * redone on it, so the envelope's trade-off with the ripple is resampled as well. ℓ = twice the first lag at which the residuals'
  * autocorrelation falls below 2/√N (common practice; 2 for white noise). Each y*_b goes through the same
  * envelope removal and spectral estimate θ̂*_b. Then
- *   σ = sd(θ̂*_b),   bias = mean(θ̂*_b) − θ(ŷ),   θ̃ = θ̂ − bias,
- * θ(ŷ) being the parameters of the model the replicates were drawn from. The seed is fixed, so the same
+ *   sd = sd(θ̂*_b),   bias = mean(θ̂*_b) − θ(ŷ),   θ̃ = θ̂ − bias,   σ = √(sd² + bias²),
+ * θ(ŷ) being the parameters of the model the replicates were drawn from; the bias is counted in σ as well
+ * because the correction rests on ŷ being close to the truth (conservative). The seed is fixed, so the same
  * trace always gives the same figures.
  */
 import { spectralLine, type LineEstimate } from './spectral-line'
