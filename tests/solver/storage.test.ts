@@ -1,4 +1,4 @@
-// V7 of the physics brief §6: store and retrieve a data pulse in the acoustic grating.
+// V7 of docs/validation.md: store and retrieve a data pulse in the acoustic grating.
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, gaussian } from './chip-fixtures'
@@ -20,7 +20,8 @@ describe('light storage', () => {
   const at6 = storage(6)
 
   it('V7: retrieval efficiency after 2 ns is 0.09388 within 1 %', () => {
-    // Value computed by an independent implementation of these equations (brief V7), not a published number.
+    // No published value: scripts/reference/storage_efficiency.py reproduces it with an independent numpy
+    // implementation of the same equations (RK4 with Strang splitting): 0.09389 extrapolated in the step.
     expect(Math.abs(at2.retrievalEfficiency! / 0.09388 - 1)).toBeLessThan(0.01)
   })
 
