@@ -1,4 +1,4 @@
-// V5 of the physics brief §6: photon-number balance (Manley & Rowe 1956) for colliding pulses.
+// V5 of docs/validation.md: photon-number balance (Manley & Rowe 1956) for colliding pulses.
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, gaussian } from './chip-fixtures'
@@ -16,12 +16,12 @@ function collide(frequencyRatioOverride?: number) {
 }
 
 describe('photon-number balance', () => {
-  it('V5: with the physical ω_p/ω_s the Manley–Rowe residual is ≤ 1e-6 and the Stokes energy gain ≈ 1.82', () => {
+  it('V5: with the physical ω_p/ω_s the Manley–Rowe residual is ≤ 1e-6 and the Stokes energy gain is 1.8235 (0.1 %)', () => {
     const f = collide()
     expect(f.manleyRoweResidual!).toBeLessThan(1e-6)
-    // "≈ 1.82" in the brief (V5); taken as ±1 %.
-    expect(f.energyJ.stokesOut / f.energyJ.stokesIn).toBeGreaterThan(1.82 * 0.99)
-    expect(f.energyJ.stokesOut / f.energyJ.stokesIn).toBeLessThan(1.82 * 1.01)
+    // No published value: scripts/reference/colliding_pulses.py (independent numpy integrator, RK4 with Strang
+    // splitting) gives 1.82346 extrapolated in the step; held to 0.1 %.
+    expect(Math.abs(f.energyJ.stokesOut / f.energyJ.stokesIn / 1.82346 - 1)).toBeLessThan(1e-3)
   })
 
   it('V5: with ω_p/ω_s forced to 1.5 the pump loses 1.5× the Stokes gain in energy, to 1e-6', () => {
