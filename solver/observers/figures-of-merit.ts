@@ -10,7 +10,7 @@ import type { SimulationConfig } from '@shared/simulation-config'
 import type { ChannelFigures, FiguresOfMerit, NotDetermined } from '@shared/simulation-result'
 import type { Model } from '../problem/coupled-modes'
 import { storageFigures } from './storage-figures'
-import { centroidS, energyJ, fwhmS, maxPower } from './trace-measures'
+import { centroidS, CUT_PULSE_RATIO, energyJ, fwhmS, maxPower, tailBeyondEnd } from './trace-measures'
 import { windowEnergies } from './window-energies'
 
 export { energyJ, fwhmS } from './trace-measures'
@@ -28,6 +28,12 @@ const OUTPUT_TAIL_FWHM = 2
 const GAIN_SCHEMES: RunScheme[] = ['amplifier']
 const REFLECTIVITY_SCHEMES: RunScheme[] = ['amplifier', 'generator']
 const f3 = (x: number) => String(Number(x.toPrecision(3)))
+/** Up to three significant digits, rounded up: a suggested window is never shorter than the rule asks. */
+const ceil3 = (x: number) => {
+  const e = Math.pow(10, Math.floor(Math.log10(x)) - 2)
+  return String(Number((Math.ceil(x / e) * e).toPrecision(3)))
+}
+const pct = (x: number) => `${Number((100 * x).toPrecision(2))} %`
 
 export function computeFigures(
   config: SimulationConfig,
@@ -62,6 +68,18 @@ export function computeFigures(
       const endNs = pulses[0].centreNs + transitS * 1e9 + OUTPUT_TAIL_FWHM * pulseFwhmNs(pulses[0])
       if (endNs > config.windowNs) {
         notDetermined.push({ figure: `${port}${key}Ns`, code: 'window-outside-run', message: `The ${port === 'pump' ? 'pump' : 'Stokes'} pulse has not fully left the waveguide when the run ends at ${f3(config.windowNs)} ns; lengthen the window to at least ${f3(endNs)} ns.` })
+        return null
+      }
+      // The expected arrival says nothing of a pulse that slow light delayed and the Brillouin response
+      // stretched into a long tail: measure what is still arriving when the run ends.
+      const cut = tailBeyondEnd(port === 'pump' ? t.pumpOut : t.stokesOut, dt)
+      if (cut.powerRatio > CUT_PULSE_RATIO || cut.energyRatio > CUT_PULSE_RATIO) {
+        const what = cut.powerRatio > CUT_PULSE_RATIO ? `its power there is ${pct(cut.powerRatio)} of its peak` : `about ${pct(cut.energyRatio)} of its energy would arrive later`
+        notDetermined.push({
+          figure: `${port}${key}Ns`,
+          code: 'window-outside-run',
+          message: `The ${port === 'pump' ? 'pump' : 'Stokes'} output pulse is still arriving when the run ends at ${f3(config.windowNs)} ns (${what}), so ${key === 'Delay' ? 'its delay would come out short' : 'a width would not describe the whole pulse'}; lengthen the window to at least ${ceil3(cut.neededEndS * 1e9)} ns.`,
+        })
         return null
       }
       return value()

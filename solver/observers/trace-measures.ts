@@ -57,3 +57,36 @@ export const windowIndices = (startNs: number, endNs: number, dtS: number): [num
   Math.ceil((startNs * 1e-9) / dtS - 1e-9),
   Math.floor((endNs * 1e-9) / dtS + 1e-9),
 ]
+
+/** Cut-off rule: an output pulse is cut by the run's end when, there, P_end/P_peak or E_beyond/E exceeds this. */
+export const CUT_PULSE_RATIO = 1e-3
+/** The window suggested for a cut pulse leaves P_end/P_peak and E_beyond/E a decade under the rule. */
+const SUGGEST_RATIO = 1e-4
+
+/**
+ * How much of a pulse lies beyond the end of the trace. The tail is extrapolated as the exponential through the
+ * last ~1 ns, P(t) = P_end·e^{−λ(t−t_end)} (a pulse broadened by the Brillouin response decays as e^{−Γ_B t};
+ * a Gaussian falls faster, so this overestimates, on the safe side): E_beyond = P_end/λ. The end that brings
+ * both ratios to SUGGEST_RATIO is t_end + ln(P_end/(ratio·min(P_peak, λE)))/λ. A tail that is not falling
+ * (λ ≤ 0) gets the end that mirrors the rising edge about the peak.
+ */
+export function tailBeyondEnd(a: Float64Array, dtS: number): { powerRatio: number; energyRatio: number; neededEndS: number } {
+  const N = a.length / 2
+  const endS = (N - 1) * dtS
+  const peak = maxPower(a), E = energyJ(a, dtS), pEnd = power(a, N - 1)
+  if (!(peak > 0) || N < 3) return { powerRatio: 0, energyRatio: 0, neededEndS: endS }
+  const m = Math.min(N - 2, Math.max(1, Math.round(1e-9 / dtS)))
+  const pBack = power(a, N - 1 - m)
+  const lambdaPerS = pEnd > 0 && pBack > 0 ? Math.log(pBack / pEnd) / (m * dtS) : pEnd > 0 ? 0 : Infinity
+  const powerRatio = pEnd / peak
+  if (!(lambdaPerS > 0)) {
+    let iPeak = 0
+    while (power(a, iPeak) < peak) iPeak++
+    let iRise = 0
+    while (power(a, iRise) < SUGGEST_RATIO * peak) iRise++
+    return { powerRatio, energyRatio: Infinity, neededEndS: Math.max(2 * iPeak - iRise, 1.5 * (N - 1)) * dtS }
+  }
+  const energyRatio = pEnd / lambdaPerS / E
+  const extraS = Math.log(pEnd / (SUGGEST_RATIO * Math.min(peak, lambdaPerS * E))) / lambdaPerS
+  return { powerRatio, energyRatio, neededEndS: endS + Math.max(0, extraS) }
+}

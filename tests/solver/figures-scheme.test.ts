@@ -86,4 +86,34 @@ describe('pulse figures of an amplifier', () => {
     expect(f3.stokesDelayNs).toBeNull()
     expect(f3.notDetermined.find((d) => d.figure === 'stokesDelayNs')?.message).toMatch(/continuous background/)
   })
+
+  it('a slow-light delay whose output tail is cut by the run end is not given, and the window it names gives the closed form', () => {
+    // Source: small-signal Brillouin transfer function H(δ) = exp{(G₀/2)/[1 − 2iδ/Γ_B]} (Agrawal, Nonlinear Fiber
+    // Optics, ch. 9; slow light: Okawachi et al., PRL 94, 153902 (2005)). The centroid delay is the group delay
+    // (G₀/Γ_B)(1 − x²)/(1 + x²)², x = 2δ/Γ_B, averaged over the output spectrum e^{−δ²T²}|H|²; Simpson's rule.
+    const P = 0.2, T = 3e-9, G0 = 300 * P * 0.05, GAMMA_B = 2 * Math.PI * 34e6
+    const N = 200_000, span = 12 / T + 50 * GAMMA_B, h = (2 * span) / N
+    let num = 0, den = 0
+    for (let i = 0; i <= N; i++) {
+      const d = -span + i * h, x = (2 * d) / GAMMA_B
+      const w = (i === 0 || i === N ? 1 : i % 2 ? 4 : 2) * Math.exp(-d * d * T * T + G0 / (1 + x * x))
+      num += (w * (G0 / GAMMA_B) * (1 - x * x)) / (1 + x * x) ** 2
+      den += w
+    }
+    const exactNs = (num / den) * 1e9
+    const run = (windowNs: number) => simulateSync(chipConfig({ windowNs, options: { errorEstimate: false }, channels: [{ pump: { backgroundPowerW: P }, stokes: { pulses: [gaussian(1e-6, 25, 3)] } }] })).manifest.figures!.channels[0]
+    // 80 ns holds the input pulse's expected arrival + 2 FWHM (35 ns) but not the e^{−Γ_B t} tail: the centroid came out 1 % low.
+    const cut = run(80)
+    expect(cut.stokesDelayNs).toBeNull()
+    const why = cut.notDetermined.find((d) => d.figure === 'stokesDelayNs')!
+    expect(why.code).toBe('window-outside-run')
+    expect(why.message).toMatch(/^The Stokes output pulse is still arriving when the run ends at 80 ns \(its power there is 0\.\d+ % of its peak\), so its delay would come out short; lengthen the window to at least \d+ ns\.$/)
+    expect(cut.notDetermined.find((d) => d.figure === 'stokesOutFwhmNs')?.code).toBe('window-outside-run')
+    const neededNs = Number(/at least (\d+) ns/.exec(why.message)![1])
+    expect(neededNs).toBeGreaterThan(80)
+    expect(neededNs).toBeLessThan(130)
+    const whole = run(neededNs)
+    expect(whole.notDetermined).toEqual([])
+    expect(Math.abs(whole.stokesDelayNs! / exactNs - 1)).toBeLessThan(2e-3)
+  })
 })
