@@ -1,4 +1,4 @@
-import { AcceptedMessage, MeResponse, MeUser, type SignUpBody, type UpdateMeBody } from '@shared/auth'
+import { AcceptedMessage, MeResponse, MeUser, type ChangeEmailBody, type ChangePasswordBody, type SignUpBody, type UpdateMeBody } from '@shared/auth'
 import { z } from 'zod'
 import { api } from './client'
 
@@ -13,6 +13,8 @@ export const resendConfirmation = () => api.post('/auth/resend-confirmation', un
 export const requestPasswordReset = (email: string) => api.post('/auth/password-reset/request', { email }, { schema: AcceptedMessage })
 export const completePasswordReset = (token: string, password: string) =>
   api.post('/auth/password-reset/complete', { token, password }, { schema: Ok })
+export const changePassword = (body: ChangePasswordBody) => api.post('/me/password', body, { schema: AcceptedMessage })
+export const changeEmail = (body: ChangeEmailBody) => api.post('/me/email', body, { schema: AcceptedMessage })
 export const updateMe = (body: UpdateMeBody) => api.patch('/me', body, { schema: MeResponse })
 
 const HeldMail = z.object({

@@ -21,7 +21,7 @@ export const cancelRun = (id: string) => api.post(`/runs/${encodeURIComponent(id
 
 export const cloneRun = (id: string, body: RunClone = {}) => api.post(`/runs/${encodeURIComponent(id)}/clone`, body, { schema: RunDetail })
 
-export const shareRun = (id: string) => api.post('/shares', { resourceType: 'run', resourceId: id }, { schema: CreatedShareLink })
+export const shareRun = (id: string, isPublic = false) => api.post('/shares', { resourceType: 'run', resourceId: id, public: isPublic }, { schema: CreatedShareLink })
 
 export const runEventsUrl = (id: string, share?: ShareToken) => withShare(`/api/runs/${encodeURIComponent(id)}/events`, share)
 export const runDownloadUrl = (id: string, share?: ShareToken) => withShare(`/api/runs/${encodeURIComponent(id)}/download`, share)

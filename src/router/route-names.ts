@@ -15,6 +15,7 @@ export interface RouteNamedMap {
   'accept-invite': RouteRecordInfo<'accept-invite', '/accept-invite', NoParams, NoParams>
   'group-settings': RouteRecordInfo<'group-settings', '/group', NoParams, NoParams>
   tokens: RouteRecordInfo<'tokens', '/tokens', NoParams, NoParams>
+  account: RouteRecordInfo<'account', '/account', NoParams, NoParams>
   'api-reference': RouteRecordInfo<'api-reference', '/reference', NoParams, NoParams>
   admin: RouteRecordInfo<'admin', '/admin', NoParams, NoParams>
   'held-mail': RouteRecordInfo<'held-mail', '/admin/held-mail', NoParams, NoParams>
@@ -46,5 +47,11 @@ declare module 'vue-router' {
     title?: string
     /** Reachable without signing in (sign-in itself, share links, not-found). */
     public?: boolean
+    /**
+     * A page a share link (?share=) may open. Without a link, a signed-out visitor is sent to sign in and
+     * back; with one, the API path returned here is asked first, and a link that needs an account
+     * (or is no longer valid) also leads to sign-in rather than to "not found".
+     */
+    shareProbe?: (params: Record<string, string | string[]>) => string
   }
 }

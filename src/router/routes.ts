@@ -28,7 +28,7 @@ export const routes: AppRoute[] = [
     path: '/runs/:id',
     name: 'run',
     component: () => import('@/pages/RunPage.vue'),
-    meta: { title: 'Run', public: true },
+    meta: { title: 'Run', public: true, shareProbe: (p) => `/api/runs/${encodeURIComponent(String(p.id))}` },
   },
   {
     path: '/sweeps',
@@ -47,7 +47,7 @@ export const routes: AppRoute[] = [
     path: '/sweeps/:id',
     name: 'sweep',
     component: () => import('@/pages/SweepPage.vue'),
-    meta: { title: 'Sweep', public: true },
+    meta: { title: 'Sweep', public: true, shareProbe: (p) => `/api/sweeps/${encodeURIComponent(String(p.id))}` },
   },
   {
     path: '/traces',
@@ -108,6 +108,12 @@ export const routes: AppRoute[] = [
     name: 'tokens',
     component: () => import('@/pages/TokensPage.vue'),
     meta: { title: 'API tokens' },
+  },
+  {
+    path: '/account',
+    name: 'account',
+    component: () => import('@/pages/AccountPage.vue'),
+    meta: { title: 'Account and mail' },
   },
   {
     // Not under /api: the dev server proxies every path that starts with /api to the API.

@@ -15,6 +15,8 @@ import { migrateDatabase } from '../../server/db/migrate'
 declare module 'vitest' {
   export interface ProvidedContext {
     e2eBaseUrl: string
+    /** The served database, for tests that set up rows no page can make (an invitation whose token only goes by mail). */
+    e2eDatabaseUrl: string
   }
 }
 
@@ -127,6 +129,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
     throw err
   }
   project.provide('e2eBaseUrl', base)
+  project.provide('e2eDatabaseUrl', url)
 
   return async () => {
     if (server.exitCode === null) {
