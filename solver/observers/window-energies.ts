@@ -1,10 +1,11 @@
 // Energy through a port inside the user's windows: fixed times, or anchored to a pulse's expected
 // arrival (shared/energy-window.ts). An anchored window that leaves the simulated time gives no number.
+// The window's edges cut through light, so its energy is the trapezoid integral (trace-measures.ts).
 import { resolveEnergyWindow } from '@shared/energy-window'
 import type { SimulationConfig } from '@shared/simulation-config'
 import type { WindowEnergy } from '@shared/simulation-result'
 import type { ChannelTraces } from './figures-of-merit'
-import { energyJ, windowIndices } from './trace-measures'
+import { windowEnergyJ } from './trace-measures'
 
 const f3 = (x: number) => String(Number(x.toPrecision(3)))
 
@@ -18,8 +19,7 @@ export function windowEnergies(config: SimulationConfig, traces: ChannelTraces[]
         : 'The pulse this window follows is not in the run.'
       return { ...base, energyJPerChannel: [], energyJ: null, notDetermined: { figure: 'energy', code: 'window-outside-run' as const, message } }
     }
-    const [n0, n1] = windowIndices(r.startNs, r.endNs, dtS)
-    const per = traces.map((t) => energyJ(t[w.port], dtS, n0, n1))
+    const per = traces.map((t) => windowEnergyJ(t[w.port], dtS, r.startNs * 1e-9, r.endNs * 1e-9))
     return { ...base, energyJPerChannel: per, energyJ: per.reduce((a, b) => a + b, 0), notDetermined: null }
   })
 }
