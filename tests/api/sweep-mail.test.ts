@@ -14,7 +14,7 @@ import { sweepDigestNotice } from '../../server/modules/mail/sweep-digest'
 import { closeFinishedSweeps } from '../../server/modules/sweeps/sweep-finish'
 import { simulateSync } from '../../solver'
 import { silentLog, useTestDb } from './helpers'
-import { newMember, queueSchemaFor, runRoutesForTest, type Member } from './runs-fixtures'
+import { chipRun, newMember, queueSchemaFor, runRoutesForTest, type Member } from './runs-fixtures'
 import { powerSweep, sweepsForTest } from './sweeps-fixtures'
 
 const { db, pool } = useTestDb()
@@ -105,6 +105,29 @@ describe('sweep digest mail', () => {
     expect(await closeFinishedSweeps(pool, db, silentLog, { mail: true })).toContain(sweep.id)
 
     expect((await mailsTo(author.email)).length).toBe(before)
+  })
+})
+
+describe('single-run mail', () => {
+  it('a single run mails its author once, with its real wall time and an absolute link; the setting turns it off', async () => {
+    const member = await newMember(db, 'editor', author.groupId, 'Jon Aas')
+    const [u] = await db.select({ email: users.email }).from(users).where(eq(users.id, member.userId))
+    const made = await request(app).post('/api/runs').set('Authorization', member.auth).send({ groupId: member.groupId, title: 'Lone chip run', config: chipRun(4, 4) })
+    expect(made.status).toBe(202)
+    const runId = made.body.id as string
+    await pool.query(`update runs set status = 'succeeded', attempt = 1, started_at = now() - interval '2.5 seconds', finished_at = now() where id = $1`, [runId])
+    const outcome = { runId, attempt: 1, status: 'succeeded' as const, authorId: member.userId, title: 'Lone chip run', message: 'Finished', manifest: null }
+
+    expect(await mailRunOutcome(db, outcome)).toBe(true)
+    const [mail] = await mailsTo(u.email)
+    await request(app).patch('/api/me').set('Authorization', member.auth).send({ notifyOnFinish: false })
+    const sentWhenOff = await mailRunOutcome(db, outcome)
+
+    expect(mail.subject).toBe("Finished: Run 'Lone chip run' succeeded")
+    expect(mail.text).toMatch(/finished in 2\.[45] s/)
+    expect(mail.html).toContain(`<a href="${PUBLIC}/runs/${runId}">`)
+    expect(sentWhenOff).toBe(false)
+    expect(await mailsTo(u.email)).toHaveLength(1)
   })
 })
 
