@@ -1,7 +1,7 @@
 import { ref, watch, type Ref } from 'vue'
 import type { SavedWaveguide } from '@shared/waveguides-api'
-import { ApiError } from '@/api/client'
 import { listGroupWaveguides } from '@/api/waveguides'
+import { useAsync } from '@/composables/useAsync'
 
 const byName = (a: SavedWaveguide, b: SavedWaveguide) => a.name.localeCompare(b.name, undefined, { sensitivity: 'base' })
 
@@ -11,26 +11,18 @@ const byName = (a: SavedWaveguide, b: SavedWaveguide) => a.name.localeCompare(b.
  */
 export function useGroupWaveguides(groupId: Ref<string | null>) {
   const items = ref<SavedWaveguide[]>([])
-  const loading = ref(false)
-  const error = ref<ApiError | null>(null)
+  // Through useAsync: a lapsed session goes to sign-in; only the latest load's outcome is kept.
+  const load = useAsync((id: string, signal: AbortSignal) => listGroupWaveguides(id, signal))
   let controller: AbortController | null = null
 
   async function reload() {
     controller?.abort()
     items.value = []
-    error.value = null
     const id = groupId.value
-    if (!id) return
+    if (!id) return load.reset()
     const mine = (controller = new AbortController())
-    loading.value = true
-    try {
-      items.value = (await listGroupWaveguides(id, mine.signal)).sort(byName)
-    } catch (e) {
-      if (mine.signal.aborted) return
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'unknown', String(e))
-    } finally {
-      if (controller === mine) loading.value = false
-    }
+    const list = await load.run(id, mine.signal)
+    if (list && controller === mine) items.value = [...list].sort(byName)
   }
 
   function upsert(w: SavedWaveguide) {
@@ -41,5 +33,5 @@ export function useGroupWaveguides(groupId: Ref<string | null>) {
   }
 
   watch(groupId, reload, { immediate: true })
-  return { items, loading, error, reload, upsert, drop }
+  return { items, loading: load.loading, error: load.error, reload, upsert, drop }
 }
