@@ -16,6 +16,7 @@ import { buildRunManifest } from '../../solver/io/manifest'
 import { estimateFigureErrors, figureError } from '../../solver/observers/error-estimate'
 import { sweepCsv } from '../../server/modules/sweeps/sweep-csv'
 import { chipConfig, gaussian, last, powerAt } from './chip-fixtures'
+import { mainRunShare, runProgressLabel } from '../../src/components/run/run-progress'
 
 const GB_PER_W_M = 300 // chip waveguide: g_B/A_eff = 3e-10 m/W / 1 µm²
 const L_M = 0.05
@@ -254,6 +255,10 @@ describe('the companion run', () => {
     const share = r.manifest.counters.cellUpdates / (r.manifest.counters.cellUpdates + e.cellUpdates)
     expect(fractions).toContain(share)
     expect(fractions.filter((f) => f > share).length).toBeGreaterThan(10)
+    // The run page reads the same share from the configuration to tell the companion's progress from the run's.
+    expect(mainRunShare(cw(true))).toBeCloseTo(share, 12)
+    expect(runProgressLabel(share, 512, 512, mainRunShare(cw(true)))).toBe(`${Math.round(100 * share)} % · computing the error estimate`)
+    expect(mainRunShare(cw(false))).toBe(1)
   })
 
   it('is not run when switched off: no companion node-steps, progress is the run’s own', () => {
