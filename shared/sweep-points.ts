@@ -1,6 +1,7 @@
 // A sweep's points: the base configuration with each combination of axis values applied, validated one by
 // one, and the resource estimate of the whole sweep with its limit check.
 import { chooseGrid } from './grid-step'
+import { describeIssuePath } from './issue-path-labels'
 import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from './resource-estimate'
 import { SimulationConfig } from './simulation-config'
 import { applySweepValue, fieldProblem } from './sweep-fields'
@@ -43,7 +44,7 @@ export function buildSweepPoints(def: SweepDefinition): BuiltSweep {
       if (issues.length < MAX_REPORTED_POINTS) {
         const where = def.axes.map((a, i) => `${axisLabel(a)} = ${at[i]}`).join(', ')
         const first = parsed.error.issues[0]
-        issues.push({ path: 'axes', message: `Point ${index} (${where}) is not a valid run: ${first.path.join('.')}: ${first.message}` })
+        issues.push({ path: 'axes', message: `Point ${index} (${where}) is not a valid run: ${describeIssuePath(first.path, def.baseConfig.channels.length)}: ${first.message}` })
       }
       continue
     }
