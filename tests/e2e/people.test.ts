@@ -124,3 +124,39 @@ describe('invitation sign-up', () => {
     expect(rows[0].role).toBe('editor')
   })
 })
+
+describe('account page', () => {
+  it('changes which mails come, and names the wrong current password at its field', async () => {
+    const email = `account-${Date.now()}@halden-lab.example`
+    const page = await freshPage()
+    await page.goto('/sign-up')
+    await page.getByLabel('E-mail').fill(email)
+    await page.getByLabel('Password', { exact: true }).fill('an account passphrase')
+    await page.getByRole('button', { name: 'Create account' }).click()
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-up'), { timeout: 20_000 })
+
+    await page.goto('/account')
+    await page.getByLabel('A sweep of mine finished').uncheck()
+    await expect.poll(async () => (await (await page.request.get('/api/me')).json()).user.notifyOnSweepFinish).toBe(false)
+    expect((await (await page.request.get('/api/me')).json()).user).toMatchObject({ notifyOnFinish: true, notifyOnGroupChange: true })
+
+    const passwordCard = page.locator('.v-card', { hasText: 'Change password' })
+    await passwordCard.getByLabel('Current password').fill('not my password at all')
+    await passwordCard.getByLabel('New password').fill('a newer account passphrase')
+    await passwordCard.getByRole('button', { name: 'Change password' }).click()
+    await passwordCard.getByText('This is not your current password').waitFor()
+    await screenshot(page, 'account-page')
+
+    for (const [theme, width] of [['dark', 390], ['light', 390]] as const) {
+      const ctx = await newContext(browser, base, theme, page.context())
+      contexts.push(ctx)
+      const phone = await ctx.newPage()
+      await phone.setViewportSize({ width, height: 844 })
+      await phone.goto('/account')
+      await phone.getByText('Mail me when').waitFor()
+      const overflow = await phone.evaluate<number>('document.documentElement.scrollWidth - window.innerWidth')
+      expect(overflow).toBeLessThanOrEqual(0)
+      await screenshot(phone, `account-page-${width}-${theme}`)
+    }
+  })
+})
