@@ -128,7 +128,10 @@ export class SimulationRun {
         interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, 0, 0, K, 0.25 * c, Er, Ei, h)
         interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, nz, nz, K, 0.25 * c, Er, Ei, h)
       } else {
-        for (let j = 0; j <= nz; j++) interactGeneral(m, s, j, j === 0 || j === nz ? 0.5 : 1, this.rng)
+        // Node order 0, 1..nz−1, nz: the order of the random draws.
+        interactGeneral(m, s, 0, 0, 0.5, this.rng)
+        interactGeneral(m, s, 1, nz - 1, 1, this.rng)
+        interactGeneral(m, s, nz, nz, 0.5, this.rng)
       }
       for (let k = 0; k < m.nCh; k++) {
         const base = k * m.nodes

@@ -8,42 +8,55 @@ import type { NormalSource } from '../noise/random'
 import type { FieldState } from './interaction-kernel'
 
 /*
- * General path, as the named steps of the contract above. Per-channel scratch (SCRATCH_PER_CHANNEL numbers at
- * o = SCRATCH_PER_CHANNEL·k): [o, o+1] b̃ then b̄, [o+2, o+3] D₀, [o+4, o+5] B seen by this channel's optics,
- * [o+6, o+7] the step's noise draw, [o+8, o+9] the extra draw that restores the variance of b̄ (SVEA noise).
- * The steps run in this order and each loops over the channels, so the random draws keep their order
- * (per channel: the kick, then the mean's draw) and every sum keeps its rounding: the results are the same
- * bit for bit as the one-function kernel before the split (tests/solver/kernel-bits.test.ts).
+ * General path, as the named steps of the contract above, over a block of up to SCRATCH_NODES nodes at a time
+ * (each node's step involves only that node, so running every step over the block before the next step gives
+ * the same numbers as running the node through all steps; one call per step and block keeps the per-node cost
+ * of the calls away). Scratch per node and channel (SCRATCH_PER_CHANNEL numbers at
+ * o = SCRATCH_PER_CHANNEL·(k·SCRATCH_NODES + node in block)): [o, o+1] b̃ then b̄, [o+2, o+3] D₀, [o+4, o+5] B
+ * seen by this channel's optics, [o+6, o+7] the step's noise draw, [o+8, o+9] the extra draw that restores
+ * the variance of b̄ (SVEA noise). The noise step draws node by node and channel by channel, the order of the
+ * one-function kernel before the split, and every sum keeps its rounding: the results are the same bit for
+ * bit (tests/solver/kernel-bits.test.ts).
  */
 
-/** Numbers of scratch per channel (layout above). */
+/** Numbers of scratch per node and channel (layout above). */
 export const SCRATCH_PER_CHANNEL = 10
+/** Nodes per block: enough to spread the calls, small enough for the scratch to stay in the L1 cache. */
+export const SCRATCH_NODES = 32
 
-/** General path: any number of channels, optional higher-order acoustics, Kerr and thermal noise. */
-export function interactGeneral(m: Model, s: FieldState, j: number, weight: number, rng: NormalSource | null): void {
-  predictAcoustic(m, s, j)
-  if (rng !== null) drawThermalNoise(m, s, j, weight, rng)
-  averageAcoustic(m, s, j, rng !== null && m.higherOrder === null)
+/**
+ * General path: any number of channels, optional higher-order acoustics, Kerr and thermal noise, at nodes
+ * j0..j1 of trapezoid weight `weight`, in node order.
+ */
+export function interactGeneral(m: Model, s: FieldState, j0: number, j1: number, weight: number, rng: NormalSource | null): void {
   const kerr = m.kerrHalfPump !== 0 || m.kerrHalfStokes !== 0
-  if (kerr) kerrHalfStep(m, s, j, weight)
-  fieldSeenByOptics(m, s, j)
-  exchangeOptics(m, s, j, weight)
-  if (kerr) kerrHalfStep(m, s, j, weight)
-  if (m.higherOrder === null) correctSvea(m, s, j, rng !== null)
-  else correctHigherOrder(m, s, j, rng !== null)
+  for (let a = j0; a <= j1; a += SCRATCH_NODES) {
+    const b = Math.min(j1, a + SCRATCH_NODES - 1)
+    predictAcoustic(m, s, a, b)
+    if (rng !== null) drawThermalNoise(m, s, a, b, weight, rng)
+    averageAcoustic(m, s, a, b, rng !== null && m.higherOrder === null)
+    if (kerr) kerrHalfStep(m, s, a, b, weight)
+    fieldSeenByOptics(m, s, a, b)
+    exchangeOptics(m, s, a, b, weight)
+    if (kerr) kerrHalfStep(m, s, a, b, weight)
+    if (m.higherOrder === null) correctSvea(m, s, a, b, rng !== null)
+    else correctHigherOrder(m, s, a, b, rng !== null)
+  }
 }
 
 /** Step 2, predictor: D₀ = iκAₚAₛ* from the entry fields, and the noise-free b̃ (SVEA or ETD). */
-function predictAcoustic(m: Model, s: FieldState, j: number): void {
+function predictAcoustic(m: Model, s: FieldState, j0: number, j1: number): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
   const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm, scratch } = s
   const K = m.driveK
   const h = m.dtS
   const Er = m.svea.eRe
   const Ei = m.svea.eIm
   const ho = m.higherOrder
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const i = k * nodes + j
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
     const d0r = -K * (ui * vr - ur * vi)
     const d0i = K * (ur * vr + ui * vi)
@@ -70,13 +83,14 @@ function predictAcoustic(m: Model, s: FieldState, j: number): void {
  * noise of the whole step (docs/numerics.md, "Thermal noise"); adding it only after the corrector would scale
  * the noise that the light sees by (1 + E)/2, a first-order error in the spontaneous Stokes power.
  */
-function drawThermalNoise(m: Model, s: FieldState, j: number, weight: number, rng: NormalSource): void {
+function drawThermalNoise(m: Model, s: FieldState, j0: number, j1: number, weight: number, rng: NormalSource): void {
+  const nCh = m.nCh
   const scratch = s.scratch
   const ho = m.higherOrder
   const sd = (ho === null ? m.noiseKickRms : m.noiseForceRms) * Math.SQRT1_2 * noiseWeight(weight)
   const sdMean = m.noiseMeanRms * Math.SQRT1_2 * noiseWeight(weight)
-  for (let k = 0; k < m.nCh; k++) {
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     const xr = sd * rng.normal(), xi = sd * rng.normal()
     scratch[o + 6] = xr
     scratch[o + 7] = xi
@@ -99,11 +113,13 @@ function drawThermalNoise(m: Model, s: FieldState, j: number, weight: number, rn
 }
 
 /** b̄ = (b + b̃)/2, the acoustic field the light sees over the step, plus the mean's own draw with SVEA noise. */
-function averageAcoustic(m: Model, s: FieldState, j: number, meanDraw: boolean): void {
+function averageAcoustic(m: Model, s: FieldState, j0: number, j1: number, meanDraw: boolean): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
   const { bRe, bIm, scratch } = s
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const i = k * nodes + j
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     scratch[o] = 0.5 * (bRe[i] + scratch[o])
     scratch[o + 1] = 0.5 * (bIm[i] + scratch[o + 1])
     if (meanDraw) {
@@ -114,18 +130,19 @@ function averageAcoustic(m: Model, s: FieldState, j: number, meanDraw: boolean):
 }
 
 /** B_k = e^{−i q_k z} Σ_m b̄_m e^{i q_m z}: every channel's grating as channel k's optics see it (b̄ itself for one). */
-function fieldSeenByOptics(m: Model, s: FieldState, j: number): void {
+function fieldSeenByOptics(m: Model, s: FieldState, j0: number, j1: number): void {
   const scratch = s.scratch
   const nCh = m.nCh
   const nodes = m.nodes
-  for (let k = 0; k < nCh; k++) {
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     let Br = scratch[o], Bi = scratch[o + 1]
     if (nCh > 1) {
       const pr = m.phaseRe!, pim = m.phaseIm!
       let sr = 0, si = 0
       for (let mm = 0; mm < nCh; mm++) {
-        const x = scratch[SCRATCH_PER_CHANNEL * mm], y = scratch[SCRATCH_PER_CHANNEL * mm + 1]
+        const om = SCRATCH_PER_CHANNEL * (mm * SCRATCH_NODES + j - j0)
+        const x = scratch[om], y = scratch[om + 1]
         const cr = pr[mm * nodes + j], ci = pim[mm * nodes + j]
         sr += x * cr - y * ci
         si += x * ci + y * cr
@@ -140,12 +157,14 @@ function fieldSeenByOptics(m: Model, s: FieldState, j: number): void {
 }
 
 /** Step 3, optical exchange with B frozen: the Cayley (unitary) rotation of (u, v), β = exchangePerB·weight·B. */
-function exchangeOptics(m: Model, s: FieldState, j: number, weight: number): void {
+function exchangeOptics(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
   const { uRe, uIm, vRe, vIm, scratch } = s
   const c = m.exchangePerB * weight
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const i = k * nodes + j
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     const betaR = c * scratch[o + 4], betaI = c * scratch[o + 5]
     const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
     const q = 0.25 * (betaR * betaR + betaI * betaI)
@@ -159,15 +178,17 @@ function exchangeOptics(m: Model, s: FieldState, j: number, weight: number): voi
 }
 
 /** Step 4, SVEA corrector: b ← e^{−λΔt}(b + Δt/2·D₀) + Δt/2·D₁, plus the exact Ornstein–Uhlenbeck kick drawn for the predictor. */
-function correctSvea(m: Model, s: FieldState, j: number, noise: boolean): void {
+function correctSvea(m: Model, s: FieldState, j0: number, j1: number, noise: boolean): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
   const { uRe, uIm, vRe, vIm, bRe, bIm, scratch } = s
   const K = m.driveK
   const hh = 0.5 * m.dtS
   const Er = m.svea.eRe
   const Ei = m.svea.eIm
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const i = k * nodes + j
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     const nur = uRe[i], nui = uIm[i], nvr = vRe[i], nvi = vIm[i]
     const d1r = -K * (nui * nvr - nur * nvi)
     const d1i = K * (nur * nvr + nui * nvi)
@@ -190,14 +211,16 @@ function correctSvea(m: Model, s: FieldState, j: number, noise: boolean): void {
  * Step 4, higher-order corrector: the ETD step of (b, ∂t b) with the source interpolated linearly over the
  * step, y₁ = E y₀ + (P₀ − P₁) g₀ + P₁ g₁, plus the Langevin force drawn for the predictor, held over the step.
  */
-function correctHigherOrder(m: Model, s: FieldState, j: number, noise: boolean): void {
+function correctHigherOrder(m: Model, s: FieldState, j0: number, j1: number, noise: boolean): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
   const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm, scratch } = s
   const K = m.driveK
   const ho = m.higherOrder!
   const f = ho.sourceFactor[1]
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    const o = SCRATCH_PER_CHANNEL * k
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const i = k * nodes + j
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
     const nur = uRe[i], nui = uIm[i], nvr = vRe[i], nvi = vIm[i]
     const d1r = -K * (nui * nvr - nur * nvi)
     const d1i = K * (nur * nvr + nui * nvi)
@@ -239,20 +262,24 @@ export function noiseWeight(weight: number): number {
   return weight === 1 ? 1 : Math.sqrt(1 / weight)
 }
 
-/** SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation. */
-function kerrHalfStep(m: Model, s: FieldState, j: number, weight: number): void {
+/** SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation, at nodes j0..j1. */
+function kerrHalfStep(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
   const { uRe, uIm, vRe, vIm } = s
-  let total = 0
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    total += m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
-  }
-  for (let k = 0; k < m.nCh; k++) {
-    const i = k * m.nodes + j
-    const pp = m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i])
-    const ps = m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
-    rotate(uRe, uIm, i, m.kerrHalfPump * weight * (2 * total - pp))
-    rotate(vRe, vIm, i, m.kerrHalfStokes * weight * (2 * total - ps))
+  for (let j = j0; j <= j1; j++) {
+    let total = 0
+    for (let k = 0; k < nCh; k++) {
+      const i = k * nodes + j
+      total += m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+    }
+    for (let k = 0; k < nCh; k++) {
+      const i = k * nodes + j
+      const pp = m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i])
+      const ps = m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+      rotate(uRe, uIm, i, m.kerrHalfPump * weight * (2 * total - pp))
+      rotate(vRe, vIm, i, m.kerrHalfStokes * weight * (2 * total - ps))
+    }
   }
 }
 

@@ -21,7 +21,7 @@
  * is globally second order (shown in tests/solver/convergence.test.ts).
  */
 import type { Model } from '../problem/coupled-modes'
-import { SCRATCH_PER_CHANNEL } from './general-kernel'
+import { SCRATCH_NODES, SCRATCH_PER_CHANNEL } from './general-kernel'
 
 export { interactGeneral, noiseWeight } from './general-kernel'
 
@@ -35,7 +35,7 @@ export interface FieldState {
   /** ∂t b for the higher-order acoustic equation (length 0 otherwise). */
   wRe: Float64Array
   wIm: Float64Array
-  /** Per-channel scratch of interactGeneral: SCRATCH_PER_CHANNEL numbers per channel (layout there). */
+  /** Scratch of interactGeneral: SCRATCH_PER_CHANNEL numbers per channel and node of a block (layout there). */
   scratch: Float64Array
 }
 
@@ -51,7 +51,7 @@ export function allocateState(m: Model): FieldState {
     bIm: new Float64Array(n),
     wRe: new Float64Array(nw),
     wIm: new Float64Array(nw),
-    scratch: new Float64Array(SCRATCH_PER_CHANNEL * m.nCh),
+    scratch: new Float64Array(SCRATCH_PER_CHANNEL * SCRATCH_NODES * m.nCh),
   }
 }
 
