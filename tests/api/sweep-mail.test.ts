@@ -9,6 +9,8 @@ import { SimulationConfig } from '@shared/simulation-config'
 import { createApp } from '../../server/app'
 import { users } from '../../server/db/schema'
 import { formatDuration, mailRunOutcome, runFinishedNotice } from '../../server/jobs/handlers/run-finished'
+import { htmlFromText } from '../../server/modules/mail/mail-html'
+import { absoluteLink, configuredOrigin } from '../../server/modules/mail/mail-links'
 import { mailCatcher, stopMailer } from '../../server/modules/mail/mailer'
 import { sweepDigestNotice } from '../../server/modules/mail/sweep-digest'
 import { closeFinishedSweeps } from '../../server/modules/sweeps/sweep-finish'
@@ -179,5 +181,21 @@ describe('run-finished mail text', () => {
     const outcome = { runId: 'r', attempt: 1, status: 'succeeded' as const, authorId: null, title: 'Chip', message: '', manifest: null }
     expect(runFinishedNotice(outcome, 0.038).summary).toContain('finished in 38 ms')
     expect(runFinishedNotice(outcome, null).summary).not.toMatch(/ in /)
+  })
+})
+
+describe('links in mail', () => {
+  it('take PUBLIC_URL, else the configured listener, and never stay relative', () => {
+    expect(configuredOrigin({ PUBLIC_URL: 'https://sonoweave.example.org/' })).toBe('https://sonoweave.example.org')
+    expect(configuredOrigin({ HOST: '0.0.0.0', PORT: '8080' })).toBe('http://localhost:8080')
+    expect(configuredOrigin({ HOST: 'lab-server.local', PORT: '3001' })).toBe('http://lab-server.local:3001')
+    expect(absoluteLink('/runs/abc', 'https://a.example/')).toBe('https://a.example/runs/abc')
+    expect(absoluteLink('https://b.example/x', 'https://a.example')).toBe('https://b.example/x')
+  })
+
+  it('are anchors in the HTML part, with the text escaped', () => {
+    const html = htmlFromText('Gain <3 dB & more.\n\nOpen it: https://a.example/runs/1?share=x&y=2\n\n-- \nSig')
+    expect(html).toContain('Gain &lt;3 dB &amp; more.')
+    expect(html).toContain('<a href="https://a.example/runs/1?share=x&amp;y=2">https://a.example/runs/1?share=x&amp;y=2</a>')
   })
 })
