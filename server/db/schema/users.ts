@@ -11,7 +11,7 @@ export const users = pgTable(
     passwordHash: text('password_hash').notNull(),
     emailConfirmedAt: timestamp('email_confirmed_at', { withTimezone: true }),
     isAdmin: boolean('is_admin').notNull().default(false),
-    /** Mail me when a run or sweep of mine finishes (opt-out). */
+    /** Mail me when a single run of mine finishes (opt-out); sweeps have their own setting below. */
     notifyOnFinish: boolean('notify_on_finish').notNull().default(true),
     /** Mail me one digest when a sweep of mine finishes (its points send none of their own). */
     notifyOnSweepFinish: boolean('notify_on_sweep_finish').notNull().default(true),
