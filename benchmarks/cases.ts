@@ -3,7 +3,7 @@
 import { SimulationConfig } from '@shared/simulation-config'
 import { SPEED_OF_LIGHT_M_PER_S } from '@shared/physical-constants'
 
-/** The physics brief's "chip" (physics.md §6): n_g = 2.44, G_B = 300 /(W m) via g_B/A_eff, ν_B = 7.7 GHz. */
+/** The validation "chip" (docs/validation.md): n_g = 2.44, G_B = 300 /(W m) via g_B/A_eff, ν_B = 7.7 GHz. */
 const CHIP = {
   name: 'benchmark chip',
   groupIndex: 2.44,
@@ -40,7 +40,7 @@ export function gridCase(nz: number, nt: number, o: BenchOptions = {}): Simulati
   })
 }
 
-/** V4 of physics.md: chip, α = 0, Δν_B = 34 MHz, CW P₀ = 0.5 W, P_L = 1 mW, 150 ns (Tang 1966). */
+/** V4 of docs/validation.md: chip, α = 0, Δν_B = 34 MHz, CW P₀ = 0.5 W, P_L = 1 mW, 150 ns (Tang 1966). */
 export function cwDepletionCase(timeStepPs: number): SimulationConfig {
   return SimulationConfig.parse({
     waveguide: { ...CHIP, lengthM: 0.05 },
@@ -51,7 +51,7 @@ export function cwDepletionCase(timeStepPs: number): SimulationConfig {
 }
 
 /**
- * Exact lossless CW depletion (Tang 1966; physics.md §2): P_s(z) = b₀C e^{−G C z}/(1 − r b₀ e^{−G C z}) with
+ * Exact lossless CW depletion (Tang 1966; docs/model.md, equations): P_s(z) = b₀C e^{−G C z}/(1 − r b₀ e^{−G C z}) with
  * C = P₀(1 − r b₀); b₀ solved by bisection from P_s(L) = P_L. Returns P_s(0) = b₀ P₀.
  */
 export function exactDepletionStokesOutW(p0W: number, pLW: number, gainPerWM: number, lengthM: number, r: number): number {

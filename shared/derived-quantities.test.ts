@@ -59,7 +59,7 @@ describe('material and spectral quantities', () => {
     expect(relErr(g.formIndexMPerW, g.formElectrostrictiveMPerW)).toBeLessThan(1e-12)
   })
 
-  it('reports both phonon lifetimes, energy 1/Γ_B and amplitude 2/Γ_B (physics.md §1)', () => {
+  it('reports both phonon lifetimes, energy 1/Γ_B and amplitude 2/Γ_B (docs/model.md, conventions)', () => {
     const d = deriveQuantities({ waveguide: silicaFibre({ linewidthMHz: 20 }) })
     // Γ_B = 2π·20 MHz → 1/Γ_B = 7.9577 ns (hand computed).
     expect(d.phononLifetimeEnergyNs).toBeCloseTo(7.9577, 3)
@@ -76,7 +76,7 @@ describe('material and spectral quantities', () => {
     expect(d.acousticWavelengthNm).toBeCloseTo(534.48, 2)
   })
 
-  it('n_th at 7.7 GHz and 300 K is 811.3 (Bose–Einstein; physics.md V9)', () => {
+  it('n_th at 7.7 GHz and 300 K is 811.3 (Bose–Einstein; docs/validation.md V9)', () => {
     expect(relErr(thermalOccupation(7.7e9, 300), 811.3)).toBeLessThan(1e-3)
   })
 
@@ -103,7 +103,7 @@ describe('gain and threshold', () => {
     expect(criticalPowerW(80e-12, 5e-11, 1000)).toBeCloseTo((21 * 80e-12) / (5e-11 * 1000), 15)
   })
 
-  it('V3 inputs: G₀ − αL gives the undepleted chip gain ln 1.33482 (physics.md V3, Agrawal ch. 9)', () => {
+  it('V3 inputs: G₀ − αL gives the undepleted chip gain ln 1.33482 (docs/validation.md V3, Agrawal ch. 9)', () => {
     // chip: G_B = 300 /(W m), L = 5 cm, α = 0.3 dB/cm, P₀ = 50 mW.
     const d = deriveQuantities({
       waveguide: Waveguide.parse({ lengthM: 0.05, groupIndex: 2.44, lossDbPerM: 30, effectiveAreaUm2: 1, gainCoefficientMPerW: 3e-10, brillouinShiftGHz: 7.7, linewidthMHz: 34 }),
@@ -144,7 +144,7 @@ describe('grid summary and warnings', () => {
     expect(codes(fine)).not.toContain('coarse-grid')
   })
 
-  it('warns when G₀ > 15 with noise off, and not once noise is on (physics.md §5)', () => {
+  it('warns when G₀ > 15 with noise off, and not once noise is on (shared/derived-warnings.ts)', () => {
     const base = { channels: [{ pump: { pulses: [], backgroundPowerW: 1.2 } }] } // G₀ = 300·1.2·0.05 = 18
     const off = chipConfig(base)
     expect(codes(deriveQuantities({ waveguide: off.waveguide, config: off }))).toContain('gain-without-noise')
@@ -152,7 +152,7 @@ describe('grid summary and warnings', () => {
     expect(codes(deriveQuantities({ waveguide: on.waveguide, config: on }))).not.toContain('gain-without-noise')
   })
 
-  it('warns about pulses under 5 acoustic periods only in SVEA mode (physics.md §5)', () => {
+  it('warns about pulses under 5 acoustic periods only in SVEA mode (shared/derived-warnings.ts)', () => {
     const pulses = [{ shape: 'gaussian' as const, peakPowerW: 0.01, centreNs: 2, fwhmNs: 0.3 }] // 5/7.7 GHz = 649 ps
     const svea = chipConfig({ channels: [{ pump: { pulses } }], windowNs: 5 })
     expect(codes(deriveQuantities({ waveguide: svea.waveguide, config: svea }))).toContain('svea-short-pulse')
@@ -190,7 +190,7 @@ describe('grid summary and warnings', () => {
     expect(got).not.toContain('damage-intensity')
   })
 
-  it('warns when a CW window is shorter than 20/Γ_B (physics.md §4)', () => {
+  it('warns when a CW window is shorter than 20/Γ_B (docs/numerics.md)', () => {
     // Γ_B = 2π·34 MHz → 20/Γ_B = 93.6 ns.
     const short = chipConfig({ windowNs: 80 })
     expect(codes(deriveQuantities({ waveguide: short.waveguide, config: short }))).toContain('short-cw-window')

@@ -1,5 +1,5 @@
 // Quantities derived from a waveguide (and, when given, a run configuration) shown before a run.
-// Formulas follow physics.md §1 and §5; sources are named beside each. Pure: no Node or DOM APIs.
+// Formulas follow docs/model.md; sources are named beside each. Pure: no Node or DOM APIs.
 import type { Waveguide } from './waveguide'
 import { pulseFeatureNs, type SimulationConfig } from './simulation-config'
 import type { Pulse } from './pulse'
@@ -90,7 +90,7 @@ export function brillouinShiftHz(phaseIndex: number, acousticVelocityMPerS: numb
 }
 
 /**
- * Peak Brillouin gain from material constants, in both forms of physics.md §5 (Agrawal ch. 9):
+ * Peak Brillouin gain from material constants, in both of its usual forms (Agrawal ch. 9):
  * g_B = 2π n⁷ p₁₂² / (c λ² ρ₀ v_A Δν_B) and g_B = γ_e² ω² / (n v_A c³ ρ₀ Γ_B) with γ_e = n⁴ p₁₂.
  */
 export function brillouinGainFromMaterial(

@@ -1,27 +1,27 @@
-// Model-validity warnings of physics.md §5: where the configured run leaves the ground the equations cover.
+// Model-validity warnings (docs/model.md, "Not modelled"): where the configured run leaves the ground the equations cover.
 import type { Waveguide } from './waveguide'
 import { pulseFeatureNs, type SimulationConfig } from './simulation-config'
 import type { Advisory } from './laser-safety'
 import type { DerivedOptions, DerivedQuantities } from './derived-quantities'
 
-/** Above this G₀ spontaneous scattering from thermal phonons grows to a visible level (physics.md §5). */
+/** Above this G₀ spontaneous scattering from thermal phonons grows to a visible level (common practice; docs/model.md). */
 export const NOISE_GAIN_THRESHOLD = 15
-/** SVEA needs pulses longer than a few acoustic periods (physics.md §5). */
+/** SVEA needs pulses longer than a few acoustic periods (common practice; docs/model.md). */
 export const MIN_ACOUSTIC_PERIODS_SVEA = 5
 /** Dispersion is negligible while L < L_D/10 (common practice). */
 export const DISPERSION_LENGTH_FRACTION = 0.1
-/** Channels must sit ≥ 10 Δν_B apart for the dropped cross beats to be off resonance (physics.md §3). */
+/** Channels must sit ≥ 10 Δν_B apart for the dropped cross beats to be off resonance (docs/model.md, options). */
 export const MIN_CHANNEL_SPACING_LINEWIDTHS = 10
 /**
  * Below this thermal occupation the classical Langevin source leaves its range: spontaneous Stokes emission
  * goes with n_th + 1, not n_th (common practice; e.g. Boyd, Rzążewski & Narum, Phys. Rev. A 42, 5514, 1990).
  */
 export const CLASSICAL_NOISE_MIN_OCCUPATION = 10
-/** A CW run reaches steady state after about 20/Γ_B, since b relaxes at Γ_B/2 (physics.md §4). */
+/** A CW run reaches steady state after about 20/Γ_B, since b relaxes at Γ_B/2 (docs/numerics.md). */
 export const CW_STEADY_STATE_DECAY_TIMES = 20
 /** |β₂| ≈ 20 ps²/km, standard single-mode silica fibre at 1550 nm (from memory; Agrawal, Nonlinear Fiber Optics ch. 1). */
 export const DEFAULT_DISPERSION_PS2_PER_KM = 20
-/** Fewer time steps than this across the shortest pulse feature under-resolves it (physics.md §4 asks for ≥ 20). */
+/** Fewer time steps than this across the shortest pulse feature under-resolves it (docs/numerics.md asks for ≥ 20). */
 export const MIN_CELLS_PER_PULSE = 10
 /** Gaussian power FWHM = 2√(ln 2)·T for A ∝ exp(−t²/2T²). */
 const FWHM_PER_RMS = 2 * Math.sqrt(Math.LN2)

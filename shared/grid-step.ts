@@ -1,4 +1,4 @@
-// Step-size rules of the physics brief (§4), shared by the solver and the browser's resource estimate so
+// Step-size rules (docs/numerics.md), shared by the solver and the browser's resource estimate so
 // both always agree on the grid a configuration will get.
 import { SPEED_OF_LIGHT_M_PER_S } from './physical-constants'
 import { dbPerMToPerM, ghzToHz, mhzToHz, nmToM, um2ToM2 } from './units'
@@ -7,7 +7,7 @@ import type { Waveguide } from './waveguide'
 import { MIN_AUTO_STEPS } from './grid-limits'
 import { shortestFeaturePath, strongestPowerPath, widestOffsetPath } from './grid-binding'
 
-/** Rates of the coupled-mode equations in SI units (see physics brief §1). */
+/** Rates of the coupled-mode equations in SI units (see docs/model.md, conventions). */
 export interface BrillouinRates {
   groupVelocityMPerS: number
   /** Optical power loss α (1/m). */
@@ -59,7 +59,7 @@ export function brillouinRates(wg: Waveguide, detuningMHz = 0, frequencyRatioOve
   }
 }
 
-/** Tuning constants of §4 (physics brief), named so the UI can quote them. */
+/** Tuning constants of the step rules (docs/numerics.md), named so the UI can quote them. */
 export const GRID_RULES = {
   stepsPerShortestFeature: 20,
   maxGainPerCell: 0.05,
@@ -107,7 +107,7 @@ export function shortestFeatureNs(config: SimulationConfig): number {
   return t
 }
 
-/** Wavenumber mismatch between the gratings of two channels: q_k − q_j ≈ 2 n_g Δω/c (physics brief §3). */
+/** Wavenumber mismatch between the gratings of two channels: q_k − q_j ≈ 2 n_g Δω/c (docs/model.md, options). */
 export function channelMismatchPerM(config: SimulationConfig, offsetGHz: number): number {
   return (2 * config.waveguide.groupIndex * 2 * Math.PI * ghzToHz(offsetGHz)) / SPEED_OF_LIGHT_M_PER_S
 }

@@ -50,7 +50,7 @@ export function pulseAmplitude(p: Pulse, tNs: number): number {
 /**
  * Interleaved complex trace of one port. The continuous background adds coherently (it is leakage of the
  * same laser through the modulator) with phase 0. A pulse carries e^{i(φ − 2πδ(t − t₀))}: the phase is
- * the carrier phase at the pulse centre, and a spectral offset +δ gives an envelope ∝ e^{−iδt} (physics brief §1).
+ * the carrier phase at the pulse centre, and a spectral offset +δ gives an envelope ∝ e^{−iδt} (docs/model.md, conventions).
  */
 export function sampleInput(port: PortInput, nt: number, dtS: number): Float64Array {
   const out = new Float64Array(2 * (nt + 1))

@@ -2,7 +2,7 @@
  * What each launched pulse is for, and when its light is expected at each port. Figures of merit are
  * measured in windows that follow these arrivals, so they stay right when a sweep moves a pulse.
  *
- * Geometry (physics brief conventions, in the repo's docs/physics.md): the pump enters at z = 0 and
+ * Geometry (docs/model.md, conventions): the pump enters at z = 0 and
  * leaves at z = L; the Stokes enters at z = L and leaves at z = 0; both travel at v_g, transit T = L·n_g/c.
  *
  * Storage read-out: a data pulse (pump port, entering at t_d) meets a write pulse (Stokes port, entering

@@ -20,7 +20,7 @@ const config = (over: Partial<SimulationConfigInput> = {}) =>
   })
 
 describe('estimateResources', () => {
-  it('counts cell-updates as N_ch·N_nodes·N_samples·N_real (physics.md §4), nodes = nz + 1, samples = nt + 1', () => {
+  it('counts cell-updates as N_ch·N_nodes·N_samples·N_real (docs/numerics.md), nodes = nz + 1, samples = nt + 1', () => {
     const two = config({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: { errorEstimate: false } })
     const e = estimateResources(two, { dtS: 5e-12, nz: 2000, nt: 20000 }, 3)
     expect(e.cellUpdates).toBe(2 * 2001 * 20001 * 3)
@@ -129,7 +129,7 @@ describe('checkLimits', () => {
 
 describe('the time-step floor', () => {
   it('refuses a grid whose binding rule asks for a step below MIN_TIME_STEP_PS, on the field that rule depends on', () => {
-    // 1 GW continuous pump: G_B·P_max·Δz ≤ 0.05 (physics.md §4) asks for Δz of nanometres, Δt ≈ 1e-8 ps.
+    // 1 GW continuous pump: G_B·P_max·Δz ≤ 0.05 (docs/numerics.md) asks for Δz of nanometres, Δt ≈ 1e-8 ps.
     const c = config({ channels: [{ pump: { pulses: [], backgroundPowerW: 1e6 } }] })
     const check = checkLimits(estimateResources(c, chooseGrid(c)))
 

@@ -1,5 +1,5 @@
 // What a run will cost before it starts: cells, steps, cell-updates, memory and expected time, and the
-// refusal of runs over the limits with the knob to turn. Cost model: physics.md §4 (N_ch·N_z·N_t·N_real),
+// refusal of runs over the limits with the knob to turn. Cost model: docs/numerics.md (N_ch·N_z·N_t·N_real),
 // plus the error estimate's companion run on the grid with twice the step (about a quarter of the run).
 import { storageForkStep, storageReferenceStartNs } from './pulse-roles'
 import type { SimulationConfig } from './simulation-config'
@@ -101,7 +101,7 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     expectedSeconds: cellUpdates / cellUpdatesPerS,
     windowNs: config.windowNs,
     lengthM: config.waveguide.lengthM,
-    // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (physics.md §3).
+    // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (docs/model.md, options).
     maxTimeStepPs: o.higherOrderAcoustic ? 1000 / (20 * config.waveguide.brillouinShiftGHz) : undefined,
     stepBinding: grid.binding ? { targetPs: grid.binding.targetDtS * 1e12, field: grid.binding.field, rule: grid.binding.rule } : undefined,
   }

@@ -27,7 +27,7 @@ describe('built-in waveguide presets', () => {
     expect(d.gainParameterPerWM).toBeLessThanOrEqual(gHi)
   })
 
-  it('gives the physics brief chip: n_g = 2.44, L = 5 cm, G_B = 300 /(W m), ν_B = 7.7 GHz, Δν_B = 34 MHz', () => {
+  it('gives the validation chip of docs/validation.md: n_g = 2.44, L = 5 cm, G_B = 300 /(W m), ν_B = 7.7 GHz, Δν_B = 34 MHz', () => {
     const chip = Waveguide.parse(findWaveguidePreset('as2s3-rib-chip')!.waveguide)
 
     expect(chip.groupIndex).toBe(2.44)

@@ -118,7 +118,7 @@ export const WAVEGUIDE_PRESETS: readonly WaveguidePreset[] = [
     platform: 'Chalcogenide (As₂S₃) rib waveguide on a chip',
     source:
       'Pant et al. 2011, "On-chip stimulated Brillouin scattering", Opt. Express 19, 8285 (ν_B ≈ 7.7 GHz, Δν_B ≈ 34 MHz, ' +
-      'A_eff ≈ 2.3 µm², g_B ≈ 0.7×10⁻⁹ m/W; values from memory), normalised to the "chip" of the physics brief: n_g = 2.44, L = 5 cm, G_B = 300 /(W m).',
+      'A_eff ≈ 2.3 µm², g_B ≈ 0.7×10⁻⁹ m/W; values from memory), normalised to the test "chip" of docs/validation.md: n_g = 2.44, L = 5 cm, G_B = 300 /(W m).',
     notes: 'g_B = 6.9×10⁻¹⁰ m/W with A_eff = 2.3 µm² gives G_B = 300 /(W m) exactly. Loss 0.3 dB/cm as in validation case V3.',
     waveguide: {
       name: 'As₂S₃ rib waveguide (chip)',

@@ -1,4 +1,4 @@
-// Run warnings of the physics brief §5. Cautions only: the run still goes ahead. The pre-run list is the
+// Run warnings (shared/derived-warnings.ts; docs/model.md, "Not modelled"). Cautions only: the run still goes ahead. The pre-run list is the
 // one the form shows (shared/derived-quantities.ts), computed on the solver's own grid, so the page and
 // the manifest never disagree.
 import { deriveQuantities } from '@shared/derived-quantities'

@@ -1,5 +1,5 @@
 /*
- * Backward SBS coupled-mode equations (physics brief §2; Agrawal, Nonlinear Fiber Optics ch. 9):
+ * Backward SBS coupled-mode equations (docs/model.md, equations; Agrawal, Nonlinear Fiber Optics ch. 9):
  *
  *   ( ∂z + ∂t/vg) Ap = −(α/2) Ap + i κp As b  + iγ(|Ap|² + 2|As|²) Ap
  *   (−∂z + ∂t/vg) As = −(α/2) As + i κ  Ap b* + iγ(|As|² + 2|Ap|²) As

@@ -1,5 +1,5 @@
 /*
- * Acoustic update over one step h, matched to the optical characteristics (physics brief §2–3).
+ * Acoustic update over one step h, matched to the optical characteristics (docs/model.md, equations).
  *
  * SVEA:  ∂t b = −λ b + S,  λ = Γ_B/2 − iΔ.  Integrating-factor trapezoid (Heun on the factored form):
  *        b₁ = E·b₀ + (h/2)(E·S₀ + S₁),  E = e^{−λh}  (decay and detuning exact; source second order).

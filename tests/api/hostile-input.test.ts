@@ -99,7 +99,7 @@ describe('numbers whose derived values would overflow', () => {
   })
 
   it('refuses a run whose step rules ask for a step below 1 fs with 422 naming the power that drives them', async () => {
-    // A 1 MW continuous pump on the test chip: G_B·P·Δz ≤ 0.05 (physics.md §4) asks for Δt ≈ 1e-6 ps.
+    // A 1 MW continuous pump on the test chip: G_B·P·Δz ≤ 0.05 (docs/numerics.md) asks for Δt ≈ 1e-6 ps.
     const res = await postRun({ config: { ...chipRun(), channels: [{ pump: { pulses: [], backgroundPowerW: 1e6 }, stokes: { pulses: [], backgroundPowerW: 0 } }], grid: { mapRows: 64, mapCols: 64 } } })
 
     expect(res.status).toBe(422)

@@ -16,7 +16,7 @@ export function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: '/usr/bin/chromium',
     headless: true,
-    // docs/stack.md §7: the flags that worked with Debian's chromium on this machine.
+    // docs/operations.md: the flags that worked with Debian's chromium on this machine.
     args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   })
 }

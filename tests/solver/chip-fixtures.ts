@@ -1,4 +1,4 @@
-// Builders for the "chip" validation cases of the physics brief §6: n_g = 2.44, L = 5 cm,
+// Builders for the "chip" validation cases of the docs/validation.md: n_g = 2.44, L = 5 cm,
 // G_B = 300 /(W m) (A_eff = 1 µm², g_B = 3e-10 m/W), λ = 1550 nm.
 import { SimulationConfig, SimulationConfigBase, type SimulationConfigInput } from '@shared/simulation-config'
 
@@ -13,7 +13,7 @@ export const CHIP_WAVEGUIDE = {
   wavelengthNm: 1550,
 }
 
-/** Gaussian of amplitude rms width T (ns), as the brief writes it, converted to the power FWHM the schema uses. */
+/** Gaussian of amplitude rms width T (ns), as the validation cases write it, converted to the power FWHM the schema uses. */
 export function gaussian(peakPowerW: number, centreNs: number, rmsNs: number, label?: string, extra: Record<string, unknown> = {}) {
   return { shape: 'gaussian' as const, peakPowerW, centreNs, fwhmNs: 2 * Math.sqrt(Math.LN2) * rmsNs, label, ...extra }
 }

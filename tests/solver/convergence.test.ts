@@ -1,5 +1,5 @@
 // Empirical order of convergence (common practice for checking a scheme's order): halving Δt must cut
-// the error by ≈ 4 for a second-order scheme (physics brief §4).
+// the error by ≈ 4 for a second-order scheme (docs/numerics.md).
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, gaussian } from './chip-fixtures'

@@ -1,4 +1,4 @@
-// CW validation cases V3, V4, V6 of the physics brief §6 (chip waveguide, runs ≥ 150 ns).
+// CW validation cases V3, V4, V6 of the docs/validation.md (chip waveguide, runs ≥ 150 ns).
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, last, powerAt } from './chip-fixtures'
@@ -13,7 +13,7 @@ function cwRun(pumpW: number, stokesW: number, extra: Parameters<typeof chipConf
 
 describe('CW Brillouin gain', () => {
   it('V3: undepleted gain with loss matches P_s(0)/P_s(L) = exp(G_B P₀ L_eff − αL) = 1.33482 within 0.2 %', () => {
-    // Source: undepleted-pump formula, Agrawal, Nonlinear Fiber Optics, ch. 9 (physics brief §2, V3).
+    // Source: undepleted-pump formula, Agrawal, Nonlinear Fiber Optics, ch. 9 (docs/model.md, equations, V3).
     const alpha = 30 / (10 / Math.LN10) // 0.3 dB/cm in 1/m
     const lEff = -Math.expm1(-alpha * 0.05) / alpha
     const expected = Math.exp(300 * 0.05 * lEff - alpha * 0.05)
@@ -23,7 +23,7 @@ describe('CW Brillouin gain', () => {
   })
 
   it('V4: lossless pump depletion matches the exact solution P_s(0) = 0.182889 W, P_p(L) = 0.318111 W within 0.1 %', () => {
-    // Source: exact lossless CW solution (Tang 1966; Damzen et al. 2003 §3.1), physics brief §2.
+    // Source: exact lossless CW solution (Tang 1966; Damzen et al. 2003 §3.1), docs/model.md, equations.
     // The closed form P_s(L; b₀) is solved for b₀ here by bisection (P_s(L) is monotonic in b₀ on (0, 1/r)).
     const G = 300, L = 0.05, P0 = 0.5, PL = 1e-3
     const exact = (r: number) => {
@@ -41,12 +41,12 @@ describe('CW Brillouin gain', () => {
       const b0 = 0.5 * (lo + hi)
       return { ps0: b0 * P0, ppL: P0 * (1 - r * b0) + r * PL }
     }
-    // The brief's figures are the closed form with ω_p/ω_s taken as 1.
+    // The reference figures of V4 are the closed form with ω_p/ω_s taken as 1.
     const brief = exact(1)
     expect(brief.ps0).toBeCloseTo(0.182889, 6)
     expect(brief.ppL).toBeCloseTo(0.318111, 6)
     const { r, stokesOut, pumpOut } = cwRun(P0, PL)
-    // Against the brief at its tolerance, and tighter against the closed form with the run's own ω_p/ω_s.
+    // Against those figures at their tolerance, and tighter against the closed form with the run's own ω_p/ω_s.
     expect(Math.abs(stokesOut / 0.182889 - 1)).toBeLessThan(1e-3)
     expect(Math.abs(pumpOut / 0.318111 - 1)).toBeLessThan(1e-3)
     const own = exact(1 / (1 - (7.7e9 * 1550e-9) / 299_792_458)) // ω_p/ω_s with ν_B = 7.7 GHz

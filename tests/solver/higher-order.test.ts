@@ -1,5 +1,5 @@
 // The beyond-SVEA acoustic option must reduce to the plain (SVEA) model as the acoustic frequency grows
-// (physics brief §3, "What must hold"): the neglected ∂t²b term is O(1/(Ω_B·T)).
+// (docs/model.md, options, "What must hold"): the neglected ∂t²b term is O(1/(Ω_B·T)).
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, gaussian } from './chip-fixtures'

@@ -1,4 +1,4 @@
-// V10 of the physics brief §6: cross-scattering between two channels' gratings is phase mismatched,
+// V10 of the docs/validation.md: cross-scattering between two channels' gratings is phase mismatched,
 // so the scattered power ∝ sinc²(ΔqL/2) (Armstrong, Bloembergen, Ducuing & Pershan 1962).
 import { describe, expect, it } from 'vitest'
 import { chooseGrid } from '@shared/grid-step'

@@ -1,4 +1,4 @@
-// Optional terms of the physics brief §3 checked against closed forms.
+// Optional terms of the docs/model.md, options checked against closed forms.
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, gaussian, last } from './chip-fixtures'

@@ -32,7 +32,7 @@ describe('WaveguideDerivedPanel on the waveguide page', () => {
 
     await typeInto(getByRole(wrapper.element, 'textbox', 'Linewidth Δν_B (FWHM)'), '50')
 
-    // Energy lifetime 1/Γ_B and amplitude lifetime 2/Γ_B with Γ_B = 2π Δν_B (physics.md §1; Agrawal ch. 9):
+    // Energy lifetime 1/Γ_B and amplitude lifetime 2/Γ_B with Γ_B = 2π Δν_B (docs/model.md, conventions; Agrawal ch. 9):
     // Δν_B = 50 MHz gives 1/(2π·50e6 s⁻¹) = 3.1831 ns.
     expect(shown(table, 'phononLifetimeEnergyNs')).toBeCloseTo(1 / (2 * Math.PI * 50e6) / 1e-9, 3)
     expect(shown(table, 'phononLifetimeAmplitudeNs')).toBeCloseTo(2 / (2 * Math.PI * 50e6) / 1e-9, 3)
@@ -45,7 +45,7 @@ describe('WaveguideDerivedPanel on the waveguide page', () => {
     const table = getByRole(wrapper.element, 'table', 'Derived quantities')
     const before = shown(table, 'criticalPowerW')
 
-    // V8 (physics.md §6, Smith 1972): A_eff = 80 µm², g_B = 5e-11 m/W, 20 km at 0.2 dB/km → L_eff = 13 069.9 m, P_cr = 2.571 mW.
+    // V8 (docs/validation.md, Smith 1972): A_eff = 80 µm², g_B = 5e-11 m/W, 20 km at 0.2 dB/km → L_eff = 13 069.9 m, P_cr = 2.571 mW.
     await typeInto(getByRole(wrapper.element, 'textbox', 'Length L'), '20000')
 
     expect(shown(table, 'effectiveLengthM')).toBeCloseTo(13070, -1)
