@@ -81,10 +81,10 @@ describe('workbench', () => {
 
     // Clone → queue an identical run: a second finished run for the comparison below. The page is reused for the
     // clone, and must show the clone's own status from its first paint, never the original's "Succeeded" (which
-    // offered a download of a run still queued). The clone's live stream is held back a moment so that only its
-    // record can speak when its title first shows.
+    // offered a download of a run still queued). The clone's live stream is held back a few seconds so that only
+    // its record can speak when its title first shows.
     const holdCloneStream = async (route: Route) => {
-      if (!route.request().url().includes(firstId)) await new Promise((r) => setTimeout(r, 2_000))
+      if (!route.request().url().includes(firstId)) await new Promise((r) => setTimeout(r, 4_000))
       // The browser may have dropped the request meanwhile (the page moved on); then there is nothing to pass on.
       await route.continue().catch(() => {})
     }
@@ -94,12 +94,8 @@ describe('workbench', () => {
     await page.getByRole('button', { name: 'Clone' }).click()
     await page.getByText('Queue an identical run').click()
     await page.waitForURL((u) => /\/runs\/[0-9a-f-]{36}/.test(u.pathname) && !u.pathname.endsWith(firstId))
-    const statusAtFirstPaint = await (
-      await page.waitForFunction(() => {
-        if (!document.querySelector('h1')?.textContent?.includes('(copy)')) return null
-        return document.querySelector('[data-testid=run-status]')?.textContent?.trim() ?? ''
-      }, undefined, { polling: 'raf' })
-    ).jsonValue()
+    await page.locator('h1', { hasText: 'E2E store and retrieve (copy)' }).waitFor()
+    const statusAtFirstPaint = (await page.locator('[data-testid=run-status]').first().textContent())?.trim()
     const recordStatus = ((await (await cloneRecord).json()) as { status: string }).status
     expect(statusAtFirstPaint).toBe(STATUS_LABELS[recordStatus])
     await page.unroute(/\/api\/runs\/[0-9a-f-]{36}\/events/, holdCloneStream)
