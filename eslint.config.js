@@ -46,6 +46,8 @@ export default tseslint.config(
   { files: ['solver/**'], rules: { 'no-restricted-imports': restrict([fromServer, fromSrc]) } },
   { files: ['shared/**'], rules: { 'no-restricted-imports': restrict([fromServer, fromSrc, fromSolver]) } },
   { files: ['src/**'], rules: { 'no-restricted-imports': restrict([fromServer, fromSolver]) } },
+  // Component specs may load the shipped example scenarios (data, not solver code) as fixtures.
+  { files: ['src/**/*.spec.ts'], rules: { 'no-restricted-imports': restrict([fromServer]) } },
   {
     files: ['server/**'],
     rules: {

@@ -187,5 +187,12 @@ export function loadDatabaseUrl(): string {
   return result.data.DATABASE_URL ?? localClusterUrl(result.data.PGPORT)
 }
 
+/** The log level alone, for the seed commands (default `warn` there: they speak only when something is wrong). */
+export function loadLogLevel(fallback = 'warn'): string {
+  const result = EnvSchema.pick({ LOG_LEVEL: true }).safeParse({ LOG_LEVEL: process.env.LOG_LEVEL || fallback })
+  if (!result.success) exitWith(result.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`))
+  return result.data.LOG_LEVEL
+}
+
 // `node --import tsx server/env.ts` checks the configuration and prints nothing when it is fine.
 if (process.argv[1] === fileURLToPath(import.meta.url)) loadEnv()

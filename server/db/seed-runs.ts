@@ -65,7 +65,7 @@ export async function queueExampleRuns(deps: SeedRunsDeps, groupId: string, auth
 
 // `node --import tsx server/db/seed-runs.ts`: queue the demo runs when the demo group has none.
 if (process.argv[1] === fileURLToPath(import.meta.url)) {
-  const { loadDatabaseUrl } = await import('../env')
+  const { loadDatabaseUrl, loadLogLevel } = await import('../env')
   const { createDb, createPool } = await import('./client')
   const { createBoss, declareQueues } = await import('../jobs/queues')
   const { createLogger } = await import('../logger')
@@ -73,7 +73,7 @@ if (process.argv[1] === fileURLToPath(import.meta.url)) {
   const url = loadDatabaseUrl()
   const pool = createPool(url, { max: 2, applicationName: 'sonoweave-seed-runs' })
   const boss = createBoss({ databaseUrl: url, applicationName: 'sonoweave-seed-runs', max: 2 })
-  const log = createLogger(process.env.LOG_LEVEL ?? 'warn')
+  const log = createLogger(loadLogLevel())
   boss.on('error', (err) => log.error({ err }, 'queue error'))
   try {
     await boss.start()

@@ -91,7 +91,7 @@ export function apiUpload<T>(path: string, form: FormData, opts: { schema: ZodTy
     xhr.onerror = () => reject(networkError(new Error('upload failed')))
     xhr.onabort = () => reject(new ApiError(0, 'aborted', 'The upload was cancelled.'))
     xhr.onload = () => {
-      let body: unknown = null
+      let body: unknown
       try {
         body = xhr.responseText ? JSON.parse(xhr.responseText) : null
       } catch {

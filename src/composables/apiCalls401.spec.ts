@@ -4,8 +4,8 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { computed, defineComponent, h, ref } from 'vue'
 import { fakeFetch, mountWithApp } from '@/test-utils/mount'
-import { useRunOutput } from '@/components/traces/use-run-output'
-import { useGroupWaveguides } from '@/components/waveguide/use-group-waveguides'
+import { useRunOutput } from '@/composables/useRunOutput'
+import { useGroupWaveguides } from '@/composables/useGroupWaveguides'
 
 afterEach(() => {
   vi.unstubAllGlobals()

@@ -3,7 +3,7 @@
 // answer to the latest request is kept. Where workers are not available the parse runs in place.
 import { onScopeDispose, shallowRef, watch, type Ref } from 'vue'
 import { parseTraceFile, TraceParseError, type ParseOptions, type ParsedTable } from '@shared/trace-parse'
-import type { PreviewReply, PreviewRequest } from './trace-preview.worker'
+import type { PreviewReply, PreviewRequest } from '@/components/traces/trace-preview.worker'
 
 export interface TracePreview {
   table: ParsedTable | null
@@ -30,7 +30,7 @@ export function useTracePreview(bytes: Ref<Uint8Array | null>, options: () => Pa
     if (!b) return void (state.value = { table: null, error: null, reading: false })
     if (typeof Worker === 'undefined') return inPlace(b, options())
     if (!worker) {
-      worker = new Worker(new URL('./trace-preview.worker.ts', import.meta.url), { type: 'module' })
+      worker = new Worker(new URL('../components/traces/trace-preview.worker.ts', import.meta.url), { type: 'module' })
       worker.onmessage = (e: MessageEvent<PreviewReply>) => {
         if (e.data.seq !== seq) return
         state.value = e.data.table ? { table: e.data.table, error: null, reading: false } : { table: null, error: e.data.error ?? 'The file could not be read', reading: false }
