@@ -27,6 +27,8 @@ console.log(`test: database ${name}`)
 const failures = []
 if (runStep('test: migrate', process.execPath, [...TSX, 'server/db/migrate.ts'], env) !== 0) failures.push('migrations')
 if (runStep('test: typecheck', 'npm', ['run', '--silent', 'typecheck']) !== 0) failures.push('typecheck')
+// The dependency arrows, configuration reads, file names and unused code (eslint.config.js).
+if (runStep('test: lint', 'npm', ['run', '--silent', 'lint']) !== 0) failures.push('lint')
 // The e2e run serves dist/; building it here also proves the client builds.
 if (runStep('test: client build', process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']) !== 0) failures.push('client build')
 

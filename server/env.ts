@@ -187,6 +187,28 @@ export function loadDatabaseUrl(): string {
   return result.data.DATABASE_URL ?? localClusterUrl(result.data.PGPORT)
 }
 
+/*
+ * Readers for modules that run where loadEnv's Config is not handed down (mail sent by a worker, the auth
+ * defaults of a test app, the password hash cost): the environment is still read only in this file.
+ */
+
+/** NODE_ENV as the process was started with; development when unset or unknown. */
+export function runtimeMode(): 'development' | 'test' | 'production' {
+  const mode = process.env.NODE_ENV
+  return mode === 'production' || mode === 'test' ? mode : 'development'
+}
+
+/** The variables that place the service on the network and send its mail, as given (not validated here). */
+export function serviceAddressEnv(): { PUBLIC_URL?: string; HOST?: string; PORT?: string; SMTP_URL?: string } {
+  const { PUBLIC_URL, HOST, PORT, SMTP_URL } = process.env
+  return { PUBLIC_URL, HOST, PORT, SMTP_URL }
+}
+
+/** Whether WORKER_COUNT was set explicitly (a worker process otherwise uses every core). */
+export function workerCountGiven(): boolean {
+  return Boolean(process.env.WORKER_COUNT)
+}
+
 /** The log level alone, for the seed commands (default `warn` there: they speak only when something is wrong). */
 export function loadLogLevel(fallback = 'warn'): string {
   const result = EnvSchema.pick({ LOG_LEVEL: true }).safeParse({ LOG_LEVEL: process.env.LOG_LEVEL || fallback })

@@ -8,7 +8,7 @@ import { availableParallelism } from 'node:os'
 import { parseArgs } from 'node:util'
 import { createDb, createPool } from '../db/client'
 import { describeDbError } from '../db/describe-error'
-import { loadEnv } from '../env'
+import { loadEnv, workerCountGiven } from '../env'
 import { createLogger } from '../logger'
 import { startJobService } from './job-service'
 import { notifyOnFinish } from './handlers/run-finished'
@@ -39,7 +39,7 @@ const positive = (name: string, v: string | undefined, dflt: number): number => 
   return n
 }
 const config = loadEnv()
-const threads = Math.floor(positive('threads', args.threads, process.env.WORKER_COUNT ? config.workerCount : availableParallelism()))
+const threads = Math.floor(positive('threads', args.threads, workerCountGiven() ? config.workerCount : availableParallelism()))
 if (threads < 1) fail('a worker needs at least one thread (--threads 1)')
 const schema = args['queue-schema']
 if (schema !== undefined && !/^[a-z_][a-z0-9_]{0,50}$/.test(schema)) fail('--queue-schema must be a lower-case SQL name')

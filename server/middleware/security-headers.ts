@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express'
 import helmet from 'helmet'
 import type { Logger } from '../logger'
+import { runtimeMode } from '../env'
 
 /**
  * Response headers that keep the app page from being framed, sniffed or made to run foreign code.
@@ -49,7 +50,7 @@ export function securityHeaders(publicUrl: string | undefined): RequestHandler {
 
 /** Says at start-up when production serves sign-ins without TLS, where cookies can be read on the wire. */
 export function warnOnPlainHttp(log: Logger, publicUrl: string | undefined): void {
-  if (process.env.NODE_ENV !== 'production' || publicUrl?.startsWith('https://')) return
+  if (runtimeMode() !== 'production' || publicUrl?.startsWith('https://')) return
   log.warn(
     { publicUrl: publicUrl ?? null },
     'production without an https PUBLIC_URL: session cookies are marked Secure only when a proxy reports https (X-Forwarded-Proto); serve Sonoweave over https and set PUBLIC_URL to that address',

@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto'
+import { runtimeMode } from '../../env'
 
 export interface AuthOptions {
   /** HS256 key for session cookies; at least 32 characters. */
@@ -36,7 +37,7 @@ let processSecret: string | undefined
 export function resolveAuthOptions(given: Partial<AuthOptions> | undefined): AuthOptions {
   let jwtSecret = given?.jwtSecret
   if (!jwtSecret) {
-    if (process.env.NODE_ENV === 'production') throw new Error('auth: jwtSecret is required in production')
+    if (runtimeMode() === 'production') throw new Error('auth: jwtSecret is required in production')
     processSecret ??= randomBytes(32).toString('hex')
     jwtSecret = processSecret
   }

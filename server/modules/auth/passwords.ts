@@ -1,7 +1,8 @@
 import bcrypt from 'bcryptjs'
+import { runtimeMode } from '../../env'
 
 /** Cost 12: about 0.25 s a hash on this machine; OWASP asks for at least 10 (common practice). */
-export const BCRYPT_COST = process.env.NODE_ENV === 'test' ? 10 : 12
+export const BCRYPT_COST = runtimeMode() === 'test' ? 10 : 12
 
 export function hashPassword(password: string): Promise<string> {
   return bcrypt.hash(password, BCRYPT_COST)

@@ -1,6 +1,7 @@
 import nodemailer from 'nodemailer'
 import type { Logger } from '../../logger'
 import { startMailCatcher, type MailCatcher } from './mail-catcher'
+import { runtimeMode, serviceAddressEnv } from '../../env'
 
 export interface MailMessage {
   to: string
@@ -35,7 +36,7 @@ async function build(config: MailerConfig): Promise<MailerState> {
   if (config.smtpUrl && config.smtpUrl !== 'catcher') {
     return { transport: nodemailer.createTransport(config.smtpUrl), catcher: null, from, log: config.log }
   }
-  if (process.env.NODE_ENV === 'production') config.log?.warn('SMTP_URL is not set: mail is only caught in memory (site admins see it, tokens hidden, under Held mail)')
+  if (runtimeMode() === 'production') config.log?.warn('SMTP_URL is not set: mail is only caught in memory (site admins see it, tokens hidden, under Held mail)')
   const catcher = await startMailCatcher()
   config.log?.info({ port: catcher.port }, 'mail catcher listening')
   // The catcher speaks plain SMTP on loopback only; no TLS to negotiate.
@@ -51,7 +52,7 @@ export async function configureMailer(config: MailerConfig = {}): Promise<void> 
 }
 
 function current(): Promise<MailerState> {
-  const smtpUrl = process.env.SMTP_URL || undefined
+  const smtpUrl = serviceAddressEnv().SMTP_URL || undefined
   state ??= build({ smtpUrl })
   return state
 }
