@@ -68,4 +68,24 @@ describe('thermal noise, exact stationary covariance of the scheme', () => {
     const fine = spontaneousError(40, 0.2)
     expect(Math.abs(coarse / fine - 4)).toBeLessThan(0.3)
   })
+
+  it('with the higher-order acoustic term the spontaneous Stokes power also converges at second order (ratio of successive differences 4 ± 0.3)', () => {
+    // No simple closed form here (the second acoustic root adds a non-Lorentzian response), so the order is
+    // read from three grids: (P₈ − P₁₆)/(P₁₆ − P₃₂) → 4 for a second-order scheme (common practice).
+    const lengthM = 0.005
+    const power = (cells: number) =>
+      stationaryNoise(
+        schemeMaps(
+          chipConfig({
+            windowNs: 1,
+            waveguide: { lengthM },
+            channels: [{ pump: { backgroundPowerW: 1 } }],
+            grid: { timeStepPs: (lengthM / (VG * cells)) * 1e12, mapRows: 16, mapCols: 16 },
+            options: { higherOrderAcoustic: true, noise: { enabled: true, temperatureK: 300, seed: 1 }, errorEstimate: false },
+          }),
+        ),
+      ).stokesOutW
+    const [p8, p16, p32] = [8, 16, 32].map(power)
+    expect(Math.abs((p8 - p16) / (p16 - p32) - 4)).toBeLessThan(0.3)
+  })
 })

@@ -93,7 +93,9 @@ export function schemeMaps(config: SimulationConfig): SchemeMaps {
   const nodes = m.nodes
   const s = run.state
   const u0Re = s.uRe[0], u0Im = s.uIm[0]
-  const dim = 4 * nodes
+  // With the higher-order acoustic term ∂t b (w) is state too.
+  const fields = m.higherOrder ? [s.vRe, s.vIm, s.bRe, s.bIm, s.wRe, s.wIm] : [s.vRe, s.vIm, s.bRe, s.bIm]
+  const dim = fields.length * nodes
   // How many normal deviates one step takes: counted, not assumed, so the map follows the kernel.
   source.draws = new Float64Array(0)
   source.index = 0
@@ -101,18 +103,17 @@ export function schemeMaps(config: SimulationConfig): SchemeMaps {
   run.advance(1)
   const draws = source.index
   const eps = 1e-6 * Math.max(1e-30, Math.hypot(u0Re, u0Im)) || 1e-6
-  const fields = [s.vRe, s.vIm, s.bRe, s.bIm]
 
   const step = (x: Float64Array, zeta: Float64Array): { next: Float64Array; out: [number, number] } => {
     s.uRe.fill(u0Re)
     s.uIm.fill(u0Im)
-    for (let f = 0; f < 4; f++) fields[f].set(x.subarray(f * nodes, (f + 1) * nodes))
+    for (let f = 0; f < fields.length; f++) fields[f].set(x.subarray(f * nodes, (f + 1) * nodes))
     source.draws = zeta
     source.index = 0
     run.n = 0
     run.advance(1)
     const next = new Float64Array(dim)
-    for (let f = 0; f < 4; f++) next.set(fields[f], f * nodes)
+    for (let f = 0; f < fields.length; f++) next.set(fields[f], f * nodes)
     const out = run.traces[0].stokesOut
     return { next, out: [out[0], out[1]] }
   }
@@ -152,7 +153,7 @@ export function stationaryNoise(maps: SchemeMaps): { P: Matrix; stokesOutW: numb
 /** ⟨|b_j|²⟩ at every node from the state covariance. */
 export function acousticVariance(maps: SchemeMaps, P: Matrix): Float64Array {
   const n = maps.nodes
-  const dim = 4 * n
+  const dim = P.rows
   const out = new Float64Array(n)
   for (let j = 0; j < n; j++) out[j] = P.data[(2 * n + j) * dim + 2 * n + j] + P.data[(3 * n + j) * dim + 3 * n + j]
   return out
