@@ -78,7 +78,7 @@ function scalingTable(): void {
 }
 
 function workPrecision(): void {
-  console.log('\n## Work–precision: CW depletion (physics.md V4), Stokes output P_s(0) at 150 ns')
+  console.log('\n## Work–precision: CW depletion (docs/validation.md V4), Stokes output P_s(0) at 150 ns')
   const stokesOut = (r: SimulationResult) => {
     const a = r.channels[0].stokesOut
     const n = a.length / 2 - 1

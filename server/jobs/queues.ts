@@ -1,4 +1,4 @@
-// The one place queue policy is declared: names, priorities, retry and expiry of both queues. pg-boss 10 facts this relies on (docs/stack.md §6): it has no
+// The one place queue policy is declared: names, priorities, retry and expiry of both queues. pg-boss 10 facts this relies on (docs/operations.md, the job queue): it has no
 // heartbeat, expireIn is also a hard runtime limit (an expired handler is retried while it still runs),
 // createQueue does not update an existing queue's options, and send() to an unknown queue returns null.
 import PgBoss from 'pg-boss'

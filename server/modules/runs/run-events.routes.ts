@@ -8,7 +8,7 @@ import type { RunEventRelay } from './run-event-relay'
 import { runEventsAfter, type StoredRunEvent } from './run-events.repo'
 import type { RunRow } from './runs.repo'
 
-/** A comment line this often keeps proxies from closing an idle stream (docs/stack.md §9). */
+/** A comment line this often keeps proxies from closing an idle stream (docs/operations.md, live streams). */
 export const SSE_PING_MS = 15_000
 /** What EventSource waits before reconnecting. */
 const RETRY_MS = 2_000
