@@ -40,7 +40,7 @@ const expectWithinFactor2 = (trueErr: number, est: number) => {
 }
 
 describe('Richardson estimate against closed forms: true error within a factor 2 of the estimate', () => {
-  it.each([[undefined], [10]])('exact lossless CW depletion (Tang 1966): steady P_s(0), step %s ps', (timeStepPs) => {
+  it.each([['the automatic', undefined], ['a 10 ps', 10]])('exact lossless CW depletion (Tang 1966): steady P_s(0), %s step', (_label, timeStepPs) => {
     // Source: C. L. Tang, J. Appl. Phys. 37, 2945 (1966): with C = P_p − rP_s constant,
     // P_s(z) = b₀C e^{−G_B C z}/(1 − r b₀ e^{−G_B C z}); b₀ solved by bisection from P_s(L) (monotonic on (0, 1/r)).
     const P0 = 0.5, PL = 1e-3
@@ -73,7 +73,7 @@ describe('Richardson estimate against closed forms: true error within a factor 2
     expect(e.figures['channels.0.energyJ.stokesOut'].coarseValue).toBe(coarse.manifest.figures!.channels[0].energyJ.stokesOut)
   })
 
-  it.each([[undefined], [20]])('undepleted gain with loss exp(G_B P L_eff − αL) (Agrawal, Nonlinear Fiber Optics, ch. 9): peak Stokes gain, step %s ps', (timeStepPs) => {
+  it.each([['the automatic', undefined], ['a 20 ps', 20]])('undepleted gain with loss exp(G_B P L_eff − αL) (Agrawal, Nonlinear Fiber Optics, ch. 9): peak Stokes gain, %s step', (_label, timeStepPs) => {
     // Source: Agrawal, Nonlinear Fiber Optics, ch. 9, undepleted-pump solution; L_eff = (1 − e^{−αL})/α.
     // A 1 nW seed keeps depletion (∝ G_B P_s L ≈ 1e-8) far below the discretisation error.
     const alpha = 30 / (10 / Math.LN10) // 0.3 dB/cm in 1/m
@@ -88,7 +88,7 @@ describe('Richardson estimate against closed forms: true error within a factor 2
     expect(f.absError).toBeCloseTo(Math.abs(signed(e, f)), 15)
   })
 
-  it.each([[undefined], [20]])('slow-light delay through H(δ) = exp{(G₀/2)/[1 − 2iδ/Γ_B]} (Agrawal ch. 9): Stokes delay, step %s ps', (timeStepPs) => {
+  it.each([['the automatic', undefined], ['a 20 ps', 20]])('slow-light delay through H(δ) = exp{(G₀/2)/[1 − 2iδ/Γ_B]} (Agrawal ch. 9): Stokes delay, %s step', (_label, timeStepPs) => {
     // Source: small-signal Brillouin transfer function H(δ) = exp{(G₀/2)/[1 + 2i(Δ − δ)/Γ_B]} at Δ = 0
     // (Agrawal, Nonlinear Fiber Optics, ch. 9; slow light: Okawachi et al., PRL 94, 153902 (2005)). The centroid
     // delay of a pulse is the group delay −dφ/dδ = (G₀/Γ_B)(1 − x²)/(1 + x²)², x = 2δ/Γ_B, averaged over the
