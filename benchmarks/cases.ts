@@ -1,7 +1,7 @@
 // Fixed benchmark problems. Grids are set through grid.timeStepPs: with Δz = v_g Δt the grid rule of
-// shared/grid-step.ts gives N_z = L/(v_g Δt) and N_t = T_window/Δt, so L and the window follow from N_z, N_t.
-import { SimulationConfig } from '@shared/simulation-config'
-import { SPEED_OF_LIGHT_M_PER_S } from '@shared/physical-constants'
+// shared/physics/grid-step.ts gives N_z = L/(v_g Δt) and N_t = T_window/Δt, so L and the window follow from N_z, N_t.
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { SPEED_OF_LIGHT_M_PER_S } from '@shared/physics/physical-constants'
 
 /** The validation "chip" (docs/validation.md): n_g = 2.44, G_B = 300 /(W m) via g_B/A_eff, ν_B = 7.7 GHz. */
 const CHIP = {

@@ -5,7 +5,7 @@
 // 2√(σ_s² + σ_f²), and the median relative error. Prints figures and never asserts; the table in
 // benchmarks/README.md was measured with it. `node --import tsx benchmarks/oscillation-coverage.ts [--quick]`
 // or as part of `npm run bench`.
-import { analyseOscillation } from '@shared/oscillation'
+import { analyseOscillation } from '@shared/analysis/oscillation'
 import { evaluateCase, gridCases, type CaseOutcome } from '../tests/traces/oscillation-synthetic'
 
 const pct = (xs: boolean[]) => `${((100 * xs.filter(Boolean).length) / Math.max(1, xs.length)).toFixed(0)} %`

@@ -3,8 +3,8 @@
 // Prints figures and never asserts; record them in benchmarks/README.md with the date and machine.
 import os from 'node:os'
 import { simulateSync, type SimulationResult } from '../solver/index'
-import type { SimulationConfig } from '@shared/simulation-config'
-import { brillouinRates } from '@shared/grid-step'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import { brillouinRates } from '@shared/physics/grid-step'
 import { cwDepletionCase, exactDepletionStokesOutW, gridCase } from './cases'
 import { oscillationCoverage } from './oscillation-coverage'
 

@@ -47,7 +47,7 @@ async function drain(workerCount: number): Promise<{ seconds: number; solverS: n
 }
 
 try {
-  const cu = (await import('../shared/resource-estimate')).estimateResources(base, (await import('../shared/grid-step')).chooseGrid(base)).cellUpdates
+  const cu = (await import('../shared/physics/resource-estimate')).estimateResources(base, (await import('../shared/physics/grid-step')).chooseGrid(base)).cellUpdates
   console.log(`sweep: ${POINTS} points of ${WINDOW_NS} ns at 0.5 ps on the 5 cm chip (${cu.toPrecision(3)} cell-updates each); ${availableParallelism()} cores, load ${load()}`)
   const one = await drain(1)
   console.log(`1 worker : ${one.seconds.toFixed(1)} s wall (solver time summed over points ${one.solverS.toFixed(1)} s)`)

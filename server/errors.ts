@@ -7,7 +7,7 @@ export interface FieldError {
  * An error the client is meant to see: a stable machine-readable code, the HTTP status and a
  * message safe to show. Anything thrown that is not an AppError becomes a 500 with no detail.
  * `details.fields` becomes the envelope's `fields`; everything else in `details` is sent as the envelope's
- * `details`, whose shape per code is declared in shared/api-error.ts (ERROR_DETAILS): add a code there
+ * `details`, whose shape per code is declared in shared/api/api-error.ts (ERROR_DETAILS): add a code there
  * when a new error carries details.
  */
 export class AppError extends Error {

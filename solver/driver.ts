@@ -1,10 +1,11 @@
 // The time loop: interaction at every node, port recording, maps, then exact transport along the
 // characteristics with the new boundary inputs. Status and counters; no I/O, no event loop.
-import { chooseGrid, type GridChoice } from '@shared/grid-step'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { SolverWarning } from '@shared/simulation-result'
-import { sampleInput } from './grid/input-traces'
-import { SeededRandom, type NormalSource } from './noise/random'
+import { chooseGrid, type GridChoice } from '@shared/physics/grid-step'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { SolverWarning } from '@shared/physics/simulation-result'
+// The sampler lives in shared/ so the form's preview launches exactly what the solver launches.
+import { sampleInput } from '@shared/physics/pulse-envelope'
+import { SeededRandom, type NormalSource } from './steppers/seeded-random'
 import { computeFigures, type ChannelTraces } from './observers/figures-of-merit'
 import { MapRecorder, mapLayout } from './observers/map-recorder'
 import { preRunWarnings } from './observers/warnings'

@@ -1,11 +1,11 @@
 // The companion run of the error estimate, in the same call as the run itself: simulate() and
 // simulateSync() compute the run, then the same configuration on the grid with twice the step
-// (shared/error-estimate-plan.ts), and attach the Richardson estimate to the run's figures
+// (shared/physics/error-estimate-plan.ts), and attach the Richardson estimate to the run's figures
 // (observers/error-estimate.ts). Progress covers both: the run takes its share of [0, 1] by cost
 // (node-steps), the companion the rest. The companion hands out no map frames.
-import { planCoarseRun } from '@shared/error-estimate-plan'
-import { SimulationConfig } from '@shared/simulation-config'
-import type { FigureErrors } from '@shared/figure-error'
+import { planCoarseRun } from '@shared/physics/error-estimate-plan'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import type { FigureErrors } from '@shared/physics/figure-error'
 import type { SimulateOptions, SimulationResult } from './index'
 import { estimateFigureErrors, flaggedWarning, noFigureErrors } from './observers/error-estimate'
 

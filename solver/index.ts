@@ -2,11 +2,11 @@
  * Public door of the solver: simulate(config, options) → SimulationResult.
  *
  * Complex arrays are interleaved Float64Array (re, im) pairs: element k is (a[2k], a[2k+1]), optical
- * envelopes in √W so |A|² is power in W (COMPLEX_LAYOUT in shared/simulation-result.ts). Time samples are
+ * envelopes in √W so |A|² is power in W (COMPLEX_LAYOUT in shared/physics/simulation-result.ts). Time samples are
  * t_n = n·Δt, n = 0..nt; z nodes are z_j = j·Δz, j = 0..nz. Maps are row-major [time rows][z cols].
  */
-import { SimulationConfig } from '@shared/simulation-config'
-import { COMPLEX_LAYOUT, type ArrayDescriptor, type ChannelFigures, type FiguresOfMerit, type ResultGrid, type RunStatus, type SimulationManifest, type SolverWarning } from '@shared/simulation-result'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { COMPLEX_LAYOUT, type ArrayDescriptor, type ChannelFigures, type FiguresOfMerit, type ResultGrid, type RunStatus, type SimulationManifest, type SolverWarning } from '@shared/physics/simulation-result'
 import { SOLVER_LIMITS, SimulationRun, planGrid } from './driver'
 import { planCompanion } from './error-estimate-run'
 import type { ChannelTraces } from './observers/figures-of-merit'

@@ -5,8 +5,8 @@
 //     retrieved field  = A_p,out(with read) − A_p,out(without read)
 //     leak-through     = A_p,out(without read)   (data light that reaches the output unstored)
 // inside the read-out window.
-import type { SimulationConfig } from '@shared/simulation-config'
-import { storageForkStep, storageReferenceStartNs, storageRoles } from '@shared/pulse-roles'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import { storageForkStep, storageReferenceStartNs, storageRoles } from '@shared/physics/pulse-roles'
 
 export interface ReferencePlan {
   /** The configuration without the read pulses that define each channel's retrieval. */

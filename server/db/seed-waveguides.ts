@@ -2,7 +2,7 @@
 // agree. Inserted once; a waveguide the group renamed or deleted is not brought back under its old name.
 import { readdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
-import { Waveguide } from '@shared/waveguide'
+import { Waveguide } from '@shared/physics/waveguide'
 import type { Db } from './client'
 import { waveguides } from './schema'
 import { EXAMPLES_DIR } from './seed-runs'

@@ -2,7 +2,7 @@
 // and its pg-boss job in step inside one transaction: pg-boss 10 accepts our transaction's client (db).
 import type PgBoss from 'pg-boss'
 import type { Pool, PoolClient } from 'pg'
-import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/runs'
+import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/api/runs'
 import { appendRunEvent } from '../modules/runs/run-events.repo'
 import { singleRunPriority } from './fair-priority'
 import { RUN_QUEUE, RUN_QUEUE_OPTIONS, SWEEP_POINT_PRIORITY } from './queues'

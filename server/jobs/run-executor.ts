@@ -1,10 +1,10 @@
 // Executes one taken run: the solver on one of the worker's kept solver threads (solver-pool.ts), and on
 // this thread the heartbeat, throttled progress, map blocks and the final all-or-nothing write.
 import type { Pool } from 'pg'
-import { SimulationConfig } from '@shared/simulation-config'
-import { chooseGrid } from '@shared/grid-step'
-import { estimateResources } from '@shared/resource-estimate'
-import type { SimulationManifest } from '@shared/simulation-result'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { chooseGrid } from '@shared/physics/grid-step'
+import { estimateResources } from '@shared/physics/resource-estimate'
+import type { SimulationManifest } from '@shared/physics/simulation-result'
 import { buildRunManifest } from '../../solver/index'
 import type { Logger } from '../logger'
 import { claimRun, finishFailed, finishSucceeded, heartbeat, writeMapBlock, writeProgress } from './run-store'

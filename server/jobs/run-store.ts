@@ -2,7 +2,7 @@
 // row is still `running` with that attempt, so a cancelled run, or a run the watchdog handed to another
 // worker, can no longer be changed by the worker that lost it.
 import type { Pool, PoolClient } from 'pg'
-import type { FiguresOfMerit } from '@shared/simulation-result'
+import type { FiguresOfMerit } from '@shared/physics/simulation-result'
 import type { RunManifest } from '../../solver/index'
 import { appendRunEvent, type Queryable } from '../modules/runs/run-events.repo'
 

@@ -3,7 +3,7 @@
 // as a short run itself, so threads are started once and reused. A thread that crashes, or does not stop
 // within the grace period after an abort, is dropped and a fresh one takes its place.
 import { Worker } from 'node:worker_threads'
-import type { SimulationConfig } from '@shared/simulation-config'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
 import type { SolverThreadInput, SolverThreadMessage, SolverThreadRequest } from './solver-thread'
 
 const THREAD_FILE = new URL('./solver-thread.ts', import.meta.url).href

@@ -2,7 +2,7 @@
 // computes it off the event loop that sends heartbeats and writes results. Loading this file and the
 // solver's TypeScript costs about half a second, so the thread is kept and reused between runs.
 import { parentPort, workerData } from 'node:worker_threads'
-import type { SimulationConfig } from '@shared/simulation-config'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { simulateSync, type MapFrame } from '../../solver/index'
 
 export interface SolverThreadInput {

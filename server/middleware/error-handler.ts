@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
-import type { ApiErrorBody } from '@shared/api-error'
+import type { ApiErrorBody } from '@shared/api/api-error'
 import { AppError, type FieldError } from '../errors'
 import { pathParamName } from './path-param-name'
 

@@ -1,6 +1,6 @@
 // The OpenAPI 3.1 document: the registry's entries, each with the input schemas its mounted route validates
 // with, the error envelope, and the three ways to authenticate.
-import { ApiErrorBody } from '@shared/api-error'
+import { ApiErrorBody } from '@shared/api/api-error'
 import { SESSION_COOKIE } from '../modules/auth/auth-options'
 import { SchemaComponents, type JsonSchema } from './json-schema'
 import { operationObject, templatePath } from './operation-object'

@@ -1,7 +1,7 @@
 // Human-readable lines printed by the CLI before and after a run.
-import type { ResourceEstimate } from '@shared/resource-estimate'
-import type { Advisory } from '@shared/laser-safety'
-import type { FiguresOfMerit } from '@shared/simulation-result'
+import type { ResourceEstimate } from '@shared/physics/resource-estimate'
+import type { Advisory } from '@shared/physics/laser-safety'
+import type { FiguresOfMerit } from '@shared/physics/simulation-result'
 
 const sig = (x: number, p = 4) => x.toPrecision(p)
 const mib = (b: number) => `${(b / 1024 ** 2).toFixed(1)} MiB`

@@ -1,8 +1,8 @@
 // manifest.json of a run directory: the solver's manifest plus the config, the resource estimate, wall-clock
 // timings, and for every array the NPY file that holds it. Pure: the CLI does the writing.
-import type { ArrayDescriptor, ArrayDtype, SimulationManifest } from '@shared/simulation-result'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { ResourceEstimate } from '@shared/resource-estimate'
+import type { ArrayDescriptor, ArrayDtype, SimulationManifest } from '@shared/physics/simulation-result'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { ResourceEstimate } from '@shared/physics/resource-estimate'
 import type { NpyDescr } from './npy'
 
 export const MANIFEST_FILE = 'manifest.json'

@@ -3,7 +3,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { readNpyArray } from '@shared/trace-parse/npy'
+import { readNpyArray } from '@shared/analysis/trace-parse/npy'
 import { encodeNpy, npyHeader, type NpyDescr } from './npy'
 
 const ascii = (b: Uint8Array) => String.fromCharCode(...b)

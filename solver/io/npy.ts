@@ -6,7 +6,7 @@
 //               spaces and ended by '\n' so that 10 + HLEN is a multiple of 64 (the data starts aligned)
 //   then the raw data in C order.
 // Pure byte work, no fs: the CLI writes the returned bytes. Complex data are interleaved (re, im) float64.
-// Reading is shared/trace-parse/npy.ts (readNpyArray), the project's one NPY reader.
+// Reading is shared/analysis/trace-parse/npy.ts (readNpyArray), the project's one NPY reader.
 
 export type NpyDescr = '<c16' | '<f8' | '<f4'
 

@@ -15,9 +15,9 @@
  * (window bounds, indices) or that measure the scheme itself (the photon-balance residual, at round-off)
  * are skipped; a figure that is null in either run gets no estimate.
  */
-import { ERROR_ESTIMATE } from '@shared/error-estimate-plan'
-import { numericLeaves, type FigureError, type FigureErrors } from '@shared/figure-error'
-import type { FiguresOfMerit } from '@shared/simulation-result'
+import { ERROR_ESTIMATE } from '@shared/physics/error-estimate-plan'
+import { numericLeaves, type FigureError, type FigureErrors } from '@shared/physics/figure-error'
+import type { FiguresOfMerit } from '@shared/physics/simulation-result'
 
 /** Angles: differences are taken modulo 2π and the relative error is against a full turn. */
 const isPhase = (key: string) => /PhaseRad$/.test(key)

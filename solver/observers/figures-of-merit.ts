@@ -1,13 +1,13 @@
 // Figures of merit from the full-resolution port traces (interleaved complex, √W) and the light left in
-// the waveguide at the end. Which figures a channel gets follows its scheme (shared/pulse-roles.ts):
+// the waveguide at the end. Which figures a channel gets follows its scheme (shared/physics/pulse-roles.ts):
 //   storage   – retrieval efficiency, leak-through, retrieved phase (storage-figures.ts)
 //   amplifier – peak Stokes gain, reflectivity E_s,out/E_p,in, delays and output widths of single pulses
 //   generator – reflectivity, pump delay and width
 // plus, always, the port energies and the Manley–Rowe residual. A figure that cannot be measured says why
 // in notDetermined instead of giving a number.
-import { channelScheme, pulseFwhmNs, storageRoles, type RunScheme } from '@shared/pulse-roles'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { ChannelFigures, FiguresOfMerit, NotDetermined } from '@shared/simulation-result'
+import { channelScheme, pulseFwhmNs, storageRoles, type RunScheme } from '@shared/physics/pulse-roles'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { ChannelFigures, FiguresOfMerit, NotDetermined } from '@shared/physics/simulation-result'
 import type { Model } from '../problem/coupled-modes'
 import { storageFigures } from './storage-figures'
 import { centroidS, CUT_PULSE_RATIO, energyJ, fwhmS, maxPower, tailBeyondEnd } from './trace-measures'

@@ -1,15 +1,15 @@
 /*
  * Storage read-out figures, measured in the retrieval window: the expected echo arrival at the pump
- * output ± RETRIEVAL_WINDOW_FWHM echo widths (shared/pulse-roles.ts gives both).
+ * output ± RETRIEVAL_WINDOW_FWHM echo widths (shared/physics/pulse-roles.ts gives both).
  *   η    = Σ|A_out − A_ref|²Δt / E_data      (read-out field: with minus without the read pulse)
  *   leak = Σ|A_ref|²Δt / E_data              (data light in the window that was never read out)
  *   φ    = arg Σ(A_out − A_ref) − φ_data, in [0, 2π)
  * A_ref is the pump output of the reference run (solver/storage-reference.ts).
  */
-import { echoArrival, pulseFwhmNs, pulseName, transitNs, type StorageRoles } from '@shared/pulse-roles'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { ChannelFigures, FigureWindow, NotDetermined } from '@shared/simulation-result'
-import { pulseAmplitude } from '../grid/input-traces'
+import { echoArrival, pulseFwhmNs, pulseName, transitNs, type StorageRoles } from '@shared/physics/pulse-roles'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { ChannelFigures, FigureWindow, NotDetermined } from '@shared/physics/simulation-result'
+import { pulseAmplitude } from '@shared/physics/pulse-envelope'
 import { differenceEnergyJ, energyJ, windowIndices } from './trace-measures'
 
 /** Half-width of the retrieval window in echo FWHMs: a Gaussian echo keeps 1 − erfc(2·1.665) > 99.999 % inside. */

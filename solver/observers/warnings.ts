@@ -1,10 +1,10 @@
-// Run warnings (shared/derived-warnings.ts; docs/model.md, "Not modelled"). Cautions only: the run still goes ahead. The pre-run list is the
-// one the form shows (shared/derived-quantities.ts), computed on the solver's own grid, so the page and
+// Run warnings (shared/physics/derived-warnings.ts; docs/model.md, "Not modelled"). Cautions only: the run still goes ahead. The pre-run list is the
+// one the form shows (shared/physics/derived-quantities.ts), computed on the solver's own grid, so the page and
 // the manifest never disagree.
-import { deriveQuantities } from '@shared/derived-quantities'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { FiguresOfMerit, SolverWarning } from '@shared/simulation-result'
-import { BACK_REFLECTION_FRACTION, SAFETY_DEFERRAL, describeRatio } from '@shared/laser-safety'
+import { deriveQuantities } from '@shared/physics/derived-quantities'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { FiguresOfMerit, SolverWarning } from '@shared/physics/simulation-result'
+import { BACK_REFLECTION_FRACTION, SAFETY_DEFERRAL, describeRatio } from '@shared/physics/laser-safety'
 import type { Model } from '../problem/coupled-modes'
 
 const ESTIMATED_BACK_REFLECTION = 'back-reflection'

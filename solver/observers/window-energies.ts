@@ -1,9 +1,9 @@
 // Energy through a port inside the user's windows: fixed times, or anchored to a pulse's expected
-// arrival (shared/energy-window.ts). An anchored window that leaves the simulated time gives no number.
+// arrival (shared/physics/energy-window.ts). An anchored window that leaves the simulated time gives no number.
 // The window's edges cut through light, so its energy is the trapezoid integral (trace-measures.ts).
-import { resolveEnergyWindow } from '@shared/energy-window'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { WindowEnergy } from '@shared/simulation-result'
+import { resolveEnergyWindow } from '@shared/physics/energy-window'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { WindowEnergy } from '@shared/physics/simulation-result'
 import type { ChannelTraces } from './figures-of-merit'
 import { windowEnergyJ } from './trace-measures'
 

@@ -10,9 +10,9 @@
  * |u|² + |v|² = Pp/κp + Ps/κ (the photon flux, up to a constant) is conserved by every exchange.
  * This builds every constant the kernels need, once per run.
  */
-import { BOLTZMANN_J_PER_K, REDUCED_PLANCK_J_S } from '@shared/physical-constants'
-import { brillouinRates, channelMismatchPerM, type BrillouinRates, type GridChoice } from '@shared/grid-step'
-import type { SimulationConfig } from '@shared/simulation-config'
+import { BOLTZMANN_J_PER_K, REDUCED_PLANCK_J_S } from '@shared/physics/physical-constants'
+import { brillouinRates, channelMismatchPerM, type BrillouinRates, type GridChoice } from '@shared/physics/grid-step'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { higherOrderPropagator, sveaPropagator, type HigherOrderPropagator, type SveaPropagator } from '../steppers/acoustic-propagator'
 
 export interface Model {

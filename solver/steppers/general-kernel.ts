@@ -4,7 +4,7 @@
  * named function per step; interactSvea is the same arithmetic written flat for the plain one-channel case.
  */
 import type { Model } from '../problem/coupled-modes'
-import type { NormalSource } from '../noise/random'
+import type { NormalSource } from './seeded-random'
 import type { FieldState } from './interaction-kernel'
 
 /*

@@ -1,4 +1,4 @@
-import { QueueStatus } from '@shared/runs'
+import { QueueStatus } from '@shared/api/runs'
 import { z } from 'zod'
 import { api } from './client'
 

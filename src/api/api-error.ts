@@ -1,4 +1,4 @@
-import { ApiErrorBody } from '@shared/api-error'
+import { ApiErrorBody } from '@shared/api/api-error'
 
 export interface ApiFieldError {
   path: string
@@ -14,7 +14,7 @@ export class ApiError extends Error {
     message: string,
     readonly fields: ApiFieldError[] = [],
     readonly requestId?: string,
-    /** What the server knew beyond the message; its shape per code is ERROR_DETAILS in shared/api-error.ts. */
+    /** What the server knew beyond the message; its shape per code is ERROR_DETAILS in shared/api/api-error.ts. */
     readonly details: Record<string, unknown> = {},
   ) {
     super(message)

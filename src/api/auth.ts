@@ -1,4 +1,4 @@
-import { AcceptedMessage, MeResponse, MeUser, type ChangeEmailBody, type ChangePasswordBody, type SignUpBody, type UpdateMeBody } from '@shared/auth'
+import { AcceptedMessage, MeResponse, MeUser, type ChangeEmailBody, type ChangePasswordBody, type SignUpBody, type UpdateMeBody } from '@shared/api/auth'
 import { z } from 'zod'
 import { api } from './client'
 

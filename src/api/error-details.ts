@@ -1,6 +1,6 @@
-// The details of an API error (shared/api-error.ts ERROR_DETAILS) as sentences a user can read. The message is
+// The details of an API error (shared/api/api-error.ts ERROR_DETAILS) as sentences a user can read. The message is
 // always shown first; these lines add what it leaves out, never a JSON path or a raw value dump.
-import { ERROR_DETAILS } from '@shared/api-error'
+import { ERROR_DETAILS } from '@shared/api/api-error'
 import type { ApiError } from './api-error'
 
 const cells = (n: number) => n.toExponential(2)

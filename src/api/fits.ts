@@ -1,4 +1,4 @@
-import { FitDetail, FitList, type FitRequestInput } from '@shared/fits'
+import { FitDetail, FitList, type FitRequestInput } from '@shared/api/fits'
 import { api } from './client'
 
 export const createFit = (body: FitRequestInput) => api.post('/fits', body, { schema: FitDetail })

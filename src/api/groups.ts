@@ -1,4 +1,4 @@
-import { GroupMember, GroupSummary, InvitationPreview, InvitationSummary, type GroupRole, type InviteBody } from '@shared/groups'
+import { GroupMember, GroupSummary, InvitationPreview, InvitationSummary, type GroupRole, type InviteBody } from '@shared/api/groups'
 import { z } from 'zod'
 import { api } from './client'
 

@@ -1,4 +1,4 @@
-import { HealthStatus } from '@shared/health'
+import { HealthStatus } from '@shared/api/health'
 import { api } from './client'
 
 export interface HealthReading extends HealthStatus {

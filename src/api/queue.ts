@@ -1,4 +1,4 @@
-import { QueueStatus } from '@shared/runs'
+import { QueueStatus } from '@shared/api/runs'
 import { api, ApiError } from './client'
 
 /**

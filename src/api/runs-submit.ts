@@ -1,4 +1,4 @@
-import { RunCreate, RunSummary, type RunCreateInput } from '@shared/runs'
+import { RunCreate, RunSummary, type RunCreateInput } from '@shared/api/runs'
 import { api } from './client'
 
 /**

@@ -1,6 +1,6 @@
 import { z } from 'zod'
-import { RunDetail, RunList, type RunClone, type RunListQuery } from '@shared/runs'
-import { CreatedShareLink } from '@shared/shares'
+import { RunDetail, RunList, type RunClone, type RunListQuery } from '@shared/api/runs'
+import { CreatedShareLink } from '@shared/api/shares'
 import { api, apiBytes, ApiError } from './client'
 
 /** Query of GET /api/runs as the list view builds it (page and pageSize always set). */

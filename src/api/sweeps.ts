@@ -1,5 +1,5 @@
-import { CreatedShareLink } from '@shared/shares'
-import { SweepCreate, SweepDetail, SweepList, type SweepCreateInput, type SweepListQuery } from '@shared/sweeps'
+import { CreatedShareLink } from '@shared/api/shares'
+import { SweepCreate, SweepDetail, SweepList, type SweepCreateInput, type SweepListQuery } from '@shared/api/sweeps'
 import { api } from './client'
 
 export type ShareToken = string | undefined

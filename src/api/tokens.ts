@@ -1,4 +1,4 @@
-import { ApiTokenSummary, CreatedApiToken, type ApiTokenCreateBody } from '@shared/auth'
+import { ApiTokenSummary, CreatedApiToken, type ApiTokenCreateBody } from '@shared/api/auth'
 import { z } from 'zod'
 import { api } from './client'
 

@@ -1,4 +1,4 @@
-import { TraceData, TraceDetail, TraceList, type TraceUploadSettings } from '@shared/traces'
+import { TraceData, TraceDetail, TraceList, type TraceUploadSettings } from '@shared/api/traces'
 import { api, apiUpload } from './client'
 
 const enc = encodeURIComponent

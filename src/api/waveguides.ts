@@ -4,7 +4,7 @@ import {
   type SavedWaveguideCreateInput,
   type SavedWaveguideDuplicate,
   type SavedWaveguideUpdateInput,
-} from '@shared/waveguides-api'
+} from '@shared/api/waveguides-api'
 import { api } from './client'
 
 const one = (id: string) => `/waveguides/${encodeURIComponent(id)}`

@@ -1,5 +1,5 @@
 import { ref, watch, type Ref } from 'vue'
-import type { SavedWaveguide } from '@shared/waveguides-api'
+import type { SavedWaveguide } from '@shared/api/waveguides-api'
 import { listGroupWaveguides } from '@/api/waveguides'
 import { useAsync } from '@/composables/useAsync'
 

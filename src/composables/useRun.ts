@@ -1,5 +1,5 @@
 import { computed, onScopeDispose, ref, shallowRef, watch, type Ref } from 'vue'
-import { FINAL_RUN_STATES, type RunDetail } from '@shared/runs'
+import { FINAL_RUN_STATES, type RunDetail } from '@shared/api/runs'
 import { fetchRun, fetchRunArray, type RunArray } from '@/api/runs'
 import { useAsync } from './useAsync'
 import { useRunEvents } from './useRunEvents'

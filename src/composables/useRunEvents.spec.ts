@@ -1,7 +1,7 @@
 // @vitest-environment happy-dom
 import { describe, expect, it } from 'vitest'
 import { effectScope, nextTick, ref } from 'vue'
-import type { RunBlockEvent } from '@shared/runs'
+import type { RunBlockEvent } from '@shared/api/runs'
 import { useRunEvents, type EventSourceLike } from './useRunEvents'
 
 class FakeSource implements EventSourceLike {

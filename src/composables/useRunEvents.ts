@@ -1,5 +1,5 @@
 import { onScopeDispose, ref, shallowRef, watch, type Ref } from 'vue'
-import { FINAL_RUN_STATES, RunBlockEvent, RunProgressEvent, RunStatusEvent, type RunState } from '@shared/runs'
+import { FINAL_RUN_STATES, RunBlockEvent, RunProgressEvent, RunStatusEvent, type RunState } from '@shared/api/runs'
 import { runEventsUrl } from '@/api/runs'
 import { RunMapBuffer } from '@/components/run/run-map-buffer'
 

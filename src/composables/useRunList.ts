@@ -1,6 +1,6 @@
 import { reactive, ref, watch } from 'vue'
-import type { RunState } from '@shared/runs'
-import { RUN_SORTS } from '@shared/runs'
+import type { RunState } from '@shared/api/runs'
+import { RUN_SORTS } from '@shared/api/runs'
 import { listRuns } from '@/api/runs'
 import { useAsync } from './useAsync'
 import { useSessionStore } from '@/stores/session'

@@ -1,6 +1,6 @@
 import { watch, type Ref } from 'vue'
-import type { FitPort } from '@shared/fits'
-import type { Series } from '@shared/trace-align'
+import type { FitPort } from '@shared/api/fits'
+import type { Series } from '@shared/analysis/trace-align'
 import { fetchRunArray } from '@/api/runs'
 import { useAsync } from '@/composables/useAsync'
 

@@ -2,7 +2,7 @@
 // usable while a large file is read, again whenever the delimiter or decimal mark changes. Only the
 // answer to the latest request is kept. Where workers are not available the parse runs in place.
 import { onScopeDispose, shallowRef, watch, type Ref } from 'vue'
-import { parseTraceFile, TraceParseError, type ParseOptions, type ParsedTable } from '@shared/trace-parse'
+import { parseTraceFile, TraceParseError, type ParseOptions, type ParsedTable } from '@shared/analysis/trace-parse'
 import type { PreviewReply, PreviewRequest } from '@/components/traces/trace-preview.worker'
 
 export interface TracePreview {

@@ -1,7 +1,7 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises } from '@vue/test-utils'
-import type { QueueStatus } from '@shared/runs'
+import type { QueueStatus } from '@shared/api/runs'
 import type { AdminUser } from '@/api/admin'
 import { fakeFetch, mountWithApp } from '@/test-utils/mount'
 import { getByRole, queryAllByRole } from '@/test-utils/by-role'

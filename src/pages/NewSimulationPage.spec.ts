@@ -76,7 +76,7 @@ describe('NewSimulationPage validation', () => {
 
     await typeInto(power, '-1')
 
-    // shared/pulse.ts: peakPowerW = finite().min(0) → zod's own message.
+    // shared/physics/pulse.ts: peakPowerW = finite().min(0) → zod's own message.
     expect(power.closest('.v-input')!.textContent).toContain('Too small: expected number to be >=0')
     expect(submitButton(wrapper.element).disabled).toBe(true)
     expect(wrapper.text()).toMatch(/Stokes pulse 1, peak power: Too small/)

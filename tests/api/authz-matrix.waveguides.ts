@@ -1,7 +1,7 @@
 // Authorisation rows for a group's saved waveguides. Columns as in authz-matrix.accounts.ts: anonymous,
 // viewer, editor, owner (of group A), otherOwner (owner of group B only), bearer (an API token of A's owner).
-import { WAVEGUIDE_PRESETS } from '@shared/waveguide-presets'
-import { Waveguide } from '@shared/waveguide'
+import { WAVEGUIDE_PRESETS } from '@shared/physics/waveguide-presets'
+import { Waveguide } from '@shared/physics/waveguide'
 import { waveguides } from '../../server/db/schema'
 import { waveguidesRoutes } from '../../server/modules/waveguides/waveguides.routes'
 import type { MatrixRow, MatrixRowSet } from './authz-matrix.fixture'

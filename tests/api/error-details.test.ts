@@ -1,11 +1,11 @@
 // The error envelope carries what services know beyond the message under `details`, in the shape
-// shared/api-error.ts declares per code: the reasons of a refused run, where a trace file is broken, a quota.
+// shared/api/api-error.ts declares per code: the reasons of a refused run, where a trace file is broken, a quota.
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { Router } from 'express'
 import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { ApiErrorBody, ERROR_DETAILS } from '@shared/api-error'
+import { ApiErrorBody, ERROR_DETAILS } from '@shared/api/api-error'
 import { createApp } from '../../server/app'
 import { AppError } from '../../server/errors'
 import { QuotaExceeded } from '../../server/modules/quotas/quota-check'

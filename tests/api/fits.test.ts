@@ -3,8 +3,8 @@
 // running fit, and the watchdog handing back a fit whose worker stopped sending heartbeats.
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { FitDetail, FitRequest } from '@shared/fits'
-import { sampleAt } from '@shared/trace-align'
+import { FitDetail, FitRequest } from '@shared/api/fits'
+import { sampleAt } from '@shared/analysis/trace-align'
 import { createApp } from '../../server/app'
 import { runArrays, runs } from '../../server/db/schema'
 import { startJobService } from '../../server/jobs/job-service'

@@ -3,7 +3,7 @@
 // huge, tiny, negative and non-finite numbers, wrong types, deep nesting and extra keys. Seeded, so a
 // failure replays exactly.
 import type { z } from 'zod'
-import { hasLoneSurrogates } from '@shared/text'
+import { hasLoneSurrogates } from '@shared/api/text'
 
 export type Kind = 'string' | 'number' | 'boolean' | 'array' | 'object' | 'other'
 export interface FieldPath {

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ApiErrorBody } from '@shared/api-error'
+import { ApiErrorBody } from '@shared/api/api-error'
 import { CHIP_WAVEGUIDE } from '../solver/chip-fixtures'
 import { fetchJson, FUZZ_RUN_CONFIG, buildFuzzWorld, type FuzzWorld } from './fuzz-fixture'
 import { fieldPaths, mutateBody, mutateQuery, NASTY_PATH_SEGMENTS, plannedBodies, seededRandom, toJsonText } from './fuzz-bodies'

@@ -1,6 +1,6 @@
 import request from 'supertest'
 import { describe, expect, it } from 'vitest'
-import { HealthStatus } from '@shared/health'
+import { HealthStatus } from '@shared/api/health'
 import { createApp } from '../../server/app'
 import { createDb, createPool } from '../../server/db/client'
 import { APP_VERSION } from '../../server/version'

@@ -3,7 +3,7 @@
 // reads 1e999 as Infinity and 5e-324 as the smallest subnormal double.)
 import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { ApiErrorBody } from '@shared/api-error'
+import { ApiErrorBody } from '@shared/api/api-error'
 import { createApp } from '../../server/app'
 import { tracesRoutes } from '../../server/modules/traces/traces.routes'
 import { waveguidesRoutes } from '../../server/modules/waveguides/waveguides.routes'

@@ -1,13 +1,13 @@
 // Quotas per user and per group (server/modules/quotas): runs in flight answer 429, the daily cell-update budget
 // 422, each naming the quota, its limit, the use and when it frees up; unconfirmed accounts get the small quota,
-// site admins none. The charge of a run is the shared resource estimate (shared/resource-estimate.ts).
+// site admins none. The charge of a run is the shared resource estimate (shared/physics/resource-estimate.ts).
 import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { ApiErrorBody } from '@shared/api-error'
-import { chooseGrid } from '@shared/grid-step'
-import { estimateResources } from '@shared/resource-estimate'
-import { RunDetail } from '@shared/runs'
-import { SweepDetail } from '@shared/sweeps'
+import { ApiErrorBody } from '@shared/api/api-error'
+import { chooseGrid } from '@shared/physics/grid-step'
+import { estimateResources } from '@shared/physics/resource-estimate'
+import { RunDetail } from '@shared/api/runs'
+import { SweepDetail } from '@shared/api/sweeps'
 import { createApp } from '../../server/app'
 import { parseEnv, type QuotaConfig } from '../../server/env'
 import { memberships } from '../../server/db/schema'

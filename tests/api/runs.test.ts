@@ -1,7 +1,7 @@
 // The runs API without a worker: validation, limits, roles, idempotency, listing, cancel while queued, clone.
 import request from 'supertest'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { RunDetail, RunList, QueueStatus } from '@shared/runs'
+import { RunDetail, RunList, QueueStatus } from '@shared/api/runs'
 import { createApp } from '../../server/app'
 import { createShare } from '../../server/modules/shares/shares.service'
 import { RUN_QUEUE } from '../../server/jobs/queues'

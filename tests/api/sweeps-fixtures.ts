@@ -1,7 +1,7 @@
 // Builders for the sweep tests: a tiny chip run (4 ns window, 4 ps step: ~10⁵ cell-updates, well under a
 // second of solver time) whose labelled pump pulse and CW Stokes seed the sweeps vary.
 import type { Router } from 'express'
-import type { SweepCreateInput } from '@shared/sweeps'
+import type { SweepCreateInput } from '@shared/api/sweeps'
 import type PgBoss from 'pg-boss'
 import type { Db, Pool } from '../../server/db/client'
 import { startSweeps, type SweepsModule } from '../../server/modules/sweeps'

@@ -2,8 +2,8 @@
 // queue, policy, share links, cancel and re-run. tests/jobs/sweeps.test.ts runs sweeps on real workers.
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { SweepDetail, SweepEstimateResponse, SweepList, axisValues } from '@shared/sweeps'
-import { RunDetail, RunList } from '@shared/runs'
+import { SweepDetail, SweepEstimateResponse, SweepList, axisValues } from '@shared/api/sweeps'
+import { RunDetail, RunList } from '@shared/api/runs'
 import { pickNext } from '../../server/modules/sweeps/sweep-feeder'
 import { createApp } from '../../server/app'
 import { sharesRoutes } from '../../server/modules/shares/shares.routes'

@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { describe, expect, it } from 'vitest'
-import { WAVEGUIDE_PRESETS } from '@shared/waveguide-presets'
-import { Waveguide, type WaveguideInput } from '@shared/waveguide'
-import { copyName, SavedWaveguide } from '@shared/waveguides-api'
+import { WAVEGUIDE_PRESETS } from '@shared/physics/waveguide-presets'
+import { Waveguide, type WaveguideInput } from '@shared/physics/waveguide'
+import { copyName, SavedWaveguide } from '@shared/api/waveguides-api'
 import { createApp } from '../../server/app'
 import { waveguides } from '../../server/db/schema'
 import { waveguidesRoutes } from '../../server/modules/waveguides/waveguides.routes'
@@ -37,7 +37,7 @@ describe('saved waveguides: CRUD', () => {
     expect(created.headers.location).toBe(`/api/waveguides/${created.body.id}`)
     expect(SavedWaveguide.parse(created.body)).toBeTruthy()
     expect(created.body).toMatchObject({ groupId: g.groupId, name: 'Halden As2S3 rib, wafer 7', notes: 'Cut-back loss measured 2024-03', createdById: g.editor.id })
-    // Defaults from shared/waveguide.ts, applied at the boundary and stored.
+    // Defaults from shared/physics/waveguide.ts, applied at the boundary and stored.
     expect(created.body.waveguide).toMatchObject({ kerrN2M2PerW: 0, phaseIndex: 1.45, lengthM: 0.07 })
     expect(listed.status).toBe(200)
     expect(listed.body.waveguides.map((w: SavedWaveguide) => w.id)).toEqual([created.body.id])

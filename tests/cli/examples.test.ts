@@ -1,9 +1,9 @@
 import { readdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { SimulationConfig } from '@shared/simulation-config'
-import { chooseGrid } from '@shared/grid-step'
-import { checkLimits, estimateResources } from '@shared/resource-estimate'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { chooseGrid } from '@shared/physics/grid-step'
+import { checkLimits, estimateResources } from '@shared/physics/resource-estimate'
 import { REPO } from './run-cli'
 
 const dir = join(REPO, 'solver/examples')

@@ -2,7 +2,7 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, 
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
-import { readNpyArray } from '@shared/trace-parse/npy'
+import { readNpyArray } from '@shared/analysis/trace-parse/npy'
 import type { RunManifest } from '../../solver/io/manifest'
 import { REPO, runCli, startCli } from './run-cli'
 

@@ -4,7 +4,7 @@
 import type { AddressInfo } from 'node:net'
 import type { Server } from 'node:http'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { RunDetail } from '@shared/runs'
+import { RunDetail } from '@shared/api/runs'
 import { createApp } from '../../server/app'
 import { silentLog, useTestDb } from '../api/helpers'
 import { chipRun, newMember, queueSchemaFor, runRoutesForTest, type Member } from '../api/runs-fixtures'

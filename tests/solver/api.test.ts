@@ -2,7 +2,7 @@
 // kernel with the general one (common practice: a fast implementation checked against a reference one).
 import { describe, expect, it } from 'vitest'
 import { simulate, simulateSync } from '../../solver/index'
-import { SimulationManifest } from '@shared/simulation-result'
+import { SimulationManifest } from '@shared/physics/simulation-result'
 import { chipConfig, gaussian, CHIP_WAVEGUIDE } from './chip-fixtures'
 
 const pulsed = () => chipConfig({ windowNs: 6, channels: [{ pump: { pulses: [gaussian(1, 2, 0.3)] }, stokes: { pulses: [gaussian(0.05, 2, 0.3, undefined)] } }] })

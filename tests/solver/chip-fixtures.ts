@@ -1,6 +1,6 @@
 // Builders for the "chip" validation cases of the docs/validation.md: n_g = 2.44, L = 5 cm,
 // G_B = 300 /(W m) (A_eff = 1 µm², g_B = 3e-10 m/W), λ = 1550 nm.
-import { SimulationConfig, SimulationConfigBase, type SimulationConfigInput } from '@shared/simulation-config'
+import { SimulationConfig, SimulationConfigBase, type SimulationConfigInput } from '@shared/physics/simulation-config'
 
 export const CHIP_WAVEGUIDE = {
   name: 'Halden test rib',

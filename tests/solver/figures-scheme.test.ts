@@ -1,11 +1,11 @@
 // Each figure carries its meaning: only the figures of the run's scheme, energy ratios as fractions on
 // every surface, cautions with the real ratio.
 import { describe, expect, it } from 'vitest'
-import { SimulationConfig } from '@shared/simulation-config'
-import { metricColumns, reduceFigures } from '@shared/sweep-metrics'
-import { describeRatio } from '@shared/laser-safety'
-import { deriveQuantities } from '@shared/derived-quantities'
-import { runScheme } from '@shared/pulse-roles'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { metricColumns, reduceFigures } from '@shared/analysis/sweep-metrics'
+import { describeRatio } from '@shared/physics/laser-safety'
+import { deriveQuantities } from '@shared/physics/derived-quantities'
+import { runScheme } from '@shared/physics/pulse-roles'
 import { simulateSync } from '../../solver/index'
 import storageExample from '../../solver/examples/store-and-retrieve-chalcogenide-rib.json'
 import { chipConfig, gaussian } from './chip-fixtures'

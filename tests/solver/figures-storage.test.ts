@@ -2,9 +2,9 @@
 // at the pump output, data light that leaked through is reported apart, and a read-out the run cannot
 // see is "not determined" with the reason instead of a number.
 import { describe, expect, it } from 'vitest'
-import { SimulationConfig, type SimulationConfigInput } from '@shared/simulation-config'
+import { SimulationConfig, type SimulationConfigInput } from '@shared/physics/simulation-config'
 import { simulateSync } from '../../solver/index'
-import { pulseAmplitude } from '../../solver/grid/input-traces'
+import { pulseAmplitude } from '@shared/physics/pulse-envelope'
 import example from '../../solver/examples/store-and-retrieve-chalcogenide-rib.json'
 
 /** Γ_B = 2π·34 MHz: the phonon energy, and with it η, decays as e^{−Γ_B τ} while the data is stored (Agrawal, Nonlinear Fiber Optics, ch. 9). */

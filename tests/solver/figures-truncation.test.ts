@@ -1,8 +1,8 @@
 // Pulses cut by the simulated window are refused before queueing, with the fix in the message.
 import { describe, expect, it } from 'vitest'
-import { SimulationConfig, SimulationConfigBase } from '@shared/simulation-config'
-import { outsideFractions, truncationMessage } from '@shared/pulse-truncation'
-import { sampleInput } from '../../solver/grid/input-traces'
+import { SimulationConfig, SimulationConfigBase } from '@shared/physics/simulation-config'
+import { outsideFractions, truncationMessage } from '@shared/physics/pulse-truncation'
+import { sampleInput } from '@shared/physics/pulse-envelope'
 import { simulateSync } from '../../solver/index'
 import { CHIP_WAVEGUIDE } from './chip-fixtures'
 

@@ -1,7 +1,7 @@
 // V10 of the docs/validation.md: cross-scattering between two channels' gratings is phase mismatched,
 // so the scattered power ∝ sinc²(ΔqL/2) (Armstrong, Bloembergen, Ducuing & Pershan 1962).
 import { describe, expect, it } from 'vitest'
-import { chooseGrid } from '@shared/grid-step'
+import { chooseGrid } from '@shared/physics/grid-step'
 import { SimulationRun, simulateSync } from '../../solver/index'
 import { chipConfig, chipConfigUnrefined, last, powerAt } from './chip-fixtures'
 

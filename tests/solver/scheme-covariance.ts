@@ -12,7 +12,7 @@
  * equation P = M P Mᵀ + G Gᵀ (solved by the doubling iteration, e.g. Anderson & Moore, Optimal
  * Filtering, 1979), and the output covariance is C P Cᵀ + D Dᵀ.
  */
-import type { SimulationConfig } from '@shared/simulation-config'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { planGrid, SimulationRun } from '../../solver/driver'
 
 /** Row-major dense real matrix. */

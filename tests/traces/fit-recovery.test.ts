@@ -3,10 +3,10 @@
 // stated size; the fit starts from the run's (wrong) parameters. Tolerances: the recovered value lies
 // within 3 of its own reported standard deviations of the truth and within a stated relative error.
 import { describe, expect, it } from 'vitest'
-import type { FitRequestInput } from '@shared/fits'
-import { FitRequest } from '@shared/fits'
-import type { SimulationConfig } from '@shared/simulation-config'
-import { sampleAt, type Series } from '@shared/trace-align'
+import type { FitRequestInput } from '@shared/api/fits'
+import { FitRequest } from '@shared/api/fits'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import { sampleAt, type Series } from '@shared/analysis/trace-align'
 import { runFit } from '../../server/modules/fits/fit-engine'
 import { evaluateModel, pinnedStepPs, variantConfig } from '../../server/modules/fits/fit-model'
 import { chipConfig, gaussian } from '../solver/chip-fixtures'

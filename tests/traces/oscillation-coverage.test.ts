@@ -6,7 +6,7 @@
 // appears) (benchmarks/oscillation-coverage.ts runs all of it), and on a ≈3 GHz
 // ripple riding on a broad pulse, whose envelope used to be reported as the oscillation.
 import { describe, expect, it } from 'vitest'
-import { analyseOscillation } from '@shared/oscillation'
+import { analyseOscillation } from '@shared/analysis/oscillation'
 import { evaluateCase, gridCases } from './oscillation-synthetic'
 import { gaussianNoise } from './random'
 

@@ -70,7 +70,7 @@ export interface CaseOutcome {
   relErr: { spectrumF: number | null; spectrumTau: number | null; fitF: number | null; fitTau: number | null }
 }
 
-export function evaluateCase(c: RippleCase, analyse: (t: Float64Array, y: Float64Array) => import('@shared/oscillation').OscillationResult): CaseOutcome {
+export function evaluateCase(c: RippleCase, analyse: (t: Float64Array, y: Float64Array) => import('@shared/analysis/oscillation').OscillationResult): CaseOutcome {
   const s = syntheticRipple(c)
   const r = analyse(s.timeNs, s.values)
   const { frequencyGHz: f, decayNs: tau } = s.truth

@@ -2,7 +2,7 @@
 // spectrum and by the damped-sine fit. The power line of such a signal is a Lorentzian of FWHM 1/(πτ)
 // (Fourier transform of a one-sided exponential; e.g. Bracewell, The Fourier Transform and Its Applications).
 import { describe, expect, it } from 'vitest'
-import { analyseOscillation } from '@shared/oscillation'
+import { analyseOscillation } from '@shared/analysis/oscillation'
 import { gaussianNoise } from './random'
 
 const F_GHZ = 7.7 // a Brillouin shift of the demo chalcogenide chip

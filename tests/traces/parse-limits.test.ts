@@ -7,8 +7,8 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { afterAll, describe, expect, it } from 'vitest'
-import { buildTrace, parseTraceFile, TraceParseError } from '@shared/trace-parse'
-import { TRACE_MAX_COLUMNS, TRACE_MAX_LINE_CHARS, TRACE_MAX_SAMPLES, TraceImportSettings } from '@shared/traces'
+import { buildTrace, parseTraceFile, TraceParseError } from '@shared/analysis/trace-parse'
+import { TRACE_MAX_COLUMNS, TRACE_MAX_LINE_CHARS, TRACE_MAX_SAMPLES, TraceImportSettings } from '@shared/api/traces'
 import { oneLineCsv, scopeCsv } from './big-files'
 
 const ROOT = fileURLToPath(new URL('../..', import.meta.url))

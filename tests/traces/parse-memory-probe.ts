@@ -2,8 +2,8 @@
 // parser and prints, as JSON, the resident memory before the parse and the process's peak after it, so
 // the peak belongs to the parse and to nothing else a test runner holds.
 import { readFileSync } from 'node:fs'
-import { buildTrace, parseTraceFile } from '@shared/trace-parse'
-import { TraceImportSettings } from '@shared/traces'
+import { buildTrace, parseTraceFile } from '@shared/analysis/trace-parse'
+import { TraceImportSettings } from '@shared/api/traces'
 
 const bytes = new Uint8Array(readFileSync(process.argv[2]))
 ;(globalThis as { gc?: () => void }).gc?.()

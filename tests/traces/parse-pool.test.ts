@@ -3,7 +3,7 @@
 // thread, not the process or the next file.
 import { threadId } from 'node:worker_threads'
 import { afterAll, describe, expect, it } from 'vitest'
-import { TraceImportSettings } from '@shared/traces'
+import { TraceImportSettings } from '@shared/api/traces'
 import { ParseThreadError, TraceParsePool } from '../../server/modules/traces/trace-parse-pool'
 import { scopeCsv } from './big-files'
 

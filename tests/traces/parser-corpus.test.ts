@@ -4,8 +4,8 @@
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { buildTrace, parseTraceFile, TraceParseError, type ParsedTable } from '@shared/trace-parse'
-import { TraceImportSettings, type TraceImportSettingsInput } from '@shared/traces'
+import { buildTrace, parseTraceFile, TraceParseError, type ParsedTable } from '@shared/analysis/trace-parse'
+import { TraceImportSettings, type TraceImportSettingsInput } from '@shared/api/traces'
 
 const corpus = (name: string) => new Uint8Array(readFileSync(join(__dirname, 'corpus', name)))
 const malformed = (name: string) => new Uint8Array(readFileSync(join(__dirname, 'malformed', name)))

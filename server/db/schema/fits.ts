@@ -1,5 +1,5 @@
 import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core'
-import type { FitRequest, FitResult } from '@shared/fits'
+import type { FitRequest, FitResult } from '@shared/api/fits'
 import { groups } from './groups'
 import { runs } from './runs'
 import { traces } from './traces'

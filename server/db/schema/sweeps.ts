@@ -1,6 +1,6 @@
 import { index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { SweepAxis, SweepEstimate } from '@shared/sweeps'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { SweepAxis, SweepEstimate } from '@shared/api/sweeps'
 import { groups } from './groups'
 import { users } from './users'
 

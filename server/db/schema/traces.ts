@@ -1,5 +1,5 @@
 import { doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
-import type { TraceColumn, TraceImportSettings, TraceSignalInfo } from '@shared/traces'
+import type { TraceColumn, TraceImportSettings, TraceSignalInfo } from '@shared/api/traces'
 import { groups } from './groups'
 import { bytea } from './run-arrays'
 import { users } from './users'

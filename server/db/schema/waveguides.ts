@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import { index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import type { Waveguide } from '@shared/waveguide'
+import type { Waveguide } from '@shared/physics/waveguide'
 import { groups } from './groups'
 import { users } from './users'
 

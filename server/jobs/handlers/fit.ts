@@ -6,7 +6,7 @@
 import { Worker } from 'node:worker_threads'
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
-import { FitJobPayload } from '@shared/fits'
+import { FitJobPayload } from '@shared/api/fits'
 import { createDb } from '../../db/client'
 import type { Logger } from '../../logger'
 import { fitInputs } from '../../modules/fits/fit-data'

@@ -3,7 +3,7 @@
 // retries the job.
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
-import { RunJobPayload } from '@shared/runs'
+import { RunJobPayload } from '@shared/api/runs'
 import type { Logger } from '../../logger'
 import { executeRun, type RunHandle, type RunOutcome } from '../run-executor'
 

@@ -1,7 +1,7 @@
 // A signed-in user changes their own password or address. Both ask for the current password, so an
 // unlocked screen left behind is not enough to take the account over.
 import { and, eq, ne, sql } from 'drizzle-orm'
-import type { AcceptedMessage, ChangeEmailBody, ChangePasswordBody } from '@shared/auth'
+import type { AcceptedMessage, ChangeEmailBody, ChangePasswordBody } from '@shared/api/auth'
 import type { Db } from '../../db/client'
 import { emailConfirmations, sessions, users } from '../../db/schema'
 import { AppError, conflict, notFound } from '../../errors'

@@ -1,5 +1,5 @@
 import { Router, type Request } from 'express'
-import { ChangeEmailBody, ChangePasswordBody, ConfirmEmailBody, PasswordResetCompleteBody, PasswordResetRequestBody, SignInBody, SignUpBody, UpdateMeBody } from '@shared/auth'
+import { ChangeEmailBody, ChangePasswordBody, ConfirmEmailBody, PasswordResetCompleteBody, PasswordResetRequestBody, SignInBody, SignUpBody, UpdateMeBody } from '@shared/api/auth'
 import type { Db } from '../../db/client'
 import { validate } from '../../middleware/validate'
 import type { AuthOptions } from './auth-options'

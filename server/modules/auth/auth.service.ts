@@ -1,4 +1,4 @@
-import type { AcceptedMessage, PasswordResetCompleteBody, SignInBody, SignUpBody } from '@shared/auth'
+import type { AcceptedMessage, PasswordResetCompleteBody, SignInBody, SignUpBody } from '@shared/api/auth'
 import type { Db } from '../../db/client'
 import { emailConfirmations, passwordResets, type User } from '../../db/schema'
 import { AppError, unauthorized } from '../../errors'

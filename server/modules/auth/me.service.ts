@@ -1,5 +1,5 @@
 import { asc, eq } from 'drizzle-orm'
-import type { MeResponse, UpdateMeBody } from '@shared/auth'
+import type { MeResponse, UpdateMeBody } from '@shared/api/auth'
 import type { Db } from '../../db/client'
 import { groups, memberships, type User } from '../../db/schema'
 import { notFound } from '../../errors'

@@ -1,7 +1,7 @@
 // Everything a fit needs, loaded from the database: the measurement, the run's config and stored output.
-import type { FitRequest } from '@shared/fits'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { Series } from '@shared/trace-align'
+import type { FitRequest } from '@shared/api/fits'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { Series } from '@shared/analysis/trace-align'
 import type { Db } from '../../db/client'
 import { AppError } from '../../errors'
 import { findArray, type RunRow } from '../runs/runs.repo'

@@ -12,11 +12,11 @@
  * Models with and without the higher-order acoustic term are compared by residual, AIC and BIC.
  */
 import { levenbergMarquardt } from 'ml-levenberg-marquardt'
-import type { FitModelResult, FitParameterValue, FitRequest, FitResult, PhysicalFitParameter } from '@shared/fits'
-import { PHYSICAL_FIT_PARAMETERS } from '@shared/fits'
-import { informationCriteria, parameterSigmas } from '@shared/least-squares'
-import type { SimulationConfig } from '@shared/simulation-config'
-import { alignClosedForm, medianStep, shiftedModel, windowIndices, type Series } from '@shared/trace-align'
+import type { FitModelResult, FitParameterValue, FitRequest, FitResult, PhysicalFitParameter } from '@shared/api/fits'
+import { PHYSICAL_FIT_PARAMETERS } from '@shared/api/fits'
+import { informationCriteria, parameterSigmas } from '@shared/analysis/least-squares'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import { alignClosedForm, medianStep, shiftedModel, windowIndices, type Series } from '@shared/analysis/trace-align'
 import { baseValues, evaluateModel, pinnedStepPs, variantConfig, type PhysicalValues } from './fit-model'
 
 export interface FitInputs {

@@ -1,10 +1,10 @@
 // The model a fit varies: the run's configuration with the freed parameters replaced, evaluated by the
 // solver on a pinned time step (a grid that moved with the parameters would put steps in the residual).
-import { chooseGrid } from '@shared/grid-step'
-import type { FitPort, PhysicalFitParameter } from '@shared/fits'
-import type { Pulse } from '@shared/pulse'
-import { SimulationConfig } from '@shared/simulation-config'
-import type { Series } from '@shared/trace-align'
+import { chooseGrid } from '@shared/physics/grid-step'
+import type { FitPort, PhysicalFitParameter } from '@shared/api/fits'
+import type { Pulse } from '@shared/physics/pulse'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import type { Series } from '@shared/analysis/trace-align'
 import { simulateSync } from '../../../solver/index'
 
 export type PhysicalValues = Partial<Record<PhysicalFitParameter, number>>

@@ -4,7 +4,7 @@
 // sweeps them; a worker shutting down hands its fits back at once.
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
-import type { FitJobPayload } from '@shared/fits'
+import type { FitJobPayload } from '@shared/api/fits'
 import { FIT_QUEUE, FIT_QUEUE_OPTIONS } from '../../jobs/queues'
 import { bossDb, type ReleaseResult } from '../../jobs/requeue'
 import { inTransaction } from '../../jobs/run-store'

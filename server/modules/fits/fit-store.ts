@@ -2,7 +2,7 @@
 // under that attempt: a fit that was deleted, or handed back to the queue while its old worker still ran,
 // takes no write from that worker, so nothing is stored half-way.
 import type { Pool } from 'pg'
-import type { FitResult } from '@shared/fits'
+import type { FitResult } from '@shared/api/fits'
 
 /** Takes the fit for a new attempt (a retry may take a fit whose previous worker was lost); null when it is gone or finished. */
 export async function claimFit(pool: Pool, fitId: string, jobId: string): Promise<number | null> {

@@ -2,7 +2,7 @@
 // worker's event loop (heartbeats, other jobs, progress writes) stays free. Started by
 // server/jobs/handlers/fit.ts through a bootstrap that registers tsx.
 import { parentPort, workerData } from 'node:worker_threads'
-import type { FitResult } from '@shared/fits'
+import type { FitResult } from '@shared/api/fits'
 import { runFit, type FitInputs } from './fit-engine'
 
 export type FitThreadMessage =

@@ -1,6 +1,6 @@
 // Fit rows; plain objects out.
 import { and, desc, eq, getTableColumns } from 'drizzle-orm'
-import type { FitRequest, FitResult } from '@shared/fits'
+import type { FitRequest, FitResult } from '@shared/api/fits'
 import type { Db } from '../../db/client'
 import { fits, users, type FitRow } from '../../db/schema'
 

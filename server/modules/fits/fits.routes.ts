@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { FitListQuery, FitRequest } from '@shared/fits'
+import { FitListQuery, FitRequest } from '@shared/api/fits'
 import { validate } from '../../middleware/validate'
 import { requireAuth } from '../auth/auth.middleware'
 import { createFit, getFit, listFitsFor, removeFit, type FitsDeps } from './fits.service'

@@ -4,7 +4,7 @@
 // accepts our transaction's client), so a fit exists exactly when its job does.
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
-import { isClosedFormFit, type FitDetail, type FitJobPayload, type FitList, type FitRequest } from '@shared/fits'
+import { isClosedFormFit, type FitDetail, type FitJobPayload, type FitList, type FitRequest } from '@shared/api/fits'
 import type { Db } from '../../db/client'
 import { AppError, conflict, notFound } from '../../errors'
 import { FIT_QUEUE } from '../../jobs/queues'

@@ -1,5 +1,5 @@
 import { Router, type Request } from 'express'
-import { AcceptInvitationBody, GroupCreateBody, GroupUpdateBody, InviteBody, RoleChangeBody } from '@shared/groups'
+import { AcceptInvitationBody, GroupCreateBody, GroupUpdateBody, InviteBody, RoleChangeBody } from '@shared/api/groups'
 import type { Db } from '../../db/client'
 import { validate } from '../../middleware/validate'
 import type { AuthOptions } from '../auth/auth-options'

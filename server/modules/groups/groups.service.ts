@@ -1,6 +1,6 @@
 import { randomBytes } from 'node:crypto'
 import { and, asc, eq } from 'drizzle-orm'
-import type { GroupSummary } from '@shared/groups'
+import type { GroupSummary } from '@shared/api/groups'
 import type { Db } from '../../db/client'
 import { groups, memberships } from '../../db/schema'
 import { notFound } from '../../errors'

@@ -1,5 +1,5 @@
 import { and, desc, eq, gt, isNull, sql } from 'drizzle-orm'
-import type { InvitationPreview, InvitationSummary, InviteBody } from '@shared/groups'
+import type { InvitationPreview, InvitationSummary, InviteBody } from '@shared/api/groups'
 import type { Db } from '../../db/client'
 import { groups, invitations, memberships, users, type Invitation } from '../../db/schema'
 import { AppError, conflict, forbidden, notFound } from '../../errors'

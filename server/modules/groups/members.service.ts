@@ -1,5 +1,5 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
-import type { GroupMember } from '@shared/groups'
+import type { GroupMember } from '@shared/api/groups'
 import type { Db } from '../../db/client'
 import { memberships, users } from '../../db/schema'
 import { AppError, notFound } from '../../errors'

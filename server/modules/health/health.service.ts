@@ -1,4 +1,4 @@
-import type { HealthStatus } from '@shared/health'
+import type { HealthStatus } from '@shared/api/health'
 import type { Pool } from '../../db/client'
 
 export type QueueCheck = () => Promise<boolean>

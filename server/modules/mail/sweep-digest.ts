@@ -1,6 +1,6 @@
 // The one mail a finished sweep sends: how many points ran, what was swept, where the headline figure
 // was highest and lowest, and a short table. The rest is on the sweep page and in its download.
-import type { SweepDetail } from '@shared/sweeps'
+import type { SweepDetail } from '@shared/api/sweeps'
 import type { FinishedNotice } from './notify'
 
 /** Rows of the figures table in the mail; the rest is in the ZIP. */

@@ -1,5 +1,5 @@
 import type { Pool } from 'pg'
-import type { QueueStatus } from '@shared/runs'
+import type { QueueStatus } from '@shared/api/runs'
 
 /** Workers count as present when seen within this time (they report every 10 s). */
 export const WORKER_SEEN_WITHIN_S = 60

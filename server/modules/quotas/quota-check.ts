@@ -6,7 +6,7 @@
 // Who gets which quota: an account whose email is confirmed has the per-user quota, an unconfirmed one the
 // small `unconfirmed` quota; the group quota applies to both. Site admins are exempt (they run the instance and
 // set these limits; their runs still count toward their group's use). Resource limits per run and per sweep
-// (shared/resource-estimate.ts, shared/sweep-points.ts) apply to everyone, admins included.
+// (shared/physics/resource-estimate.ts, shared/physics/sweep-points.ts) apply to everyone, admins included.
 import type { PoolClient } from 'pg'
 import { AppError } from '../../errors'
 import type { QuotaConfig } from '../../env'

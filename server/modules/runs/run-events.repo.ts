@@ -1,6 +1,6 @@
 // The run event log (table run_events) and its NOTIFY: one insert + pg_notify per event, in the caller's
 // transaction when there is one, so listeners hear of an event only once it is committed and readable.
-import type { RunEventKind } from '@shared/runs'
+import type { RunEventKind } from '@shared/api/runs'
 
 /** A pg Pool or PoolClient (inside a transaction). */
 export interface Queryable {

@@ -3,7 +3,7 @@
 // now (the current attempt's status, progress and map blocks), then live events as NOTIFY announces them.
 import type { Request, Response } from 'express'
 import type { Pool } from 'pg'
-import { FINAL_RUN_STATES, type RunBlockEvent, type RunState } from '@shared/runs'
+import { FINAL_RUN_STATES, type RunBlockEvent, type RunState } from '@shared/api/runs'
 import type { RunEventRelay } from './run-event-relay'
 import { runEventsAfter, type StoredRunEvent } from './run-events.repo'
 import type { RunRow } from './runs.repo'

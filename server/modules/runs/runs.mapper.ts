@@ -1,4 +1,4 @@
-import { runKeyFigure, type RunDetail, type RunSummary } from '@shared/runs'
+import { runKeyFigure, type RunDetail, type RunSummary } from '@shared/api/runs'
 import type { RunRow } from './runs.repo'
 
 const iso = (d: Date | null): string | null => (d ? d.toISOString() : null)

@@ -1,6 +1,6 @@
 // Reads of runs for the API; plain objects out. The worker's writes live in server/jobs/run-store.ts.
 import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, isNotNull, isNull, lt, or, type SQL } from 'drizzle-orm'
-import type { RunListQuery } from '@shared/runs'
+import type { RunListQuery } from '@shared/api/runs'
 import type { Db } from '../../db/client'
 import { memberships, runArrays, runs, users, type Run } from '../../db/schema'
 

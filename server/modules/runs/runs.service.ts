@@ -2,9 +2,9 @@
 // priority: server/jobs/fair-priority.ts), idempotent resubmission, cancel, clone, read. Authorisation follows the run's group (server/policy/access.ts).
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
-import { chooseGrid } from '@shared/grid-step'
-import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from '@shared/resource-estimate'
-import { RUN_JOB_SCHEMA_VERSION, type RunClone, type RunCreate, type RunDetail, type RunJobPayload, type RunList, type RunListQuery } from '@shared/runs'
+import { chooseGrid } from '@shared/physics/grid-step'
+import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from '@shared/physics/resource-estimate'
+import { RUN_JOB_SCHEMA_VERSION, type RunClone, type RunCreate, type RunDetail, type RunJobPayload, type RunList, type RunListQuery } from '@shared/api/runs'
 import { SOLVER_VERSION } from '../../../solver/index'
 import type { Db } from '../../db/client'
 import { AppError, conflict, notFound } from '../../errors'

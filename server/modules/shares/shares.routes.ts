@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { ShareCreateBody, ShareListQuery } from '@shared/shares'
+import { ShareCreateBody, ShareListQuery } from '@shared/api/shares'
 import type { Db } from '../../db/client'
 import { validate } from '../../middleware/validate'
 import { requireAuth } from '../auth/auth.middleware'

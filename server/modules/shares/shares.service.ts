@@ -1,4 +1,4 @@
-import type { CreatedShareLink, ShareCreateBody, ShareLinkSummary } from '@shared/shares'
+import type { CreatedShareLink, ShareCreateBody, ShareLinkSummary } from '@shared/api/shares'
 import type { Db } from '../../db/client'
 import type { ShareLink } from '../../db/schema'
 import { AppError, notFound } from '../../errors'

@@ -4,7 +4,7 @@
 import type { Router } from 'express'
 import type PgBoss from 'pg-boss'
 import type { Pool } from 'pg'
-import type { SweepLimits } from '@shared/sweep-points'
+import type { SweepLimits } from '@shared/physics/sweep-points'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
 import type { QuotaConfig } from '../quotas'

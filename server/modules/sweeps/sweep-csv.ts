@@ -1,7 +1,7 @@
 // The figures-of-merit table of a sweep as CSV: one row per point, axis values first, units in the header;
 // each figure is followed by its estimated discretisation error (same unit; empty where there is none).
-import { errorKey } from '@shared/sweep-metrics'
-import { axisLabel, type SweepDetail } from '@shared/sweeps'
+import { errorKey } from '@shared/analysis/sweep-metrics'
+import { axisLabel, type SweepDetail } from '@shared/api/sweeps'
 
 /** Quotes a cell when it holds a comma, quote or line break (RFC 4180). */
 const cell = (s: string) => (/[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s)

@@ -3,7 +3,7 @@
 // as NPY, plus a README.txt saying what is where.
 import type { Response } from 'express'
 import { ZipArchive } from 'archiver'
-import { axisLabel, type SweepDetail } from '@shared/sweeps'
+import { axisLabel, type SweepDetail } from '@shared/api/sweeps'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
 import { arrayFileName, npyDescrOf, npyHeader, type RunManifest } from '../../../solver/index'

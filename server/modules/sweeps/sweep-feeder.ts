@@ -26,7 +26,7 @@
 // exactly when its job exists. A sweep whose points are all final is closed here too (sweep-finish.ts).
 import type PgBoss from 'pg-boss'
 import type { Pool, PoolClient } from 'pg'
-import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/runs'
+import { RUN_JOB_SCHEMA_VERSION, type RunJobPayload } from '@shared/api/runs'
 import type { Db } from '../../db/client'
 import type { Logger } from '../../logger'
 import { RUN_QUEUE, SWEEP_POINT_PRIORITY } from '../../jobs/queues'

@@ -1,5 +1,5 @@
-import { axisLabel, axisValues, type SweepDetail, type SweepPoint, type SweepSummary } from '@shared/sweeps'
-import { metricColumns, reduceFigures } from '@shared/sweep-metrics'
+import { axisLabel, axisValues, type SweepDetail, type SweepPoint, type SweepSummary } from '@shared/api/sweeps'
+import { metricColumns, reduceFigures } from '@shared/analysis/sweep-metrics'
 import type { PointRunRow, SweepRow } from './sweeps.repo'
 
 const iso = (d: Date | null): string | null => (d ? d.toISOString() : null)

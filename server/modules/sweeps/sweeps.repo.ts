@@ -1,11 +1,11 @@
 // Sweeps and their point runs in PostgreSQL; plain objects out. Point runs are ordinary rows of `runs`
 // (sweep_id, sweep_point) stored `queued` with no job: the feeder (sweep-feeder.ts) sends their jobs.
 import type { Pool, PoolClient } from 'pg'
-import type { FiguresOfMerit } from '@shared/simulation-result'
-import type { RunState } from '@shared/runs'
-import type { SimulationConfig } from '@shared/simulation-config'
-import type { PointCounts, SweepAxis, SweepEstimate, SweepListQuery, SweepState } from '@shared/sweeps'
-import type { ResourceEstimate } from '@shared/resource-estimate'
+import type { FiguresOfMerit } from '@shared/physics/simulation-result'
+import type { RunState } from '@shared/api/runs'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import type { PointCounts, SweepAxis, SweepEstimate, SweepListQuery, SweepState } from '@shared/api/sweeps'
+import type { ResourceEstimate } from '@shared/physics/resource-estimate'
 import { SOLVER_VERSION } from '../../../solver/index'
 import { inTransaction } from '../../jobs/run-store'
 import { configHash } from '../runs/config-hash'

@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { SweepCreate, SweepDefinition, SweepDownloadQuery, SweepListQuery } from '@shared/sweeps'
+import { SweepCreate, SweepDefinition, SweepDownloadQuery, SweepListQuery } from '@shared/api/sweeps'
 import { validate } from '../../middleware/validate'
 import { isUuid } from '../../policy/ids'
 import { requireAuth } from '../auth/auth.middleware'

@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { ApiTokenCreateBody } from '@shared/auth'
+import { ApiTokenCreateBody } from '@shared/api/auth'
 import type { Db } from '../../db/client'
 import { validate } from '../../middleware/validate'
 import { requireAuth } from '../auth/auth.middleware'

@@ -1,4 +1,4 @@
-import type { ApiTokenCreateBody, ApiTokenSummary, CreatedApiToken } from '@shared/auth'
+import type { ApiTokenCreateBody, ApiTokenSummary, CreatedApiToken } from '@shared/api/auth'
 import type { Db } from '../../db/client'
 import type { ApiToken } from '../../db/schema'
 import { notFound } from '../../errors'

@@ -3,7 +3,7 @@
 // request. One file at a time also bounds the memory uploads can take together. The thread has a heap
 // limit of its own: a file that would exhaust it costs the thread, which is replaced, not the server.
 import { Worker } from 'node:worker_threads'
-import type { TraceImportSettings } from '@shared/traces'
+import type { TraceImportSettings } from '@shared/api/traces'
 import type { ParseReply } from './trace-parse-thread'
 
 const THREAD_FILE = new URL('./trace-parse-thread.ts', import.meta.url).href

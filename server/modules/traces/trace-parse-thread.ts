@@ -2,8 +2,8 @@
 // the API's event loop. Started by trace-parse-pool.ts through a bootstrap that registers tsx.
 import { createHash } from 'node:crypto'
 import { parentPort, threadId } from 'node:worker_threads'
-import { buildTrace, parseTraceFile, TraceParseError, type ParseLocation } from '@shared/trace-parse'
-import type { TraceColumn, TraceImportSettings, TraceSignalInfo, TraceTimeUnit } from '@shared/traces'
+import { buildTrace, parseTraceFile, TraceParseError, type ParseLocation } from '@shared/analysis/trace-parse'
+import type { TraceColumn, TraceImportSettings, TraceSignalInfo, TraceTimeUnit } from '@shared/api/traces'
 
 export interface ParseRequest {
   seq: number

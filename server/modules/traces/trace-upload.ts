@@ -4,7 +4,7 @@
 // so the rest of the body is never taken in.
 import type { NextFunction, Request, RequestHandler, Response } from 'express'
 import multer from 'multer'
-import { TRACE_UPLOAD_LIMIT_BYTES } from '@shared/traces'
+import { TRACE_UPLOAD_LIMIT_BYTES } from '@shared/api/traces'
 import { AppError } from '../../errors'
 
 /** Room for the multipart framing and the settings part on top of the file itself. */

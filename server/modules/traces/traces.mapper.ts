@@ -1,4 +1,4 @@
-import type { TraceDetail, TraceSummary } from '@shared/traces'
+import type { TraceDetail, TraceSummary } from '@shared/api/traces'
 import type { TraceMeta } from './traces.repo'
 
 export function toSummary(r: TraceMeta): TraceSummary {

@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { TraceDataQuery, TraceListQuery } from '@shared/traces'
+import { TraceDataQuery, TraceListQuery } from '@shared/api/traces'
 import { validate } from '../../middleware/validate'
 import { requireAuth } from '../auth/auth.middleware'
 import { receiveTraceUpload } from './trace-upload'

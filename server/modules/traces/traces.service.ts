@@ -1,6 +1,6 @@
 // Use cases of measured traces. Group roles as for runs: viewers read, editors upload and delete.
 import { ZodError } from 'zod'
-import { TraceUploadSettings, type TraceData, type TraceDetail, type TraceImportSettings, type TraceList } from '@shared/traces'
+import { TraceUploadSettings, type TraceData, type TraceDetail, type TraceImportSettings, type TraceList } from '@shared/api/traces'
 import type { Db } from '../../db/client'
 import { AppError, notFound } from '../../errors'
 import { isUuid } from '../../policy/ids'

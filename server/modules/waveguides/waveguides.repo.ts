@@ -1,5 +1,5 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
-import type { Waveguide } from '@shared/waveguide'
+import type { Waveguide } from '@shared/physics/waveguide'
 import type { Db } from '../../db/client'
 import { users, waveguides } from '../../db/schema'
 

@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { SavedWaveguideCreate, SavedWaveguideDuplicate, SavedWaveguideListQuery, SavedWaveguideUpdate } from '@shared/waveguides-api'
+import { SavedWaveguideCreate, SavedWaveguideDuplicate, SavedWaveguideListQuery, SavedWaveguideUpdate } from '@shared/api/waveguides-api'
 import { validate } from '../../middleware/validate'
 import { requireAuth } from '../auth/auth.middleware'
 import {

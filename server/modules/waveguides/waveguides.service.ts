@@ -1,5 +1,5 @@
 // Use cases of a group's saved waveguides. Viewers read; editors create, change, copy and delete.
-import { copyName, type SavedWaveguide, type SavedWaveguideCreate, type SavedWaveguideDuplicate, type SavedWaveguideUpdate } from '@shared/waveguides-api'
+import { copyName, type SavedWaveguide, type SavedWaveguideCreate, type SavedWaveguideDuplicate, type SavedWaveguideUpdate } from '@shared/api/waveguides-api'
 import type { Db } from '../../db/client'
 import { conflict, notFound, unauthorized } from '../../errors'
 import { requireGroupRole, type Role } from '../../policy/access'

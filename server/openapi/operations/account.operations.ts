@@ -15,9 +15,9 @@ import {
   SignInBody,
   SignUpBody,
   UpdateMeBody,
-} from '@shared/auth'
-import { HealthStatus } from '@shared/health'
-import { QueueStatus } from '@shared/runs'
+} from '@shared/api/auth'
+import { HealthStatus } from '@shared/api/health'
+import { QueueStatus } from '@shared/api/runs'
 import type { ApiOperation } from '../registry'
 
 const accepted = (status: number, description: string) => ({ status, description, schema: AcceptedMessage })

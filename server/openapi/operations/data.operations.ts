@@ -1,7 +1,7 @@
 // Measured traces, fits of runs to traces, and saved waveguides.
-import { FitDetail, FitList, FitListQuery, FitRequest } from '@shared/fits'
-import { TraceData, TraceDataQuery, TraceDetail, TraceList, TraceListQuery, TraceUploadSettings } from '@shared/traces'
-import { SavedWaveguide, SavedWaveguideCreate, SavedWaveguideDuplicate, SavedWaveguideList, SavedWaveguideListQuery, SavedWaveguideUpdate } from '@shared/waveguides-api'
+import { FitDetail, FitList, FitListQuery, FitRequest } from '@shared/api/fits'
+import { TraceData, TraceDataQuery, TraceDetail, TraceList, TraceListQuery, TraceUploadSettings } from '@shared/api/traces'
+import { SavedWaveguide, SavedWaveguideCreate, SavedWaveguideDuplicate, SavedWaveguideList, SavedWaveguideListQuery, SavedWaveguideUpdate } from '@shared/api/waveguides-api'
 import type { ApiOperation } from '../registry'
 
 const noContent = { status: 204, description: 'Done; no body' }

@@ -1,7 +1,7 @@
 // Groups, their members and invitations, and share links.
 import { z } from 'zod'
-import { AcceptInvitationBody, GroupCreateBody, GroupMember, GroupSummary, GroupUpdateBody, InvitationPreview, InvitationSummary, InviteBody, RoleChangeBody } from '@shared/groups'
-import { CreatedShareLink, ShareCreateBody, ShareLinkSummary, ShareListQuery } from '@shared/shares'
+import { AcceptInvitationBody, GroupCreateBody, GroupMember, GroupSummary, GroupUpdateBody, InvitationPreview, InvitationSummary, InviteBody, RoleChangeBody } from '@shared/api/groups'
+import { CreatedShareLink, ShareCreateBody, ShareLinkSummary, ShareListQuery } from '@shared/api/shares'
 import type { ApiOperation } from '../registry'
 
 const members = { status: 200, description: 'The members', schema: z.object({ members: z.array(GroupMember) }) }

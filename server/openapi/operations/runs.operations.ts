@@ -1,5 +1,5 @@
 // Simulation runs: submit, list, follow, fetch arrays, download.
-import { RunBlockEvent, RunClone, RunCreate, RunDetail, RunList, RunListQuery, RunProgressEvent, RunStatusEvent } from '@shared/runs'
+import { RunBlockEvent, RunClone, RunCreate, RunDetail, RunList, RunListQuery, RunProgressEvent, RunStatusEvent } from '@shared/api/runs'
 import type { ApiOperation } from '../registry'
 
 const run = (status: number, description: string) => ({ status, description, schema: RunDetail })

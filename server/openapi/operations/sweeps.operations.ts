@@ -1,5 +1,5 @@
 // Parameter sweeps: estimate, submit, list, follow, download.
-import { SweepCreate, SweepDefinition, SweepDetail, SweepDownloadQuery, SweepEstimateResponse, SweepList, SweepListQuery } from '@shared/sweeps'
+import { SweepCreate, SweepDefinition, SweepDetail, SweepDownloadQuery, SweepEstimateResponse, SweepList, SweepListQuery } from '@shared/api/sweeps'
 import type { ApiOperation } from '../registry'
 
 const sweep = (status: number, description: string) => ({ status, description, schema: SweepDetail })

@@ -1,6 +1,6 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it } from 'vitest'
-import type { FigureErrors } from '@shared/figure-error'
+import type { FigureErrors } from '@shared/physics/figure-error'
 import { mountWithApp } from '@/test-utils/mount'
 import RunErrorEstimateNote from './RunErrorEstimateNote.vue'
 import RunFigureError from './RunFigureError.vue'

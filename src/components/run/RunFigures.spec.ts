@@ -2,7 +2,7 @@
 import { afterEach, describe, expect, it } from 'vitest'
 import { flushPromises } from '@vue/test-utils'
 import { defineComponent, h } from 'vue'
-import type { ChannelFigures, FiguresOfMerit } from '@shared/simulation-result'
+import type { ChannelFigures, FiguresOfMerit } from '@shared/physics/simulation-result'
 import { mountWithApp } from '@/test-utils/mount'
 import RunFigures from './RunFigures.vue'
 

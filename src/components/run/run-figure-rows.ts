@@ -1,9 +1,9 @@
 // The rows of the run page's figures table: what each figure means, its unit, how it is written, and the
-// schemes it applies to (shared/pulse-roles.ts). Energy ratios are fractions, as in the sweep table, the
+// schemes it applies to (shared/physics/pulse-roles.ts). Energy ratios are fractions, as in the sweep table, the
 // CSV and the manifest.
-import type { RunScheme } from '@shared/pulse-roles'
-import type { ChannelFigures } from '@shared/simulation-result'
-import { FRACTION_UNIT } from '@shared/sweep-metrics'
+import type { RunScheme } from '@shared/physics/pulse-roles'
+import type { ChannelFigures } from '@shared/physics/simulation-result'
+import { FRACTION_UNIT } from '@shared/analysis/sweep-metrics'
 import { formatNumber, formatQuantity } from '@/components/charts/format-value'
 
 export interface FigureRow {

@@ -1,5 +1,5 @@
 // Small display rules shared by the run page, the runs list and the dashboard.
-import type { RunState, RunSummary } from '@shared/runs'
+import type { RunState, RunSummary } from '@shared/api/runs'
 
 export const STATUS_META: Record<RunState, { label: string; colour: string; icon: string }> = {
   queued: { label: 'Queued', colour: 'info', icon: 'mdi-timer-sand' },

@@ -1,7 +1,7 @@
 // What a run's maps will look like before any block arrives: the grid the solver picks (shared rule) and the
 // map decimation it applies, so live maps are drawn at their final size and axes from the start.
-import { chooseGrid } from '@shared/grid-step'
-import type { SimulationConfig } from '@shared/simulation-config'
+import { chooseGrid } from '@shared/physics/grid-step'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
 
 export interface MapFrame {
   rows: number

@@ -1,7 +1,7 @@
 // The three live space–time maps of one run, assembled from streamed row blocks. Blocks may arrive twice
 // (a reconnect replays from Last-Event-ID), out of order, or from an attempt that a lost worker left
 // behind; each of those must leave the maps as if only the current attempt's blocks had come, once each.
-import type { RunBlockEvent } from '@shared/runs'
+import type { RunBlockEvent } from '@shared/api/runs'
 
 export const MAP_KEYS = ['pumpPowerW', 'stokesPowerW', 'acousticPhononsPerM'] as const
 export type MapKey = (typeof MAP_KEYS)[number]

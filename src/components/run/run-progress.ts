@@ -2,9 +2,9 @@
 // run on the grid with twice the step, each taking its share of [0, 1] by cost in node-steps, as
 // solver/error-estimate-run.ts hands it out; the resource estimate counts both runs' node-steps. Past the
 // run's own share every map row is in, so the line says what the time is spent on instead of "512 of 512 map rows".
-import { chooseGrid } from '@shared/grid-step'
-import { estimateResources } from '@shared/resource-estimate'
-import { SimulationConfig } from '@shared/simulation-config'
+import { chooseGrid } from '@shared/physics/grid-step'
+import { estimateResources } from '@shared/physics/resource-estimate'
+import { SimulationConfig } from '@shared/physics/simulation-config'
 
 /** The run's own share of the progress fraction: 1 when there is no companion run. */
 export function mainRunShare(config: unknown): number {

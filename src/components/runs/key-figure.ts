@@ -1,5 +1,5 @@
-// The one number the runs list shows per run, as text; the choice of figure is the API's (shared/runs.ts).
-import type { KeyFigure } from '@shared/runs'
+// The one number the runs list shows per run, as text; the choice of figure is the API's (shared/api/runs.ts).
+import type { KeyFigure } from '@shared/api/runs'
 import { formatNumber } from '@/components/charts/format-value'
 
 export function keyFigureText(f: KeyFigure | null | undefined): { label: string; text: string } | null {

@@ -1,9 +1,9 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises } from '@vue/test-utils'
-import { WAVEGUIDE_PRESETS } from '@shared/waveguide-presets'
-import { Waveguide } from '@shared/waveguide'
-import type { SavedWaveguide } from '@shared/waveguides-api'
+import { WAVEGUIDE_PRESETS } from '@shared/physics/waveguide-presets'
+import { Waveguide } from '@shared/physics/waveguide'
+import type { SavedWaveguide } from '@shared/api/waveguides-api'
 import { fakeFetch, mountWithApp } from '@/test-utils/mount'
 import { useSessionStore } from '@/stores/session'
 import SimulationWaveguidePicker from './SimulationWaveguidePicker.vue'

@@ -1,6 +1,6 @@
 // Input power traces for the preview chart, from the same sampler the solver launches its inputs with.
-import { Pulse } from '@shared/pulse'
-import { sampleInput } from '@shared/pulse-envelope'
+import { Pulse } from '@shared/physics/pulse'
+import { sampleInput } from '@shared/physics/pulse-envelope'
 import type { PortDraft } from './pulse-drafts'
 
 /** Enough points to show a 200 ps pulse in a 10 ns window; the preview is a sketch, not the solver grid. */

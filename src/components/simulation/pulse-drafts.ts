@@ -1,6 +1,6 @@
 // Editing helpers for the pulses of one port: the form keeps schema *input* shapes (defaults may be absent).
 import type { z } from 'zod'
-import type { Pulse, PortInput, PulseShape } from '@shared/pulse'
+import type { Pulse, PortInput, PulseShape } from '@shared/physics/pulse'
 
 export type PulseDraft = z.input<typeof Pulse>
 export type PortDraft = z.input<typeof PortInput>

@@ -1,6 +1,6 @@
 // Built-in starting points for the form. Waveguides come from the shared presets; the runs are ours.
-import type { SimulationConfigInput } from '@shared/simulation-config'
-import { findWaveguidePreset } from '@shared/waveguide-presets'
+import type { SimulationConfigInput } from '@shared/physics/simulation-config'
+import { findWaveguidePreset } from '@shared/physics/waveguide-presets'
 
 export interface SimulationStart {
   id: string

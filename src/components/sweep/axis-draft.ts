@@ -1,6 +1,6 @@
 // The axis as the form holds it (strings while typed) and its conversion to the shared SweepAxis.
-import type { SweepAxis } from '@shared/sweeps'
-import type { SweepFieldId } from '@shared/sweep-fields'
+import type { SweepAxis } from '@shared/api/sweeps'
+import type { SweepFieldId } from '@shared/physics/sweep-fields'
 
 export interface AxisDraft {
   field: SweepFieldId

@@ -1,6 +1,6 @@
 // ECharts options for a sweep: 1-D = one line per chosen metric against the axis (one y-axis per unit),
 // 2-D = a heatmap of one metric over both axes. Points without a value yet are gaps, so the plot fills in.
-import { axisLabel, type MetricColumn, type SweepDetail } from '@shared/sweeps'
+import { axisLabel, type MetricColumn, type SweepDetail } from '@shared/api/sweeps'
 import { formatValue, unitSuffix } from './sweep-format'
 
 export type ImageType = 'png' | 'svg'

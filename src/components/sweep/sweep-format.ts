@@ -1,4 +1,4 @@
-import type { MetricColumn, SweepDetail } from '@shared/sweeps'
+import type { MetricColumn, SweepDetail } from '@shared/api/sweeps'
 
 /** Engineering-friendly number: 4 significant digits, exponent outside 1e-3…1e4. */
 export function formatValue(x: number | null | undefined): string {

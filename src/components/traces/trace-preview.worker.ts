@@ -1,7 +1,7 @@
 // Parses the chosen file for the upload dialog's preview off the page's main thread, with the same
 // parser the server runs, so a file of many megabytes does not freeze the page while it is read.
 import '@/zod-jitless'
-import { parseTraceFile, TraceParseError, type ParseOptions, type ParsedTable } from '@shared/trace-parse'
+import { parseTraceFile, TraceParseError, type ParseOptions, type ParsedTable } from '@shared/analysis/trace-parse'
 
 export interface PreviewRequest {
   seq: number

@@ -1,6 +1,6 @@
 // What the upload form shows about the time axis: the span of the time column in the unit the user
 // chose (or the file names), and the time between samples that unit implies, so a wrong unit shows at once.
-import { NS_PER_TIME_UNIT, TIME_UNIT_LABEL, TIME_UNITS, type TraceTimeUnit } from '@shared/traces'
+import { NS_PER_TIME_UNIT, TIME_UNIT_LABEL, TIME_UNITS, type TraceTimeUnit } from '@shared/api/traces'
 import { fmt } from './trace-format'
 
 /** First and last value of the time column, and the number of samples. */

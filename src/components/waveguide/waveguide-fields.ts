@@ -1,5 +1,5 @@
 // Which Waveguide fields the editor shows, in which group. Labels, units and help come from the schema.
-import { Waveguide, type WaveguideInput } from '@shared/waveguide'
+import { Waveguide, type WaveguideInput } from '@shared/physics/waveguide'
 
 export type WaveguideNumberKey = Exclude<keyof WaveguideInput, 'name'>
 

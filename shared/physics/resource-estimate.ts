@@ -1,0 +1,187 @@
+// What a run will cost before it starts: cells, steps, cell-updates, memory and expected time, and the
+// refusal of runs over the limits with the knob to turn. Cost model: docs/numerics.md (N_ch·N_z·N_t·N_real),
+// plus the error estimate's companion run on the grid with twice the step (about a quarter of the run).
+import { storageForkStep, storageReferenceStartNs } from './pulse-roles'
+import type { SimulationConfig } from './simulation-config'
+import { planCoarseRun } from './error-estimate-plan'
+import { MIN_TIME_STEP_PS } from './grid-limits'
+
+/** Grid counts as chosen by shared/physics/grid-step.ts. */
+export interface GridCounts {
+  dtS: number
+  nz: number
+  nt: number
+  /** From chooseGrid: the step the binding rule asked for and the field it depends on (for the step floor). */
+  binding?: { targetDtS: number; field: string; rule: string }
+}
+
+/**
+ * Throughput of the SVEA scheme on one core of the reference machine (cell-updates per second), from
+ * `npm run bench` on 2026-12-01 (benchmarks/README.md: 68–83 M/s idle, 12–30 M/s with the machine loaded);
+ * set between the two, since a worker shares its machine, so expected times err long. Slower options are
+ * expressed as factors of it.
+ */
+export const CELL_UPDATES_PER_S_SVEA = 40e6
+/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.20–0.31. */
+export const SPEED_FACTOR_HIGHER_ORDER = 0.25
+/** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark idle: 0.10–0.12. */
+export const SPEED_FACTOR_NOISE = 0.11
+/** Relative speed with Kerr phases (two complex rotations per cell); estimate. */
+export const SPEED_FACTOR_KERR = 0.8
+
+/**
+ * Bytes of solver state per cell and channel: pump, Stokes and acoustic envelopes plus their predictor copies,
+ * complex float64 (6 × 16 B), and ∂b/∂t with its copy when the higher-order term is on (2 × 16 B).
+ */
+export const STATE_BYTES_PER_CELL = 96
+export const STATE_BYTES_PER_CELL_HIGHER_ORDER = 32
+/** Full-resolution complex traces per channel: pump and Stokes in and out (4 × complex float64 per step). */
+export const TRACE_BYTES_PER_STEP = 4 * 16
+/** Pump power, Stokes power and acoustic energy maps, float32. */
+export const MAPS_PER_CHANNEL = 3
+export const MAP_BYTES_PER_PIXEL = 4
+
+export interface ResourceLimits {
+  maxCellUpdates: number
+  maxMemoryBytes: number
+}
+
+export const DEFAULT_RESOURCE_LIMITS: ResourceLimits = { maxCellUpdates: 2e10, maxMemoryBytes: 2 * 1024 ** 3 }
+
+/** Memory counts the run's own arrays, not the runtime (Node itself takes ~100 MiB RSS, benchmarks/README.md). */
+export interface ResourceEstimate {
+  channels: number
+  realisations: number
+  cells: number
+  steps: number
+  timeStepPs: number
+  /** Node-steps of the run and of its error-estimate companion together (the companion's share below). */
+  cellUpdates: number
+  /** The companion run on the grid with twice the step (shared/physics/error-estimate-plan.ts), or null with the reason. */
+  errorEstimate: { cells: number; steps: number; timeStepPs: number; cellUpdates: number } | null
+  errorEstimateSkipped: string | null
+  /** errorEstimate: the companion's own arrays, allocated while the run's are still held. */
+  memoryBytes: { state: number; maps: number; traces: number; errorEstimate: number; total: number }
+  /** Throughput assumed for this option set (cell-updates per second). */
+  cellUpdatesPerS: number
+  expectedSeconds: number
+  /** Inputs the refusal message needs to propose new values. */
+  windowNs: number
+  lengthM: number
+  maxTimeStepPs?: number
+  /** The step the binding rule asked for (ps) and the config field it depends on. */
+  stepBinding?: { targetPs: number; field: string; rule: string }
+}
+
+export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1): ResourceEstimate {
+  const channels = config.channels.length
+  const o = config.options
+  const main = runCost(config, grid, realisations)
+  const plan = planCoarseRun(config, grid)
+  const companion = plan.ok ? runCost(plan.config, plan.grid, realisations) : null
+  const cellUpdates = main.cellUpdates + (companion?.cellUpdates ?? 0)
+  const { state, maps, traces } = main
+  const errorEstimateBytes = companion ? companion.state + companion.maps + companion.traces : 0
+  const cellUpdatesPerS =
+    CELL_UPDATES_PER_S_SVEA *
+    (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
+    (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
+    (o.kerr ? SPEED_FACTOR_KERR : 1)
+  return {
+    channels,
+    realisations,
+    cells: grid.nz,
+    steps: grid.nt,
+    timeStepPs: grid.dtS * 1e12,
+    cellUpdates,
+    errorEstimate: plan.ok ? { cells: plan.grid.nz, steps: plan.grid.nt, timeStepPs: plan.grid.dtS * 1e12, cellUpdates: companion!.cellUpdates } : null,
+    errorEstimateSkipped: plan.ok ? null : plan.reason,
+    memoryBytes: { state, maps, traces, errorEstimate: errorEstimateBytes, total: state + maps + traces + errorEstimateBytes },
+    cellUpdatesPerS,
+    expectedSeconds: cellUpdates / cellUpdatesPerS,
+    windowNs: config.windowNs,
+    lengthM: config.waveguide.lengthM,
+    // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (docs/model.md, options).
+    maxTimeStepPs: o.higherOrderAcoustic ? 1000 / (20 * config.waveguide.brillouinShiftGHz) : undefined,
+    stepBinding: grid.binding ? { targetPs: grid.binding.targetDtS * 1e12, field: grid.binding.field, rule: grid.binding.rule } : undefined,
+  }
+}
+
+/** Node-steps and arrays of one run on one grid. */
+function runCost(config: SimulationConfig, grid: GridCounts, realisations: number) {
+  const channels = config.channels.length
+  // Counted like the solver's own counter: every node (nz + 1) at every time sample (nt + 1).
+  const nodes = grid.nz + 1
+  const samples = grid.nt + 1
+  const stateBytesPerCell = STATE_BYTES_PER_CELL + (config.options.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
+  // A storage run also integrates its reference without the read pulse from the read pulse's arrival on,
+  // with traces of its own (solver/storage-reference.ts).
+  const startNs = storageReferenceStartNs(config)
+  const referenceSamples = startNs === null ? 0 : Math.max(0, samples - storageForkStep(startNs, grid.dtS))
+  const referenceTraces = startNs === null ? 0 : channels * samples * TRACE_BYTES_PER_STEP
+  return {
+    cellUpdates: channels * realisations * nodes * (samples + referenceSamples),
+    state: channels * nodes * stateBytesPerCell * (startNs === null ? 1 : 2),
+    maps: channels * MAPS_PER_CHANNEL * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL,
+    // Axes (t and z, float64) count with the traces.
+    traces: channels * samples * TRACE_BYTES_PER_STEP + referenceTraces + 8 * (samples + nodes),
+  }
+}
+
+/** fields: the config fields to change, when one can be named. */
+export type LimitCheck = { ok: true } | { ok: false; message: string; reasons: string[]; fields?: Array<{ path: string; message: string }> }
+
+const sig = (x: number) => x.toPrecision(3)
+const gib = (bytes: number) => `${sig(bytes / 1024 ** 3)} GiB`
+
+/**
+ * A grid the solver cannot take: a step below MIN_TIME_STEP_PS, or counts that overflowed (an extreme input
+ * makes a rule ask for Δt → 0, and N_z, N_t → ∞). Refused on the field the binding rule depends on.
+ */
+function checkStepFloor(e: ResourceEstimate): LimitCheck | null {
+  const targetPs = e.stepBinding?.targetPs ?? e.timeStepPs
+  // A relative margin: a window at its minimum asks for exactly the floor, give or take rounding.
+  const belowFloor = !(targetPs >= MIN_TIME_STEP_PS * (1 - 1e-9))
+  const counts = [e.cells, e.steps, e.timeStepPs, e.cellUpdates, e.expectedSeconds, e.memoryBytes.total]
+  if (!belowFloor && counts.every(Number.isFinite)) return null
+  const rule = e.stepBinding ? ` (${e.stepBinding.rule})` : ''
+  const message = `The step rules ask for a time step of ${sig(targetPs)} ps${rule}, below the smallest step the solver takes, ${MIN_TIME_STEP_PS} ps; change this value`
+  return { ok: false, message, reasons: [message], fields: [{ path: e.stepBinding?.field ?? 'grid.timeStepPs', message }] }
+}
+
+/** Refuses an estimate over the limits; the message says which knob to turn and by how much. */
+export function checkLimits(e: ResourceEstimate, limits: ResourceLimits = DEFAULT_RESOURCE_LIMITS): LimitCheck {
+  const floor = checkStepFloor(e)
+  if (floor) return floor
+  const reasons: string[] = []
+  if (e.cellUpdates > limits.maxCellUpdates) {
+    const f = e.cellUpdates / limits.maxCellUpdates
+    // Cost ∝ N_ch · L · T_window / Δt² (N_z ∝ L/Δt, N_t ∝ T/Δt).
+    const knobs = [`shorten the window from ${sig(e.windowNs)} ns to ≤ ${sig(e.windowNs / f)} ns`]
+    const coarserPs = e.timeStepPs * Math.sqrt(f)
+    if (e.maxTimeStepPs === undefined || coarserPs <= e.maxTimeStepPs) {
+      knobs.push(`use a coarser time step, ≥ ${sig(coarserPs)} ps instead of ${sig(e.timeStepPs)} ps`)
+    }
+    knobs.push(`use a shorter waveguide, ≤ ${sig(e.lengthM / f)} m instead of ${sig(e.lengthM)} m`)
+    const fewer = Math.floor(e.channels / f)
+    if (fewer >= 1 && fewer < e.channels) knobs.push(`use ${fewer} channel${fewer > 1 ? 's' : ''} instead of ${e.channels}`)
+    const companion = e.errorEstimate?.cellUpdates ?? 0
+    if (companion > 0 && e.cellUpdates - companion <= limits.maxCellUpdates) knobs.push('switch off the error estimate in the run settings')
+    reasons.push(
+      `The run needs ${sig(e.cellUpdates)} cell-updates (${e.channels} channel(s) × ${e.cells} cells × ${e.steps} steps` +
+        `${e.realisations > 1 ? ` × ${e.realisations} realisations` : ''}${companion > 0 ? `, plus ${sig(companion)} for the error estimate on the grid with twice the step` : ''}), ` +
+        `over the limit of ${sig(limits.maxCellUpdates)}: ${knobs.join('; or ')}.`,
+    )
+  }
+  const m = e.memoryBytes
+  if (m.total > limits.maxMemoryBytes) {
+    const largest = m.traces >= m.state && m.traces >= m.maps ? 'traces' : m.state >= m.maps ? 'state' : 'maps'
+    const knob = {
+      traces: 'the full-resolution traces dominate: shorten the window or use a coarser time step',
+      state: 'the grid state dominates: use a shorter waveguide or a coarser time step',
+      maps: 'the space–time maps dominate: keep fewer map rows and columns',
+    }[largest]
+    reasons.push(`The run needs about ${gib(m.total)} of memory, over the limit of ${gib(limits.maxMemoryBytes)}; ${knob}.`)
+  }
+  return reasons.length === 0 ? { ok: true } : { ok: false, message: reasons.join(' '), reasons }
+}

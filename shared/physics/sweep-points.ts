@@ -1,0 +1,104 @@
+// A sweep's points: the base configuration with each combination of axis values applied, validated one by
+// one, and the resource estimate of the whole sweep with its limit check.
+import { chooseGrid } from './grid-step'
+import { describeIssuePath } from '../api/issue-path-labels'
+import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from './resource-estimate'
+import { SimulationConfig } from './simulation-config'
+import { applySweepValue, fieldProblem } from './sweep-fields'
+import { axisLabel, axisValues, MAX_SWEEP_POINTS, type SweepDefinition, type SweepEstimate } from '../api/sweeps'
+
+export interface BuiltPoint {
+  index: number
+  values: number[]
+  config: SimulationConfig
+}
+
+export interface PointIssue {
+  path: string
+  message: string
+}
+
+export type BuiltSweep = { ok: true; points: BuiltPoint[]; axisValues: number[][] } | { ok: false; issues: PointIssue[] }
+
+/** Stop listing bad points after this many; the first few say what is wrong. */
+const MAX_REPORTED_POINTS = 5
+
+/** Point index = i0 · n1 + i1 (axis 0 varies slowest: rows of the heatmap). */
+export function buildSweepPoints(def: SweepDefinition): BuiltSweep {
+  const issues: PointIssue[] = []
+  def.axes.forEach((a, i) => {
+    const problem = fieldProblem(def.baseConfig, a.field, a.pulseLabel)
+    if (problem) issues.push({ path: `axes.${i}.${a.pulseLabel ? 'pulseLabel' : 'field'}`, message: problem })
+  })
+  if (issues.length) return { ok: false, issues }
+  const values = def.axes.map((a) => axisValues(a.values))
+  const n1 = values[1]?.length ?? 1
+  const total = values[0].length * n1
+  const points: BuiltPoint[] = []
+  for (let index = 0; index < total; index++) {
+    const at = values.length === 2 ? [values[0][Math.floor(index / n1)], values[1][index % n1]] : [values[0][index]]
+    let config: SimulationConfig = def.baseConfig
+    def.axes.forEach((a, i) => (config = applySweepValue(config, a.field, at[i], a.pulseLabel)))
+    const parsed = SimulationConfig.safeParse(config)
+    if (!parsed.success) {
+      if (issues.length < MAX_REPORTED_POINTS) {
+        const where = def.axes.map((a, i) => `${axisLabel(a)} = ${at[i]}`).join(', ')
+        const first = parsed.error.issues[0]
+        issues.push({ path: 'axes', message: `Point ${index} (${where}) is not a valid run: ${describeIssuePath(first.path, def.baseConfig.channels.length)}: ${first.message}` })
+      }
+      continue
+    }
+    points.push({ index, values: at, config: parsed.data })
+  }
+  return issues.length ? { ok: false, issues } : { ok: true, points, axisValues: values }
+}
+
+export interface SweepLimits {
+  /** Summed over every point: what one sweep may ask of the shared workers. Ten full-size runs. */
+  maxTotalCellUpdates: number
+  /** Each point is a run and obeys the run limits. */
+  run: ResourceLimits
+  maxPoints: number
+}
+
+export const DEFAULT_SWEEP_LIMITS: SweepLimits = {
+  maxTotalCellUpdates: 10 * DEFAULT_RESOURCE_LIMITS.maxCellUpdates,
+  run: DEFAULT_RESOURCE_LIMITS,
+  maxPoints: MAX_SWEEP_POINTS,
+}
+
+export function estimateSweep(points: BuiltPoint[]): { total: SweepEstimate; perPoint: ReturnType<typeof estimateResources>[] } {
+  const perPoint = points.map((p) => estimateResources(p.config, chooseGrid(p.config)))
+  return {
+    perPoint,
+    total: {
+      points: points.length,
+      cellUpdates: perPoint.reduce((s, e) => s + e.cellUpdates, 0),
+      expectedSeconds: perPoint.reduce((s, e) => s + e.expectedSeconds, 0),
+      maxMemoryBytes: perPoint.reduce((m, e) => Math.max(m, e.memoryBytes.total), 0),
+    },
+  }
+}
+
+const sig = (x: number) => x.toPrecision(3)
+
+export type SweepLimitCheck = { ok: true } | { ok: false; message: string; reasons: string[] }
+
+/** Refuses a sweep whose total, or any one point, is over the limits; the message names limit and total. */
+export function checkSweepLimits(points: BuiltPoint[], limits: SweepLimits = DEFAULT_SWEEP_LIMITS): SweepLimitCheck {
+  const { total, perPoint } = estimateSweep(points)
+  const reasons: string[] = []
+  if (total.cellUpdates > limits.maxTotalCellUpdates) {
+    const f = total.cellUpdates / limits.maxTotalCellUpdates
+    reasons.push(
+      `The sweep needs ${sig(total.cellUpdates)} cell-updates in total over ${total.points} points, over the sweep limit of ` +
+        `${sig(limits.maxTotalCellUpdates)}: use at most ${Math.max(1, Math.floor(total.points / f))} points, or make each run about ${sig(f)}× smaller (shorter window or coarser time step).`,
+    )
+  }
+  const over = perPoint.map((e, i) => ({ i, check: checkLimits(e, limits.run) })).filter((x) => !x.check.ok)
+  if (over.length) {
+    const first = over[0].check as { message: string }
+    reasons.push(`${over.length} of the ${total.points} points are over the run limits; point ${points[over[0].i].index}: ${first.message}`)
+  }
+  return reasons.length ? { ok: false, message: reasons.join(' '), reasons } : { ok: true }
+}
