@@ -64,145 +64,211 @@ function param(name: FitParameterValue['name'], value: number, sigma: number | n
   return { name, value, uncertainty: sigma, initial, min, max, atBound }
 }
 
-export function runFit(inputs: FitInputs, hooks: FitHooks = {}): FitResult {
-  const { request: req, config, measured } = inputs
+/** The measured samples inside the fit window. */
+function fitWindow(req: FitRequest, measured: Series) {
   const window = defaultWindow(req, measured)
   const idx = windowIndices(measured.timeNs, window.startNs, window.endNs)
   if (idx.length < 8) throw new Error(`The fit window ${window.startNs}–${window.endNs} ns holds ${idx.length} measured samples; at least 8 are needed`)
-  const y = Float64Array.from(idx, (i) => measured.values[i])
-  const variants = req.higherOrder === 'compare' ? [false, true] : req.higherOrder === 'asRun' ? [config.options.higherOrderAcoustic] : [req.higherOrder === 'on']
-  const freed = PHYSICAL_FIT_PARAMETERS.filter((p) => req.free[p] !== undefined)
-  const base = baseValues(config)
+  return { window, idx, y: Float64Array.from(idx, (i) => measured.values[i]) }
+}
 
-  // Budget for progress: per variant one start, per iteration 1 + |θ| evaluations, and 2|θ| at the end.
-  const perVariant = freed.length === 0 ? 1 : 1 + req.maxIterations * (1 + freed.length) + 2 * freed.length
-  const budget = variants.length * perVariant
-  let evaluations = 0
-  const tick = (what: string) => {
-    if (hooks.shouldAbort?.()) throw new FitAborted('The fit was stopped')
-    evaluations++
-    hooks.onProgress?.(Math.min(0.99, evaluations / budget), `Model evaluation ${evaluations} of at most ${budget} (${what})`)
+/** Counts model evaluations against the run's budget, reports progress and honours a stop. */
+function evaluationCounter(budget: number, hooks: FitHooks) {
+  const counter = {
+    count: 0,
+    tick(what: string) {
+      if (hooks.shouldAbort?.()) throw new FitAborted('The fit was stopped')
+      counter.count++
+      hooks.onProgress?.(Math.min(0.99, counter.count / budget), `Model evaluation ${counter.count} of at most ${budget} (${what})`)
+    },
   }
+  return counter
+}
 
-  const models: FitModelResult[] = variants.map((higherOrder) => {
-    const label = higherOrder ? 'higher-order term on' : 'higher-order term off'
-    const evaluationsBefore = evaluations
-    const stepPs = pinnedStepPs(config, higherOrder)
-    const cache = new Map<string, Series>()
-    const modelAt = (values: PhysicalValues): Series => {
-      const key = JSON.stringify(freed.map((p) => values[p]))
-      const hit = cache.get(key)
-      if (hit) return hit
-      let series: Series
-      if (inputs.runModel && higherOrder === config.options.higherOrderAcoustic && freed.every((p) => values[p] === base[p])) series = inputs.runModel
-      else {
-        tick(label)
-        series = evaluateModel(variantConfig(config, values, higherOrder, stepPs), req.port, req.channel)
-      }
-      if (cache.size >= CACHE_SIZE) cache.delete(cache.keys().next().value!)
-      cache.set(key, series)
-      return series
-    }
+interface VariantContext {
+  inputs: FitInputs
+  freed: PhysicalFitParameter[]
+  base: ReturnType<typeof baseValues>
+  window: { startNs: number; endNs: number }
+  idx: number[]
+  y: Float64Array
+  counter: ReturnType<typeof evaluationCounter>
+}
 
-    const start = modelAt(base)
-    const aligned = alignClosedForm(measured, start, { ...window, offsetMinNs: req.timeOffsetNs.min, offsetMaxNs: req.timeOffsetNs.max })
-    if (freed.length === 0) {
-      const m = shiftedModel(start, measured.timeNs, idx, aligned.offsetNs)
-      return {
-        higherOrderAcoustic: higherOrder,
-        parameters: [
-          param('timeOffsetNs', aligned.offsetNs, aligned.offsetUncertaintyNs, aligned.offsetNs, req.timeOffsetNs.min, req.timeOffsetNs.max),
-          param('scale', aligned.scale, aligned.scaleUncertainty, aligned.scale, null, null),
-        ],
-        residualNorm: Math.sqrt(aligned.ssr),
-        rmsResidual: Math.sqrt(aligned.ssr / idx.length),
-        points: idx.length,
-        freeParameters: 2,
-        aic: aligned.aic,
-        bic: aligned.bic,
-        evaluations: evaluations - evaluationsBefore,
-        iterations: 0,
-        curve: curveOf(measured, idx, m, aligned.scale),
-      }
+/** The model output for physical values θ of one variant, cached (LM revisits the last few θ); the run's own output when θ is the run's. */
+function cachedModel(c: VariantContext, higherOrder: boolean): (values: PhysicalValues) => Series {
+  const { inputs, freed, base } = c
+  const { request: req, config } = inputs
+  const label = higherOrder ? 'higher-order term on' : 'higher-order term off'
+  const stepPs = pinnedStepPs(config, higherOrder)
+  const cache = new Map<string, Series>()
+  return (values) => {
+    const key = JSON.stringify(freed.map((p) => values[p]))
+    const hit = cache.get(key)
+    if (hit) return hit
+    let series: Series
+    if (inputs.runModel && higherOrder === config.options.higherOrderAcoustic && freed.every((p) => values[p] === base[p])) series = inputs.runModel
+    else {
+      c.counter.tick(label)
+      series = evaluateModel(variantConfig(config, values, higherOrder, stepPs), req.port, req.channel)
     }
+    if (cache.size >= CACHE_SIZE) cache.delete(cache.keys().next().value!)
+    cache.set(key, series)
+    return series
+  }
+}
 
-    // Scaled parameter vector: [t₀ (ns), s/s₀, θ_k/θ_k0 or Δ/Δν₀].
-    const s0 = aligned.scale !== 0 ? aligned.scale : 1
-    const unit = (p: PhysicalFitParameter) => (p === 'detuningMHz' ? base.linewidthMHz : base[p])
-    const toPhysical = (x: number[]): PhysicalValues => Object.fromEntries(freed.map((p, k) => [p, x[2 + k] * unit(p)]))
-    const yScale = Math.max(1e-300, ...y.map(Math.abs))
-    const yNorm = Float64Array.from(y, (v) => v / yScale)
-    const xIndex = Float64Array.from(idx, (_, k) => k)
-    const parameterized = (x: number[]) => {
-      const m = shiftedModel(modelAt(toPhysical(x)), measured.timeNs, idx, x[0])
-      const s = (x[1] * s0) / yScale
-      return (k: number) => s * m[k]
-    }
-    const initial = [aligned.offsetNs, 1, ...freed.map((p) => base[p] / unit(p))]
-    const mins = [req.timeOffsetNs.min, -Infinity, ...freed.map((p) => req.free[p]!.min / unit(p))]
-    const maxs = [req.timeOffsetNs.max, Infinity, ...freed.map((p) => req.free[p]!.max / unit(p))]
-    for (let k = 2; k < initial.length; k++) initial[k] = Math.min(maxs[k], Math.max(mins[k], initial[k]))
-    const dtModel = medianStep(start.timeNs)
-    const lm = levenbergMarquardt({ x: xIndex, y: yNorm }, parameterized, {
-      initialValues: initial,
-      minValues: mins,
-      maxValues: maxs,
-      gradientDifference: [dtModel / 2, 1e-4, ...freed.map(() => PHYS_STEP)],
-      damping: 1e-2,
-      maxIterations: req.maxIterations,
-      errorTolerance: 1e-12 * idx.length,
-    })
-    const x = lm.parameterValues
-    const best = modelAt(toPhysical(x))
-    const offsetNs = x[0]
-    const scale = x[1] * s0
-    const m = shiftedModel(best, measured.timeNs, idx, offsetNs)
-    let ssr = 0
-    for (let k = 0; k < idx.length; k++) ssr += (y[k] - scale * m[k]) ** 2
+type Alignment = ReturnType<typeof alignClosedForm>
 
-    // Jacobian of the residual in physical units, by central differences.
-    const columns: Float64Array[] = []
-    const hT = dtModel / 2
-    const mA = shiftedModel(best, measured.timeNs, idx, offsetNs - hT)
-    const mB = shiftedModel(best, measured.timeNs, idx, offsetNs + hT)
-    columns.push(Float64Array.from(m, (_, k) => (scale * (mA[k] - mB[k])) / (2 * hT)))
-    columns.push(Float64Array.from(m, (v) => -v))
-    freed.forEach((p, k) => {
-      const h = PHYS_STEP * Math.max(Math.abs(x[2 + k]), 1e-3)
-      const up = [...x]
-      const down = [...x]
-      up[2 + k] += h
-      down[2 + k] -= h
-      const mu = shiftedModel(modelAt(toPhysical(up)), measured.timeNs, idx, offsetNs)
-      const md = shiftedModel(modelAt(toPhysical(down)), measured.timeNs, idx, offsetNs)
-      columns.push(Float64Array.from(m, (_, i) => (-scale * (mu[i] - md[i])) / (2 * h * unit(p))))
-    })
-    const sigmas = parameterSigmas(columns, ssr, idx.length)
-    const k = 2 + freed.length
-    const physical = toPhysical(x)
-    return {
-      higherOrderAcoustic: higherOrder,
-      parameters: [
-        param('timeOffsetNs', offsetNs, sigmas[0], aligned.offsetNs, req.timeOffsetNs.min, req.timeOffsetNs.max),
-        param('scale', scale, sigmas[1], aligned.scale, null, null),
-        ...freed.map((p, j) => param(p, physical[p]!, sigmas[2 + j], base[p], req.free[p]!.min, req.free[p]!.max)),
-      ],
-      residualNorm: Math.sqrt(ssr),
-      rmsResidual: Math.sqrt(ssr / idx.length),
-      points: idx.length,
-      freeParameters: k,
-      ...informationCriteria(ssr, idx.length, k),
-      evaluations: evaluations - evaluationsBefore,
-      iterations: lm.iterations,
-      curve: curveOf(measured, idx, m, scale),
-    }
+/** No physics freed: offset and scale in closed form are the fit. */
+function closedFormResult(c: VariantContext, higherOrder: boolean, start: Series, aligned: Alignment, evaluationsBefore: number): FitModelResult {
+  const { inputs, idx } = c
+  const req = inputs.request
+  const m = shiftedModel(start, inputs.measured.timeNs, idx, aligned.offsetNs)
+  return {
+    higherOrderAcoustic: higherOrder,
+    parameters: [
+      param('timeOffsetNs', aligned.offsetNs, aligned.offsetUncertaintyNs, aligned.offsetNs, req.timeOffsetNs.min, req.timeOffsetNs.max),
+      param('scale', aligned.scale, aligned.scaleUncertainty, aligned.scale, null, null),
+    ],
+    residualNorm: Math.sqrt(aligned.ssr),
+    rmsResidual: Math.sqrt(aligned.ssr / idx.length),
+    points: idx.length,
+    freeParameters: 2,
+    aic: aligned.aic,
+    bic: aligned.bic,
+    evaluations: c.counter.count - evaluationsBefore,
+    iterations: 0,
+    curve: curveOf(inputs.measured, idx, m, aligned.scale),
+  }
+}
+
+/** Jacobian columns of the residual in physical units at the optimum x, by central differences. */
+function jacobianColumns(
+  c: VariantContext,
+  modelAt: (values: PhysicalValues) => Series,
+  toPhysical: (x: number[]) => PhysicalValues,
+  unit: (p: PhysicalFitParameter) => number,
+  x: number[],
+  best: Series,
+  m: Float64Array,
+  dtModel: number,
+): Float64Array[] {
+  const { measured } = c.inputs
+  const offsetNs = x[0]
+  const scale = x[1]
+  const columns: Float64Array[] = []
+  const hT = dtModel / 2
+  const mA = shiftedModel(best, measured.timeNs, c.idx, offsetNs - hT)
+  const mB = shiftedModel(best, measured.timeNs, c.idx, offsetNs + hT)
+  columns.push(Float64Array.from(m, (_, k) => (scale * (mA[k] - mB[k])) / (2 * hT)))
+  columns.push(Float64Array.from(m, (v) => -v))
+  c.freed.forEach((p, k) => {
+    const h = PHYS_STEP * Math.max(Math.abs(x[2 + k]), 1e-3)
+    const up = [...x]
+    const down = [...x]
+    up[2 + k] += h
+    down[2 + k] -= h
+    const mu = shiftedModel(modelAt(toPhysical(up)), measured.timeNs, c.idx, offsetNs)
+    const md = shiftedModel(modelAt(toPhysical(down)), measured.timeNs, c.idx, offsetNs)
+    columns.push(Float64Array.from(m, (_, i) => (-scale * (mu[i] - md[i])) / (2 * h * unit(p))))
   })
+  return columns
+}
 
+/** Physics freed: Levenberg–Marquardt over [t₀, s, θ] from the closed-form alignment, then 1σ from the Jacobian. */
+function levenbergMarquardtResult(c: VariantContext, higherOrder: boolean, modelAt: (values: PhysicalValues) => Series, start: Series, aligned: Alignment, evaluationsBefore: number): FitModelResult {
+  const { inputs, freed, base, idx, y } = c
+  const { request: req, measured } = inputs
+  // Scaled parameter vector: [t₀ (ns), s/s₀, θ_k/θ_k0 or Δ/Δν₀].
+  const s0 = aligned.scale !== 0 ? aligned.scale : 1
+  const unit = (p: PhysicalFitParameter) => (p === 'detuningMHz' ? base.linewidthMHz : base[p])
+  const toPhysical = (x: number[]): PhysicalValues => Object.fromEntries(freed.map((p, k) => [p, x[2 + k] * unit(p)]))
+  const yScale = Math.max(1e-300, ...y.map(Math.abs))
+  const yNorm = Float64Array.from(y, (v) => v / yScale)
+  const xIndex = Float64Array.from(idx, (_, k) => k)
+  const parameterized = (x: number[]) => {
+    const m = shiftedModel(modelAt(toPhysical(x)), measured.timeNs, idx, x[0])
+    const s = (x[1] * s0) / yScale
+    return (k: number) => s * m[k]
+  }
+  const initial = [aligned.offsetNs, 1, ...freed.map((p) => base[p] / unit(p))]
+  const mins = [req.timeOffsetNs.min, -Infinity, ...freed.map((p) => req.free[p]!.min / unit(p))]
+  const maxs = [req.timeOffsetNs.max, Infinity, ...freed.map((p) => req.free[p]!.max / unit(p))]
+  for (let k = 2; k < initial.length; k++) initial[k] = Math.min(maxs[k], Math.max(mins[k], initial[k]))
+  const dtModel = medianStep(start.timeNs)
+  const lm = levenbergMarquardt({ x: xIndex, y: yNorm }, parameterized, {
+    initialValues: initial,
+    minValues: mins,
+    maxValues: maxs,
+    gradientDifference: [dtModel / 2, 1e-4, ...freed.map(() => PHYS_STEP)],
+    damping: 1e-2,
+    maxIterations: req.maxIterations,
+    errorTolerance: 1e-12 * idx.length,
+  })
+  const x = lm.parameterValues
+  const best = modelAt(toPhysical(x))
+  const offsetNs = x[0]
+  const scale = x[1] * s0
+  const m = shiftedModel(best, measured.timeNs, idx, offsetNs)
+  let ssr = 0
+  for (let k = 0; k < idx.length; k++) ssr += (y[k] - scale * m[k]) ** 2
+
+  const columns = jacobianColumns(c, modelAt, toPhysical, unit, [offsetNs, scale, ...x.slice(2)], best, m, dtModel)
+  const sigmas = parameterSigmas(columns, ssr, idx.length)
+  const k = 2 + freed.length
+  const physical = toPhysical(x)
+  return {
+    higherOrderAcoustic: higherOrder,
+    parameters: [
+      param('timeOffsetNs', offsetNs, sigmas[0], aligned.offsetNs, req.timeOffsetNs.min, req.timeOffsetNs.max),
+      param('scale', scale, sigmas[1], aligned.scale, null, null),
+      ...freed.map((p, j) => param(p, physical[p]!, sigmas[2 + j], base[p], req.free[p]!.min, req.free[p]!.max)),
+    ],
+    residualNorm: Math.sqrt(ssr),
+    rmsResidual: Math.sqrt(ssr / idx.length),
+    points: idx.length,
+    freeParameters: k,
+    ...informationCriteria(ssr, idx.length, k),
+    evaluations: c.counter.count - evaluationsBefore,
+    iterations: lm.iterations,
+    curve: curveOf(measured, idx, m, scale),
+  }
+}
+
+/** One model variant (higher-order term on or off): start at the run's θ, align, then fit. */
+function fitVariant(c: VariantContext, higherOrder: boolean): FitModelResult {
+  const { inputs, window } = c
+  const req = inputs.request
+  const evaluationsBefore = c.counter.count
+  const modelAt = cachedModel(c, higherOrder)
+  const start = modelAt(c.base)
+  const aligned = alignClosedForm(inputs.measured, start, { ...window, offsetMinNs: req.timeOffsetNs.min, offsetMaxNs: req.timeOffsetNs.max })
+  if (c.freed.length === 0) return closedFormResult(c, higherOrder, start, aligned, evaluationsBefore)
+  return levenbergMarquardtResult(c, higherOrder, modelAt, start, aligned, evaluationsBefore)
+}
+
+/** The preferred model (lowest BIC) and, when both variants ran, their differences. */
+function compareModels(models: FitModelResult[]) {
   let preferred = 0
   models.forEach((m, i) => (m.bic < models[preferred].bic ? (preferred = i) : undefined))
   const on = models.find((m) => m.higherOrderAcoustic)
   const off = models.find((m) => !m.higherOrderAcoustic)
   const comparison = on && off ? { deltaAic: on.aic - off.aic, deltaBic: on.bic - off.bic, deltaResidualNorm: on.residualNorm - off.residualNorm } : null
-  hooks.onProgress?.(1, `Done after ${evaluations} model evaluations`)
+  return { preferred, comparison }
+}
+
+export function runFit(inputs: FitInputs, hooks: FitHooks = {}): FitResult {
+  const { request: req, config, measured } = inputs
+  const { window, idx, y } = fitWindow(req, measured)
+  const variants = req.higherOrder === 'compare' ? [false, true] : req.higherOrder === 'asRun' ? [config.options.higherOrderAcoustic] : [req.higherOrder === 'on']
+  const freed = PHYSICAL_FIT_PARAMETERS.filter((p) => req.free[p] !== undefined)
+  // Budget for progress: per variant one start, per iteration 1 + |θ| evaluations, and 2|θ| at the end.
+  const perVariant = freed.length === 0 ? 1 : 1 + req.maxIterations * (1 + freed.length) + 2 * freed.length
+  const counter = evaluationCounter(variants.length * perVariant, hooks)
+  const context: VariantContext = { inputs, freed, base: baseValues(config), window, idx, y, counter }
+  const models = variants.map((higherOrder) => fitVariant(context, higherOrder))
+  const { preferred, comparison } = compareModels(models)
+  hooks.onProgress?.(1, `Done after ${counter.count} model evaluations`)
   return { method: freed.length === 0 ? 'closedForm' : 'levenbergMarquardt', signalUnit: inputs.signalUnit, window, models, preferred, comparison }
 }
