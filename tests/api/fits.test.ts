@@ -217,7 +217,8 @@ describe('the watchdog', () => {
     expect(fit.error).toBeNull()
     expect(fit.status).toBe('succeeded')
     expect((await pool.query(`select attempt from fits where id = $1`, [id])).rows[0].attempt).toBe(2)
-    expect(await jobState(jobId)).toBe('completed')
+    // The queue marks the job completed only once the handler has returned, just after the fit row is written.
+    expect(await waitFor('the job to be completed', async () => (await jobState(jobId)) === 'completed' && 'completed')).toBe('completed')
   })
 
   it('fails a fit with the reason once its tries are spent', async () => {
