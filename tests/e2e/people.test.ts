@@ -55,7 +55,9 @@ describe('links to a group’s run', () => {
     await dialog.getByLabel('Anyone who has the link, no account needed').check()
     await dialog.getByRole('button', { name: 'Make link' }).click()
     await dialog.locator('[data-test=share-who]', { hasText: 'without an account' }).waitFor()
-    publicLink = await dialog.locator('[data-test=share-url] input').inputValue()
+    // The text field takes its new value a render after the sentence: wait for it rather than read it once.
+    const urlInput = dialog.locator('[data-test=share-url] input')
+    for (let tries = 0; (publicLink = await urlInput.inputValue()) === membersLink && tries < 100; tries++) await editor.waitForTimeout(100)
     expect(publicLink).not.toBe(membersLink)
     expect(new URL(membersLink).pathname).toBe(`/runs/${runId}`)
   })
