@@ -1,9 +1,11 @@
 import { z } from 'zod'
 import { Waveguide } from './waveguide'
 import { PortInput, type Pulse } from './pulse'
+import { waveSetIssues } from './wave-set-rules'
 import { truncationMessage } from './pulse-truncation'
 import { MIN_TIME_STEP_PS, MIN_WINDOW_NS, MIN_WINDOW_STEPS } from './grid-limits'
 import { safeText } from '../api/text'
+import { CascadeSettings } from './resonances'
 
 const finite = () => z.number().finite()
 
@@ -11,6 +13,13 @@ export const PORTS = ['pumpIn', 'stokesIn', 'pumpOut', 'stokesOut'] as const
 /** pumpIn/pumpOut: z = 0 / z = L for the forward wave; stokesIn/stokesOut: z = L / z = 0 for the backward wave. */
 export const Port = z.enum(PORTS)
 export type Port = z.infer<typeof Port>
+
+/** What is launched at z = 0 into the forward Stokes (ν_p − ν_F) and anti-Stokes (ν_p + ν_F) waves of one forward resonance. */
+export const ForwardInputs = z.object({
+  stokes: PortInput.default({ pulses: [], backgroundPowerW: 0 }).describe('Forward Stokes wave, ν_p − ν_F, launched at z = 0'),
+  antiStokes: PortInput.default({ pulses: [], backgroundPowerW: 0 }).describe('Forward anti-Stokes wave, ν_p + ν_F, launched at z = 0'),
+})
+export type ForwardInputs = z.infer<typeof ForwardInputs>
 
 /**
  * One pump–Stokes pair with its own acoustic grating. Channel 1 is the reference (offsetGHz = 0);
@@ -21,6 +30,12 @@ export const Channel = z.object({
   offsetGHz: finite().min(-1e4).max(1e4).default(0).describe('Carrier offset from channel 1, same for pump and Stokes (GHz)'),
   pump: PortInput.default({ pulses: [], backgroundPowerW: 0 }).describe('Forward wave, launched at z = 0'),
   stokes: PortInput.default({ pulses: [], backgroundPowerW: 0 }).describe('Backward wave, launched at z = L'),
+  coProbe: PortInput.optional().describe('Probe at the Stokes frequency launched at z = 0 with the pump (co-propagating): sees no backward gain'),
+  forwardInputs: z
+    .array(ForwardInputs)
+    .max(3)
+    .default([])
+    .describe('Inputs of the forward Stokes and anti-Stokes waves, one entry per forward resonance of the waveguide'),
 })
 export type Channel = z.infer<typeof Channel>
 
@@ -49,6 +64,8 @@ export const SimulationOptions = z.object({
   kerr: z.boolean().default(false).describe('Self- and cross-phase modulation from n₂'),
   acousticAdvection: z.boolean().default(false).describe('Sound travels along z at v_A'),
   noise: NoiseSettings.default({ enabled: false, temperatureK: 295, seed: 1, zeroPoint: false }),
+  cascade: CascadeSettings.default({ stokesOrders: 1, seedPowerW: 0 }),
+  forwardAntiStokes: z.boolean().default(true).describe('Include the forward anti-Stokes wave of each forward resonance'),
   errorEstimate: z.boolean().default(true).describe('Repeat the run on the grid with twice the time step (+25 % compute) to estimate each figure’s numerical error'),
   /** Replaces ω_p/ω_s in the pump equation; for checking photon bookkeeping only. */
   frequencyRatioOverride: finite().min(0.1).max(10).optional(),
@@ -102,6 +119,8 @@ export const SimulationConfigBase = z.object({
     kerr: false,
     acousticAdvection: false,
     noise: { enabled: false, temperatureK: 295, seed: 1, zeroPoint: false },
+    cascade: { stokesOrders: 1, seedPowerW: 0 },
+    forwardAntiStokes: true,
     errorEstimate: true,
   }),
   energyWindows: z.array(EnergyWindow).max(50).default([]),
@@ -122,21 +141,28 @@ export function pulseFeatureNs(p: Pulse): number {
 /** The whole run description: what the form edits, the API stores and the worker integrates. */
 export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
   c.channels.forEach((ch, ci) => {
-    for (const port of ['pump', 'stokes'] as const) {
-      ch[port].pulses.forEach((p, pi) => {
+    const inputs: [(string | number)[], PortInput | undefined][] = [
+      [['pump'], ch.pump],
+      [['stokes'], ch.stokes],
+      [['coProbe'], ch.coProbe],
+      ...ch.forwardInputs.flatMap((f, fi): [(string | number)[], PortInput][] => [
+        [['forwardInputs', fi, 'stokes'], f.stokes],
+        [['forwardInputs', fi, 'antiStokes'], f.antiStokes],
+      ]),
+    ]
+    for (const [at, input] of inputs) {
+      input?.pulses.forEach((p, pi) => {
+        const path = ['channels', ci, ...at, 'pulses', pi, 'centreNs']
         if (p.centreNs < 0 || p.centreNs > c.windowNs) {
-          ctx.addIssue({
-            code: 'custom',
-            path: ['channels', ci, port, 'pulses', pi, 'centreNs'],
-            message: `The pulse centre must lie inside the simulated window, 0 to ${c.windowNs} ns`,
-          })
+          ctx.addIssue({ code: 'custom', path, message: `The pulse centre must lie inside the simulated window, 0 to ${c.windowNs} ns` })
         } else {
           const cut = truncationMessage(p, c.windowNs)
-          if (cut) ctx.addIssue({ code: 'custom', path: ['channels', ci, port, 'pulses', pi, 'centreNs'], message: cut })
+          if (cut) ctx.addIssue({ code: 'custom', path, message: cut })
         }
       })
     }
   })
+  for (const issue of waveSetIssues(c)) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message })
   // Cross beats between channels are dropped; that holds only far from the gain line.
   const linewidthGHz = c.waveguide.linewidthMHz / 1000
   for (let i = 0; i < c.channels.length; i++) {
@@ -180,7 +206,7 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
     })
   }
   if (c.grid.timeStepPs !== undefined) {
-    const features = c.channels.flatMap((ch) => [...ch.pump.pulses, ...ch.stokes.pulses]).map(pulseFeatureNs)
+    const features = c.channels.flatMap((ch) => [ch.pump, ch.stokes, ch.coProbe, ...ch.forwardInputs.flatMap((f) => [f.stokes, f.antiStokes])].flatMap((p) => p?.pulses ?? [])).map(pulseFeatureNs)
     if (features.length > 0) {
       const shortestNs = Math.min(...features)
       const cells = shortestNs / (c.grid.timeStepPs / 1000)

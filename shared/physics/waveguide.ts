@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { safeText } from '../api/text'
+import { BackwardResonance, ForwardResonance, MAX_EXTRA_RESONANCES } from './resonances'
 
 const finite = () => z.number().finite()
 
@@ -21,6 +22,16 @@ export const Waveguide = z.object({
   acousticVelocityMPerS: finite().positive().max(20_000).optional().describe('Longitudinal sound speed v_A (m/s)'),
   kerrN2M2PerW: finite().min(0).max(1e-15).default(0).describe('Kerr index n₂ (m²/W); used when the Kerr option is on'),
   wavelengthNm: finite().min(200).max(20_000).default(1550).describe('Pump vacuum wavelength (nm)'),
+  additionalResonances: z
+    .array(BackwardResonance)
+    .max(MAX_EXTRA_RESONANCES)
+    .default([])
+    .describe('Further backward resonances besides the main one (shift, linewidth, gain); the gain spectrum is their sum'),
+  forwardResonances: z
+    .array(ForwardResonance)
+    .max(MAX_EXTRA_RESONANCES)
+    .default([])
+    .describe('Forward (co-propagating) acoustic resonances coupling the pump to forward Stokes and anti-Stokes waves'),
 })
 export type Waveguide = z.infer<typeof Waveguide>
 export type WaveguideInput = z.input<typeof Waveguide>
