@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { MapReduction, Port } from './simulation-config'
 import { RUN_SCHEMES } from './pulse-roles'
 import { FigureErrors } from './figure-error'
+import { WaveFigures } from './wave-figures'
 
 /**
  * Complex arrays (dtype 'c16') are interleaved: element k is (re, im) = (data[2k], data[2k+1]), in √W for
@@ -138,6 +139,8 @@ export const FiguresOfMerit = z.object({
   cellUpdatesPerS: z.number(),
   /** Discretisation error of every figure above, from a companion run on the grid with twice the step (figure-error.ts). */
   errorEstimate: FigureErrors.optional(),
+  /** Runs with a co-propagating probe, further or forward resonances or a cascade (shared/physics/wave-set.ts). */
+  waves: WaveFigures.optional(),
 })
 export type FiguresOfMerit = z.infer<typeof FiguresOfMerit>
 
