@@ -12,6 +12,7 @@ import { preRunWarnings } from './observers/warnings'
 import { buildModel, type Model } from './problem/coupled-modes'
 import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, noiseWeight, type FieldState } from './steppers/interaction-kernel'
 import { planStorageReference, type ReferencePlan } from './storage-reference'
+import { resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -35,6 +36,9 @@ export class SimulationRun {
   private readonly rng: NormalSource | null
   private readonly fast: boolean
   private readonly forceGeneral: boolean
+  /** The engine asked for, and the WebAssembly engine when this run uses it (engine/wasm-engine.ts). */
+  private readonly engineChoice: EngineChoice
+  private readonly wasm: WasmSveaEngine | null
   /** Storage runs: the same run without the read pulses, forked at plan.forkN (storage-reference.ts). */
   private referencePlan: ReferencePlan | null = null
   private reference: SimulationRun | null = null
@@ -44,10 +48,13 @@ export class SimulationRun {
   constructor(
     readonly config: SimulationConfig,
     readonly grid: GridChoice,
-    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource } = {},
+    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice } = {},
   ) {
     const m = (this.model = buildModel(config, grid))
-    this.state = allocateState(m)
+    this.forceGeneral = options.forceGeneralKernel ?? false
+    this.engineChoice = options.engine ?? 'auto'
+    this.wasm = resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? new WasmSveaEngine(m) : null
+    this.state = this.wasm?.state ?? allocateState(m)
     this.traces = config.channels.map((ch) => ({
       pumpIn: sampleInput(ch.pump, m.nt, m.dtS),
       stokesIn: sampleInput(ch.stokes, m.nt, m.dtS),
@@ -63,11 +70,15 @@ export class SimulationRun {
     // A caller-supplied source of normal deviates replaces the seeded one (the exact-covariance tests feed
     // unit draws through it to read off the scheme's noise input map).
     this.rng = config.options.noise.enabled ? (options.normalSource ?? new SeededRandom(config.options.noise.seed)) : null
-    this.forceGeneral = options.forceGeneralKernel ?? false
     this.fast = !this.forceGeneral && fastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
+  }
+
+  /** Which code advances this run. */
+  get engine(): 'ts' | 'wasm' {
+    return this.wasm ? 'wasm' : 'ts'
   }
 
   get done(): boolean {
@@ -101,7 +112,7 @@ export class SimulationRun {
 
   /** A companion run with other inputs, continuing from this run's present state. */
   private fork(config: SimulationConfig): SimulationRun {
-    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral })
+    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral, engine: this.engineChoice })
     c.referencePlan = null
     c.recordMaps = false
     for (const key of ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm', 'wRe', 'wIm'] as const) c.state[key].set(this.state[key])
@@ -122,7 +133,8 @@ export class SimulationRun {
     const start = this.n
     const nz = m.nz
     for (let n = start; n < end; n++) {
-      if (this.fast) {
+      if (this.wasm) this.wasm.step()
+      else if (this.fast) {
         const c = m.exchangePerB
         const K = m.driveK, Er = m.svea.eRe, Ei = m.svea.eIm, h = m.dtS
         interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, 1, nz - 1, K, 0.5 * c, Er, Ei, h)
@@ -183,6 +195,7 @@ export class SimulationRun {
     const s = this.state
     const nz = m.nz
     const loss = m.lossPerCell
+    if (this.wasm) return this.wasm.transport()
     for (let k = 0; k < m.nCh; k++) {
       const base = k * m.nodes
       s.uRe.copyWithin(base + 1, base, base + nz)

@@ -33,6 +33,7 @@ export function planCompanion(input: unknown, opts: SimulateOptions): CompanionP
     shouldAbort: opts.shouldAbort,
     yieldEveryMs: opts.yieldEveryMs,
     forceGeneralKernel: opts.forceGeneralKernel,
+    engine: opts.engine,
     onProgress: opts.onProgress && ((f) => opts.onProgress!(share + (1 - share) * f)),
   }
   return {

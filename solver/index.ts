@@ -11,9 +11,10 @@ import { SOLVER_LIMITS, SimulationRun, planGrid } from './driver'
 import { planCompanion } from './error-estimate-run'
 import type { ChannelTraces } from './observers/figures-of-merit'
 import { postRunWarnings } from './observers/warnings'
+import { ENGINE_CHOICES, EngineUnavailableError, type EngineChoice } from './engine/wasm-engine'
 
 export const SOLVER_VERSION = '0.1.0'
-export { SOLVER_LIMITS, SimulationRun }
+export { SOLVER_LIMITS, SimulationRun, ENGINE_CHOICES, type EngineChoice }
 export type { ChannelTraces, ChannelFigures, FiguresOfMerit, SimulationManifest, SolverWarning }
 // What the server needs to store a run and write its files (the server reaches the solver only here).
 export { arrayFileName, buildRunManifest, npyDescrOf, MANIFEST_FILE, type RunManifest, type RunTimings, type StoredArray } from './io/manifest'
@@ -40,6 +41,8 @@ export interface SimulateOptions {
   yieldEveryMs?: number
   /** Testing aid: use the general kernel even where the single-channel fast path applies. */
   forceGeneralKernel?: boolean
+  /** 'auto' (default): the WebAssembly engine where it covers the options, else TypeScript; 'ts' or 'wasm' to force one. */
+  engine?: EngineChoice
 }
 
 export interface SimulationResult {
@@ -68,7 +71,7 @@ interface Prepared {
   failure: SimulationResult | null
 }
 
-function prepare(input: unknown, forceGeneral: boolean): Prepared {
+function prepare(input: unknown, opts: SimulateOptions): Prepared {
   const parsed = SimulationConfig.safeParse(input)
   if (!parsed.success) {
     const issues = parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }))
@@ -84,7 +87,12 @@ function prepare(input: unknown, forceGeneral: boolean): Prepared {
   if (nodes * nCh * (grid.nt + 1) > SOLVER_LIMITS.maxCellUpdates) problems.push({ path: 'windowNs', message: 'The run is too large; shorten the window or use a larger time step' })
   if (![grid.dtS, grid.dzM].every(Number.isFinite) || grid.dtS <= 0) problems.push({ path: 'grid', message: 'No valid grid could be chosen for this configuration' })
   if (problems.length > 0) return { run: null, failure: failed('The run exceeds the solver limits', problems) }
-  return { run: new SimulationRun(config, grid, { forceGeneralKernel: forceGeneral }), failure: null }
+  try {
+    return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine }), failure: null }
+  } catch (err) {
+    if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: err.message }]) }
+    throw err
+  }
 }
 
 function failed(message: string, issues: { path: string; message: string }[] = []): SimulationResult {
@@ -177,7 +185,7 @@ export async function simulate(config: SimulationConfig, opts: SimulateOptions =
 }
 
 async function simulateOne(config: SimulationConfig, opts: SimulateOptions): Promise<SimulationResult> {
-  const { run, failure } = prepare(config, opts.forceGeneralKernel ?? false)
+  const { run, failure } = prepare(config, opts)
   if (!run) return failure!
   const loop = new Loop(run, opts)
   const yieldMs = opts.yieldEveryMs ?? 25
@@ -204,7 +212,7 @@ export function simulateSync(config: SimulationConfig, opts: SimulateOptions = {
 }
 
 function simulateSyncOne(config: SimulationConfig, opts: SimulateOptions): SimulationResult {
-  const { run, failure } = prepare(config, opts.forceGeneralKernel ?? false)
+  const { run, failure } = prepare(config, opts)
   if (!run) return failure!
   const loop = new Loop(run, opts)
   let lastFrame = now()

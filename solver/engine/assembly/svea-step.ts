@@ -1,0 +1,134 @@
+/*
+ * AssemblyScript source of the WebAssembly step engine (compiled by scripts/build-wasm.mjs; not TypeScript
+ * for tsc: the types v128, usize and f64 are AssemblyScript's).
+ *
+ * The same arithmetic as `interactSvea` in solver/steppers/interaction-kernel.ts, operation for operation,
+ * two nodes at a time in f64x2 lanes. With u = A_p, v = A_s, E = e^{−λΔt}, c = exchange per unit b:
+ *   D₀ = iK·u·v*,  b̃ = b + h·D₀,  β = (c/2)·(b + E·b̃),  q = |β|²/4
+ *   (u, v) ← [[1 − q, iβ], [iβ*, 1 − q]](u, v)/(1 + q)
+ *   b ← E·(b + h/2·D₀) + h/2·D₁,  D₁ = iK·u·v* from the exchanged fields.
+ * IEEE 754 add, sub, mul and div are correctly rounded in each lane, WebAssembly has no fused multiply-add,
+ * and every expression below keeps the reference's evaluation order, so the results are the same bits.
+ *
+ * Memory: the driver's Float64Arrays are views into this module's imported memory; the arguments are byte
+ * addresses. Nothing is allocated here (stub runtime).
+ */
+
+// @ts-ignore: decorator
+@inline
+function exchange(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, j0: i32, j1: i32, K: f64, cHalf: f64, Er: f64, Ei: f64, h: f64): void {
+  const hh = 0.5 * h
+  const hhK = hh * K
+  const negK = -K
+  const vNegK = f64x2.splat(negK)
+  const vK = f64x2.splat(K)
+  const vH = f64x2.splat(h)
+  const vHh = f64x2.splat(hh)
+  const vHhK = f64x2.splat(hhK)
+  const vCHalf = f64x2.splat(cHalf)
+  const vEr = f64x2.splat(Er)
+  const vEi = f64x2.splat(Ei)
+  const vQuarter = f64x2.splat(0.25)
+  const vOne = f64x2.splat(1.0)
+  let j = j0
+  for (; j < j1; j += 2) {
+    const o = <usize>j << 3
+    const ur = v128.load(uRe + o)
+    const ui = v128.load(uIm + o)
+    const vr = v128.load(vRe + o)
+    const vi = v128.load(vIm + o)
+    const br = v128.load(bRe + o)
+    const bi = v128.load(bIm + o)
+    // D0 = iK·u·v*: d0r = −K·(ui·vr − ur·vi), d0i = K·(ur·vr + ui·vi)
+    const d0r = f64x2.mul(vNegK, f64x2.sub(f64x2.mul(ui, vr), f64x2.mul(ur, vi)))
+    const d0i = f64x2.mul(vK, f64x2.add(f64x2.mul(ur, vr), f64x2.mul(ui, vi)))
+    const tr = f64x2.add(br, f64x2.mul(vH, d0r))
+    const ti = f64x2.add(bi, f64x2.mul(vH, d0i))
+    // β = c/2·((b + E·t)): betaR = cHalf·((br + Er·tr) − Ei·ti), betaI = cHalf·((bi + Er·ti) + Ei·tr)
+    const betaR = f64x2.mul(vCHalf, f64x2.sub(f64x2.add(br, f64x2.mul(vEr, tr)), f64x2.mul(vEi, ti)))
+    const betaI = f64x2.mul(vCHalf, f64x2.add(f64x2.add(bi, f64x2.mul(vEr, ti)), f64x2.mul(vEi, tr)))
+    const q = f64x2.mul(vQuarter, f64x2.add(f64x2.mul(betaR, betaR), f64x2.mul(betaI, betaI)))
+    const den = f64x2.div(vOne, f64x2.add(vOne, q))
+    const a = f64x2.sub(vOne, q)
+    const nur = f64x2.mul(f64x2.sub(f64x2.sub(f64x2.mul(a, ur), f64x2.mul(betaR, vi)), f64x2.mul(betaI, vr)), den)
+    const nui = f64x2.mul(f64x2.sub(f64x2.add(f64x2.mul(a, ui), f64x2.mul(betaR, vr)), f64x2.mul(betaI, vi)), den)
+    const nvr = f64x2.mul(f64x2.add(f64x2.sub(f64x2.mul(a, vr), f64x2.mul(betaR, ui)), f64x2.mul(betaI, ur)), den)
+    const nvi = f64x2.mul(f64x2.add(f64x2.add(f64x2.mul(a, vi), f64x2.mul(betaR, ur)), f64x2.mul(betaI, ui)), den)
+    v128.store(uRe + o, nur)
+    v128.store(uIm + o, nui)
+    v128.store(vRe + o, nvr)
+    v128.store(vIm + o, nvi)
+    // b ← E(b + h/2·D0) + h/2·D1
+    const sr = f64x2.add(br, f64x2.mul(vHh, d0r))
+    const si = f64x2.add(bi, f64x2.mul(vHh, d0i))
+    const d1r = f64x2.sub(f64x2.mul(nui, nvr), f64x2.mul(nur, nvi))
+    const d1i = f64x2.add(f64x2.mul(nur, nvr), f64x2.mul(nui, nvi))
+    v128.store(bRe + o, f64x2.sub(f64x2.sub(f64x2.mul(vEr, sr), f64x2.mul(vEi, si)), f64x2.mul(vHhK, d1r)))
+    v128.store(bIm + o, f64x2.add(f64x2.add(f64x2.mul(vEr, si), f64x2.mul(vEi, sr)), f64x2.mul(vHhK, d1i)))
+  }
+  // The odd node left over (or a single facet node): the same expressions in scalar form.
+  for (; j <= j1; j++) {
+    const o = <usize>j << 3
+    const ur = load<f64>(uRe + o)
+    const ui = load<f64>(uIm + o)
+    const vr = load<f64>(vRe + o)
+    const vi = load<f64>(vIm + o)
+    const br = load<f64>(bRe + o)
+    const bi = load<f64>(bIm + o)
+    const d0r = negK * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const tr = br + h * d0r
+    const ti = bi + h * d0i
+    const betaR = cHalf * (br + Er * tr - Ei * ti)
+    const betaI = cHalf * (bi + Er * ti + Ei * tr)
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1.0 / (1.0 + q)
+    const a = 1.0 - q
+    const nur = (a * ur - betaR * vi - betaI * vr) * den
+    const nui = (a * ui + betaR * vr - betaI * vi) * den
+    const nvr = (a * vr - betaR * ui + betaI * ur) * den
+    const nvi = (a * vi + betaR * ur + betaI * ui) * den
+    store<f64>(uRe + o, nur)
+    store<f64>(uIm + o, nui)
+    store<f64>(vRe + o, nvr)
+    store<f64>(vIm + o, nvi)
+    const sr = br + hh * d0r
+    const si = bi + hh * d0i
+    store<f64>(bRe + o, Er * sr - Ei * si - hhK * (nui * nvr - nur * nvi))
+    store<f64>(bIm + o, Er * si + Ei * sr + hhK * (nur * nvr + nui * nvi))
+  }
+}
+
+/**
+ * One interaction step of a single-channel SVEA grid with nodes 0..nz: the interior with weight 1, then the
+ * two facets with weight ½ (the driver's order). c is the model's exchange per unit b.
+ */
+export function sveaStep(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, nz: i32, K: f64, c: f64, Er: f64, Ei: f64, h: f64): void {
+  exchange(uRe, uIm, vRe, vIm, bRe, bIm, 1, nz - 1, K, 0.5 * c, Er, Ei, h)
+  exchange(uRe, uIm, vRe, vIm, bRe, bIm, 0, 0, K, 0.25 * c, Er, Ei, h)
+  exchange(uRe, uIm, vRe, vIm, bRe, bIm, nz, nz, K, 0.25 * c, Er, Ei, h)
+}
+
+/**
+ * Transport along the characteristics (the driver's exact shift): pump one node forward, Stokes one node
+ * back, both times the loss per cell when there is loss. memory.copy is an overlapping-safe move.
+ */
+export function transport(uRe: usize, uIm: usize, vRe: usize, vIm: usize, nz: i32, loss: f64): void {
+  const bytes = <usize>nz << 3
+  memory.copy(uRe + 8, uRe, bytes)
+  memory.copy(uIm + 8, uIm, bytes)
+  memory.copy(vRe, vRe + 8, bytes)
+  memory.copy(vIm, vIm + 8, bytes)
+  if (loss != 1.0) {
+    for (let j = 1; j <= nz; j++) {
+      const o = <usize>j << 3
+      store<f64>(uRe + o, load<f64>(uRe + o) * loss)
+      store<f64>(uIm + o, load<f64>(uIm + o) * loss)
+    }
+    for (let j = 0; j < nz; j++) {
+      const o = <usize>j << 3
+      store<f64>(vRe + o, load<f64>(vRe + o) * loss)
+      store<f64>(vIm + o, load<f64>(vIm + o) * loss)
+    }
+  }
+}
