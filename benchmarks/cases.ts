@@ -49,23 +49,3 @@ export function cwDepletionCase(timeStepPs: number): SimulationConfig {
     grid: { timeStepPs },
   })
 }
-
-/**
- * Exact lossless CW depletion (Tang 1966; docs/model.md, equations): P_s(z) = b₀C e^{−G C z}/(1 − r b₀ e^{−G C z}) with
- * C = P₀(1 − r b₀); b₀ solved by bisection from P_s(L) = P_L. Returns P_s(0) = b₀ P₀.
- */
-export function exactDepletionStokesOutW(p0W: number, pLW: number, gainPerWM: number, lengthM: number, r: number): number {
-  const psAtL = (b0: number) => {
-    const c = p0W * (1 - r * b0)
-    const e = Math.exp(-gainPerWM * c * lengthM)
-    return (b0 * c * e) / (1 - r * b0 * e)
-  }
-  let lo = 0
-  let hi = 1 / r
-  for (let i = 0; i < 200; i++) {
-    const mid = 0.5 * (lo + hi)
-    if (psAtL(mid) < pLW) lo = mid
-    else hi = mid
-  }
-  return 0.5 * (lo + hi) * p0W
-}

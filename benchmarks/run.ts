@@ -5,7 +5,8 @@ import os from 'node:os'
 import { simulateSync, type SimulationResult } from '../solver/index'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { brillouinRates } from '@shared/physics/grid-step'
-import { cwDepletionCase, exactDepletionStokesOutW, gridCase } from './cases'
+import { exactDepletion } from '../tests/solver/closed-forms'
+import { cwDepletionCase, gridCase } from './cases'
 import { oscillationCoverage } from './oscillation-coverage'
 
 const quick = process.argv.includes('--quick')
@@ -88,7 +89,7 @@ function workPrecision(): void {
   const refW = stokesOut(ref.result)
   const base = cwDepletionCase(1)
   const rates = brillouinRates(base.waveguide)
-  const exactW = exactDepletionStokesOutW(0.5, 1e-3, rates.gainPerWM, base.waveguide.lengthM, rates.frequencyRatio)
+  const exactW = exactDepletion(0.5, 1e-3, rates.gainPerWM, base.waveguide.lengthM, rates.frequencyRatio).stokesOutW
   console.log(`exact (Tang 1966) P_s(0) = ${exactW.toPrecision(7)} W; fine-step reference (Δt = 0.5 ps) = ${refW.toPrecision(7)} W, rel. diff ${fmt(Math.abs(refW - exactW) / exactW, 2)}`)
   console.log(`${pad('Δt ps', 6)} ${pad('Nz', 5)} ${pad('Nt', 7)} ${pad('cell-upd', 9)} ${pad('time s', 7)} ${pad('err vs ref', 10)} ${pad('order', 6)} ${pad('err vs exact', 12)}`)
   let prev: number | null = null

@@ -2,6 +2,7 @@
 import { describe, expect, it } from 'vitest'
 import { simulateSync } from '../../solver/index'
 import { chipConfig, last, powerAt } from './chip-fixtures'
+import { exactDepletion } from './closed-forms'
 
 function cwRun(pumpW: number, stokesW: number, extra: Parameters<typeof chipConfig>[0] = {}) {
   const r = simulateSync(chipConfig({ windowNs: 150, channels: [{ pump: { backgroundPowerW: pumpW }, stokes: { backgroundPowerW: stokesW } }], ...extra }))
@@ -24,22 +25,10 @@ describe('CW Brillouin gain', () => {
 
   it('V4: lossless pump depletion matches the exact solution P_s(0) = 0.182889 W, P_p(L) = 0.318111 W within 0.1 %', () => {
     // Source: exact lossless CW solution (Tang 1966; Damzen et al. 2003 §3.1), docs/model.md, equations.
-    // The closed form P_s(L; b₀) is solved for b₀ here by bisection (P_s(L) is monotonic in b₀ on (0, 1/r)).
     const G = 300, L = 0.05, P0 = 0.5, PL = 1e-3
     const exact = (r: number) => {
-      const psL = (b0: number) => {
-        const C = P0 * (1 - r * b0)
-        const e = Math.exp(-G * C * L)
-        return (b0 * C * e) / (1 - r * b0 * e)
-      }
-      let lo = 0, hi = 1 / r
-      for (let i = 0; i < 200; i++) {
-        const mid = 0.5 * (lo + hi)
-        if (psL(mid) < PL) lo = mid
-        else hi = mid
-      }
-      const b0 = 0.5 * (lo + hi)
-      return { ps0: b0 * P0, ppL: P0 * (1 - r * b0) + r * PL }
+      const e = exactDepletion(P0, PL, G, L, r)
+      return { ps0: e.stokesOutW, ppL: e.pumpOutW }
     }
     // The reference figures of V4 are the closed form with ω_p/ω_s taken as 1.
     const brief = exact(1)

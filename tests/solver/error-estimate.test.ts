@@ -16,6 +16,7 @@ import { buildRunManifest } from '../../solver/io/manifest'
 import { estimateFigureErrors, figureError } from '../../solver/observers/error-estimate'
 import { sweepCsv } from '../../server/modules/sweeps/sweep-csv'
 import { chipConfig, gaussian, last, powerAt } from './chip-fixtures'
+import { exactDepletion } from './closed-forms'
 import { mainRunShare, runProgressLabel } from '../../src/components/run/run-progress'
 
 const GB_PER_W_M = 300 // chip waveguide: g_B/A_eff = 3e-10 m/W / 1 µm²
@@ -42,20 +43,9 @@ const expectWithinFactor2 = (trueErr: number, est: number) => {
 describe('Richardson estimate against closed forms: true error within a factor 2 of the estimate', () => {
   it.each([['the automatic', undefined], ['a 10 ps', 10]])('exact lossless CW depletion (Tang 1966): steady P_s(0), %s step', (_label, timeStepPs) => {
     // Source: C. L. Tang, J. Appl. Phys. 37, 2945 (1966): with C = P_p − rP_s constant,
-    // P_s(z) = b₀C e^{−G_B C z}/(1 − r b₀ e^{−G_B C z}); b₀ solved by bisection from P_s(L) (monotonic on (0, 1/r)).
+    // P_s(z) = b₀C e^{−G_B C z}/(1 − r b₀ e^{−G_B C z}) (tests/solver/closed-forms.ts).
     const P0 = 0.5, PL = 1e-3
-    const psL = (b0: number) => {
-      const C = P0 * (1 - FREQ_RATIO * b0)
-      const e = Math.exp(-GB_PER_W_M * C * L_M)
-      return (b0 * C * e) / (1 - FREQ_RATIO * b0 * e)
-    }
-    let lo = 0, hi = 1 / FREQ_RATIO
-    for (let i = 0; i < 200; i++) {
-      const mid = 0.5 * (lo + hi)
-      if (psL(mid) < PL) lo = mid
-      else hi = mid
-    }
-    const exactPs0 = 0.5 * (lo + hi) * P0
+    const exactPs0 = exactDepletion(P0, PL, GB_PER_W_M, L_M, FREQ_RATIO).stokesOutW
     // The figures hold energies over the whole window (turn-on transient included) and a peak that overshoots
     // the steady state, so the closed form is compared with the steady output power, and the estimator is
     // applied to it on exactly the companion grid the run uses (checked equal below).
