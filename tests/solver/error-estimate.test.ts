@@ -16,7 +16,7 @@ import { buildRunManifest } from '../../solver/io/manifest'
 import { estimateFigureErrors, figureError } from '../../solver/observers/error-estimate'
 import { sweepCsv } from '../../server/modules/sweeps/sweep-csv'
 import { chipConfig, gaussian, last, powerAt } from './chip-fixtures'
-import { exactDepletion } from './closed-forms'
+import { exactDepletion, slowLightDelayS } from './closed-forms'
 import { mainRunShare, runProgressLabel } from '../../src/components/run/run-progress'
 
 const GB_PER_W_M = 300 // chip waveguide: g_B/A_eff = 3e-10 m/W / 1 µm²
@@ -82,18 +82,9 @@ describe('Richardson estimate against closed forms: true error within a factor 2
     // Source: small-signal Brillouin transfer function H(δ) = exp{(G₀/2)/[1 + 2i(Δ − δ)/Γ_B]} at Δ = 0
     // (Agrawal, Nonlinear Fiber Optics, ch. 9; slow light: Okawachi et al., PRL 94, 153902 (2005)). The centroid
     // delay of a pulse is the group delay −dφ/dδ = (G₀/Γ_B)(1 − x²)/(1 + x²)², x = 2δ/Γ_B, averaged over the
-    // output spectrum |E(δ)|²|H|², |E|² ∝ e^{−δ²T²} for an amplitude e^{−t²/2T²}; evaluated by Simpson's rule.
+    // output spectrum |E(δ)|²|H|², |E|² ∝ e^{−δ²T²} for an amplitude e^{−t²/2T²} (tests/solver/closed-forms.ts).
     const P = 0.2, T = 3e-9
-    const G0 = GB_PER_W_M * P * L_M
-    const N = 200_000, span = 12 / T + 50 * GAMMA_B, h = (2 * span) / N
-    let num = 0, den = 0
-    for (let i = 0; i <= N; i++) {
-      const d = -span + i * h, x = (2 * d) / GAMMA_B
-      const w = (i === 0 || i === N ? 1 : i % 2 ? 4 : 2) * Math.exp(-d * d * T * T + G0 / (1 + x * x))
-      num += (w * (G0 / GAMMA_B) * (1 - x * x)) / (1 + x * x) ** 2
-      den += w
-    }
-    const exactNs = (num / den) * 1e9
+    const exactNs = slowLightDelayS(GB_PER_W_M * P * L_M, GAMMA_B, T) * 1e9
     expect(exactNs).toBeGreaterThan(6)
     // The window leaves the delayed, broadened output (and its e^{−Γ_B t/2} tail) well inside.
     const r = simulateSync(chipConfig({ windowNs: 200, grid: { timeStepPs }, channels: [{ pump: { backgroundPowerW: P }, stokes: { pulses: [gaussian(1e-6, 25, 3)] } }] }))

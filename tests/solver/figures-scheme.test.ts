@@ -9,6 +9,7 @@ import { runScheme } from '@shared/physics/pulse-roles'
 import { simulateSync } from '../../solver/index'
 import storageExample from '../../solver/examples/store-and-retrieve-chalcogenide-rib.json'
 import { chipConfig, gaussian } from './chip-fixtures'
+import { slowLightDelayS } from './closed-forms'
 
 const storage = SimulationConfig.parse(storageExample)
 // V5 of the validation set: 2 W pump and 50 mW Stokes pulses, T = 0.3 ns, meeting in the chip.
@@ -90,17 +91,9 @@ describe('pulse figures of an amplifier', () => {
   it('a slow-light delay whose output tail is cut by the run end is not given, and the window it names gives the closed form', () => {
     // Source: small-signal Brillouin transfer function H(δ) = exp{(G₀/2)/[1 − 2iδ/Γ_B]} (Agrawal, Nonlinear Fiber
     // Optics, ch. 9; slow light: Okawachi et al., PRL 94, 153902 (2005)). The centroid delay is the group delay
-    // (G₀/Γ_B)(1 − x²)/(1 + x²)², x = 2δ/Γ_B, averaged over the output spectrum e^{−δ²T²}|H|²; Simpson's rule.
-    const P = 0.2, T = 3e-9, G0 = 300 * P * 0.05, GAMMA_B = 2 * Math.PI * 34e6
-    const N = 200_000, span = 12 / T + 50 * GAMMA_B, h = (2 * span) / N
-    let num = 0, den = 0
-    for (let i = 0; i <= N; i++) {
-      const d = -span + i * h, x = (2 * d) / GAMMA_B
-      const w = (i === 0 || i === N ? 1 : i % 2 ? 4 : 2) * Math.exp(-d * d * T * T + G0 / (1 + x * x))
-      num += (w * (G0 / GAMMA_B) * (1 - x * x)) / (1 + x * x) ** 2
-      den += w
-    }
-    const exactNs = (num / den) * 1e9
+    // (G₀/Γ_B)(1 − x²)/(1 + x²)², x = 2δ/Γ_B, averaged over the output spectrum e^{−δ²T²}|H|² (tests/solver/closed-forms.ts).
+    const P = 0.2, T = 3e-9
+    const exactNs = slowLightDelayS(300 * P * 0.05, 2 * Math.PI * 34e6, T) * 1e9
     const run = (windowNs: number) => simulateSync(chipConfig({ windowNs, options: { errorEstimate: false }, channels: [{ pump: { backgroundPowerW: P }, stokes: { pulses: [gaussian(1e-6, 25, 3)] } }] })).manifest.figures!.channels[0]
     // 80 ns holds the input pulse's expected arrival + 2 FWHM (35 ns) but not the e^{−Γ_B t} tail: the centroid came out 1 % low.
     const cut = run(80)
