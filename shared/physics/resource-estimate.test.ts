@@ -8,7 +8,9 @@ import {
   DEFAULT_RESOURCE_LIMITS,
   estimateResources,
   SPEED_FACTOR_HIGHER_ORDER,
+  SPEED_FACTOR_WAVE_NETWORK,
   STATE_BYTES_PER_CELL,
+  TRACE_BYTES_PER_STEP,
 } from './resource-estimate'
 
 const config = (over: Partial<SimulationConfigInput> = {}) =>
@@ -72,6 +74,45 @@ describe('estimateResources', () => {
   it('assumes a slower throughput with the higher-order term', () => {
     const e = estimateResources(config({ options: { higherOrderAcoustic: true } }), { dtS: 5e-12, nz: 100, nt: 100 })
     expect(e.cellUpdatesPerS).toBe(CELL_UPDATES_PER_S_SVEA * SPEED_FACTOR_HIGHER_ORDER)
+  })
+})
+
+describe('the cost of further waves and acoustic fields', () => {
+  // Counted by hand from the carrier list of shared/physics/wave-set.ts: pump, 1st- and 2nd-order Stokes, a
+  // co-propagating probe, forward Stokes and anti-Stokes = 6 waves; 2 backward resonances × 2 orders + 1 forward
+  // field = 5 acoustic fields.
+  const many = config({
+    waveguide: {
+      lengthM: 0.05, groupIndex: 2.44, effectiveAreaUm2: 2.3, gainCoefficientMPerW: 7e-10, brillouinShiftGHz: 7.7, linewidthMHz: 34,
+      additionalResonances: [{ shiftGHz: 7.9, linewidthMHz: 40, gainCoefficientMPerW: 2e-10 }],
+      forwardResonances: [{ frequencyMHz: 4000, linewidthMHz: 10, gainCoefficientMPerW: 1e-10 }],
+    },
+    channels: [{ pump: { pulses: [], backgroundPowerW: 0.05 }, coProbe: { pulses: [], backgroundPowerW: 1e-6 } }],
+    options: { cascade: { stokesOrders: 2, seedPowerW: 1e-9 }, errorEstimate: false },
+  })
+  const grid = { dtS: 5e-12, nz: 1000, nt: 10000 }
+
+  it('counts 2 waves and 1 field for the plain pump–Stokes pair, unchanged cost', () => {
+    const e = estimateResources(config({ options: { errorEstimate: false } }), grid)
+    expect([e.waves, e.acousticFields]).toEqual([2, 1])
+    expect(e.cellUpdatesPerS).toBe(CELL_UPDATES_PER_S_SVEA)
+    expect(e.memoryBytes.state).toBe(1001 * STATE_BYTES_PER_CELL)
+  })
+
+  it('scales state, traces and throughput with the waves and fields of the wave set', () => {
+    const e = estimateResources(many, grid)
+    expect([e.waves, e.acousticFields]).toEqual([6, 5])
+    expect(e.memoryBytes.state).toBeCloseTo((1001 * STATE_BYTES_PER_CELL * 11) / 3, 6)
+    expect(e.memoryBytes.traces).toBe(10001 * TRACE_BYTES_PER_STEP * 3 + 8 * (10001 + 1001))
+    expect(e.cellUpdatesPerS).toBeCloseTo((CELL_UPDATES_PER_S_SVEA * SPEED_FACTOR_WAVE_NETWORK * 3) / 11, 6)
+    // Node-steps stay the solver's count of nodes × samples; the extra envelopes cost through the throughput.
+    expect(e.cellUpdates).toBe(1001 * 10001)
+  })
+
+  it('counts one field per forward resonance and drops the anti-Stokes wave when it is off', () => {
+    const off = SimulationConfig.parse({ ...many, options: { ...many.options, forwardAntiStokes: false } })
+    const e = estimateResources(off, grid)
+    expect([e.waves, e.acousticFields]).toEqual([5, 5])
   })
 })
 

@@ -5,6 +5,7 @@ import { storageForkStep, storageReferenceStartNs } from './pulse-roles'
 import type { SimulationConfig } from './simulation-config'
 import { planCoarseRun } from './error-estimate-plan'
 import { MIN_TIME_STEP_PS } from './grid-limits'
+import { usesWaveNetwork, waveSet } from './wave-set'
 
 /** Grid counts as chosen by shared/physics/grid-step.ts. */
 export interface GridCounts {
@@ -29,6 +30,23 @@ export const SPEED_FACTOR_NOISE = 0.11
 /** Relative speed with Kerr phases (two complex rotations per cell); estimate. */
 export const SPEED_FACTOR_KERR = 0.8
 
+/** Optical waves and acoustic fields of the plain pump–Stokes scheme: pump, Stokes and one acoustic field. */
+export const PLAIN_WAVES = 2
+export const PLAIN_FIELDS = 1
+/**
+ * Relative speed of the multi-wave solver (solver/network/) per cell-update at the plain scheme's three
+ * envelopes; its throughput then falls as 3/(waves + fields), each envelope adding one propagation and its
+ * couplings. 1 until the benchmark of that solver gives a measured value.
+ */
+export const SPEED_FACTOR_WAVE_NETWORK = 1
+
+/** Optical waves and acoustic fields a run integrates per cell (shared/physics/wave-set.ts). */
+export function envelopeCounts(config: SimulationConfig): { waves: number; fields: number } {
+  if (!usesWaveNetwork(config)) return { waves: PLAIN_WAVES, fields: PLAIN_FIELDS }
+  const set = waveSet(config)
+  return { waves: set.waves.length, fields: set.fields.length }
+}
+
 /**
  * Bytes of solver state per cell and channel: pump, Stokes and acoustic envelopes plus their predictor copies,
  * complex float64 (6 × 16 B), and ∂b/∂t with its copy when the higher-order term is on (2 × 16 B).
@@ -51,6 +69,9 @@ export const DEFAULT_RESOURCE_LIMITS: ResourceLimits = { maxCellUpdates: 2e10, m
 /** Memory counts the run's own arrays, not the runtime (Node itself takes ~100 MiB RSS, benchmarks/README.md). */
 export interface ResourceEstimate {
   channels: number
+  /** Optical waves and acoustic fields per cell (2 and 1 for the plain pump–Stokes pair). */
+  waves: number
+  acousticFields: number
   realisations: number
   cells: number
   steps: number
@@ -82,13 +103,18 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
   const cellUpdates = main.cellUpdates + (companion?.cellUpdates ?? 0)
   const { state, maps, traces } = main
   const errorEstimateBytes = companion ? companion.state + companion.maps + companion.traces : 0
+  const { waves, fields } = envelopeCounts(config)
+  const network = waves !== PLAIN_WAVES || fields !== PLAIN_FIELDS
   const cellUpdatesPerS =
     CELL_UPDATES_PER_S_SVEA *
+    (network ? (SPEED_FACTOR_WAVE_NETWORK * (PLAIN_WAVES + PLAIN_FIELDS)) / (waves + fields) : 1) *
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr ? SPEED_FACTOR_KERR : 1)
   return {
     channels,
+    waves,
+    acousticFields: fields,
     realisations,
     cells: grid.nz,
     steps: grid.nt,
@@ -113,7 +139,11 @@ function runCost(config: SimulationConfig, grid: GridCounts, realisations: numbe
   // Counted like the solver's own counter: every node (nz + 1) at every time sample (nt + 1).
   const nodes = grid.nz + 1
   const samples = grid.nt + 1
-  const stateBytesPerCell = STATE_BYTES_PER_CELL + (config.options.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
+  // State, traces and maps scale with the envelopes per cell: 2 waves and 1 field in the plain scheme.
+  const { waves, fields } = envelopeCounts(config)
+  const envelopeRatio = (waves + fields) / (PLAIN_WAVES + PLAIN_FIELDS)
+  const stateBytesPerCell =
+    STATE_BYTES_PER_CELL * envelopeRatio + (config.options.higherOrderAcoustic ? STATE_BYTES_PER_CELL_HIGHER_ORDER : 0)
   // A storage run also integrates its reference without the read pulse from the read pulse's arrival on,
   // with traces of its own (solver/storage-reference.ts).
   const startNs = storageReferenceStartNs(config)
@@ -122,9 +152,9 @@ function runCost(config: SimulationConfig, grid: GridCounts, realisations: numbe
   return {
     cellUpdates: channels * realisations * nodes * (samples + referenceSamples),
     state: channels * nodes * stateBytesPerCell * (startNs === null ? 1 : 2),
-    maps: channels * MAPS_PER_CHANNEL * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL,
+    maps: channels * MAPS_PER_CHANNEL * envelopeRatio * Math.min(samples, config.grid.mapRows) * Math.min(nodes, config.grid.mapCols) * MAP_BYTES_PER_PIXEL,
     // Axes (t and z, float64) count with the traces.
-    traces: channels * samples * TRACE_BYTES_PER_STEP + referenceTraces + 8 * (samples + nodes),
+    traces: channels * samples * TRACE_BYTES_PER_STEP * (waves / PLAIN_WAVES) + referenceTraces + 8 * (samples + nodes),
   }
 }
 
