@@ -35,6 +35,11 @@ const FIELD_NAMES: Record<string, string> = {
   pulseIndex: 'pulse it follows',
   fromFwhm: 'start (widths)',
   toFwhm: 'end (widths)',
+  modulation: 'frequency modulation',
+  rateMHz: 'rate',
+  excursionMHz: 'excursion',
+  delayNs: 'delay',
+  broadband: 'broadband source',
 }
 
 export function describeIssuePath(path: readonly PropertyKey[], channelCount: number): string {

@@ -6,6 +6,7 @@ import { pulseFeatureNs, type SimulationConfig } from './simulation-config'
 import type { Waveguide } from './waveguide'
 import { MIN_AUTO_STEPS } from './grid-limits'
 import { shortestFeaturePath, strongestPowerPath, widestOffsetPath } from './grid-binding'
+import { SOURCE_GRID_RULES, sourceStepBound } from './source-grid-rules'
 
 /** Rates of the coupled-mode equations in SI units (see docs/model.md, conventions). */
 export interface BrillouinRates {
@@ -139,6 +140,14 @@ export function chooseGrid(config: SimulationConfig): GridChoice {
   if (config.options.higherOrderAcoustic) {
     const dt = 1 / (GRID_RULES.stepsPerAcousticPeriod * ghzToHz(wg.brillouinShiftGHz))
     bounds.push({ dtS: dt, reason: `higher-order acoustic term: Δt ≤ 1/(20 ν_B) = ${ps(dt)}`, field: 'options.higherOrderAcoustic' })
+  }
+  const source = sourceStepBound(config)
+  if (source) {
+    const reason =
+      source.kind === 'modulation'
+        ? `frequency modulation: ${SOURCE_GRID_RULES.samplesPerCarsonBandwidth} steps per Carson bandwidth 2(Δf + f_m) gives Δt ≤ ${ps(source.dtS)}`
+        : `broadband source: 2πΔν·Δt ≤ ${SOURCE_GRID_RULES.phaseVariancePerStep} rad² gives Δt ≤ ${ps(source.dtS)}`
+    bounds.push({ dtS: source.dtS, reason, field: source.path.join('.') })
   }
   let maxDq = 0
   for (const a of config.channels) for (const b of config.channels) maxDq = Math.max(maxDq, Math.abs(channelMismatchPerM(config, a.offsetGHz - b.offsetGHz)))

@@ -1,5 +1,6 @@
 // Pulse envelopes shared by the solver (input sampling) and the browser (input preview).
 import type { PortInput, Pulse } from './pulse'
+import { applySourcePhase } from './source-phase'
 
 const LN2 = Math.LN2
 /** sech² power FWHM = 2·ln(1+√2)·T₀. */
@@ -51,6 +52,7 @@ export function pulseAmplitude(p: Pulse, tNs: number): number {
  * Interleaved complex trace of one port. The continuous background adds coherently (it is leakage of the
  * same laser through the modulator) with phase 0. A pulse carries e^{i(φ − 2πδ(t − t₀))}: the phase is
  * the carrier phase at the pulse centre, and a spectral offset +δ gives an envelope ∝ e^{−iδt} (docs/model.md, conventions).
+ * A frequency modulation or a broadband source multiplies the whole field by its phase factor (source-phase.ts).
  */
 export function sampleInput(port: PortInput, nt: number, dtS: number): Float64Array {
   const out = new Float64Array(2 * (nt + 1))
@@ -69,5 +71,6 @@ export function sampleInput(port: PortInput, nt: number, dtS: number): Float64Ar
       out[2 * n + 1] += a * Math.sin(ph)
     }
   }
+  applySourcePhase(out, dtNs, port.modulation, port.broadband)
   return out
 }

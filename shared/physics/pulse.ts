@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { safeText } from '../api/text'
+import { BroadbandSource, FrequencyModulation } from './source-modulation'
 
 const finite = () => z.number().finite()
 
@@ -51,9 +52,14 @@ export type Pulse = z.infer<typeof Pulse>
 export type PulseShape = Pulse['shape']
 export const PULSE_SHAPES = ['gaussian', 'sech2', 'superGaussian', 'rectangular', 'sampled'] as const
 
-/** Everything launched into one port: a list of pulses plus a continuous leak (a modulator's finite extinction). */
+/**
+ * Everything launched into one port: a list of pulses plus a continuous leak (a modulator's finite extinction),
+ * optionally with the source's frequency modulation and random phase applied to the whole field.
+ */
 export const PortInput = z.object({
   pulses: z.array(Pulse).max(2000).default([]),
   backgroundPowerW: finite().min(0).max(1e6).default(0).describe('Continuous power between pulses (W)'),
+  modulation: FrequencyModulation.optional().describe('Sinusoidal frequency modulation of the source'),
+  broadband: BroadbandSource.optional().describe('Random phase of a broadband source'),
 })
 export type PortInput = z.infer<typeof PortInput>

@@ -5,6 +5,7 @@ import { waveSetIssues } from './wave-set-rules'
 import { truncationMessage } from './pulse-truncation'
 import { MIN_TIME_STEP_PS, MIN_WINDOW_NS, MIN_WINDOW_STEPS } from './grid-limits'
 import { safeText } from '../api/text'
+import { sourceStepProblem } from './source-grid-rules'
 import { CascadeSettings } from './resonances'
 
 const finite = () => z.number().finite()
@@ -197,6 +198,10 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
     if (c.grid.timeStepPs > maxPs) {
       ctx.addIssue({ code: 'custom', path: ['grid', 'timeStepPs'], message: `With the higher-order acoustic term the step must be ≤ ${maxPs.toPrecision(3)} ps (1/(20 ν_B))` })
     }
+  }
+  if (c.grid.timeStepPs !== undefined) {
+    const coarse = sourceStepProblem(c, c.grid.timeStepPs)
+    if (coarse) ctx.addIssue({ code: 'custom', path: ['grid', 'timeStepPs'], message: coarse })
   }
   if (c.grid.timeStepPs !== undefined && (c.windowNs * 1000) / c.grid.timeStepPs < MIN_WINDOW_STEPS) {
     ctx.addIssue({

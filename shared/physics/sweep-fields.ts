@@ -1,6 +1,7 @@
 // The configuration fields a sweep may vary: label, unit, where in SimulationConfig the value goes, and how
 // to set and read it. One list for the sweep form, the API and the CSV header.
 import type { Pulse } from './pulse'
+import type { FrequencyModulation } from './source-modulation'
 import type { SimulationConfig } from './simulation-config'
 
 export const SWEEP_FIELD_IDS = [
@@ -14,6 +15,9 @@ export const SWEEP_FIELD_IDS = [
   'lengthM',
   'linewidthMHz',
   'lossDbPerM',
+  'modulationRateMHz',
+  'modulationExcursionMHz',
+  'modulationDelayNs',
 ] as const
 export type SweepFieldId = (typeof SWEEP_FIELD_IDS)[number]
 
@@ -42,6 +46,9 @@ export const SWEEP_FIELDS: readonly SweepField[] = [
   { id: 'lengthM', label: 'Waveguide length', unit: 'm', path: 'waveguide.lengthM', needsPulseLabel: false, positive: true, help: 'Interaction length L' },
   { id: 'linewidthMHz', label: 'Brillouin linewidth', unit: 'MHz', path: 'waveguide.linewidthMHz', needsPulseLabel: false, positive: true, help: 'Gain linewidth Δν_B (FWHM); sets the phonon lifetime' },
   { id: 'lossDbPerM', label: 'Optical loss', unit: 'dB/m', path: 'waveguide.lossDbPerM', needsPulseLabel: false, positive: false, help: 'Propagation loss of both optical waves' },
+  { id: 'modulationRateMHz', label: 'Modulation rate', unit: 'MHz', path: 'channels[*].{pump,stokes}.modulation.rateMHz', needsPulseLabel: false, positive: true, help: 'Rate f_m of every frequency-modulated input; sets the spacing of correlation peaks' },
+  { id: 'modulationExcursionMHz', label: 'Frequency excursion', unit: 'MHz', path: 'channels[*].{pump,stokes}.modulation.excursionMHz', needsPulseLabel: false, positive: false, help: 'Excursion Δf of every frequency-modulated input; sets the width of correlation peaks' },
+  { id: 'modulationDelayNs', label: 'Stokes modulation delay', unit: 'ns', path: 'channels[*].stokes.modulation.delayNs', needsPulseLabel: false, positive: false, signed: true, help: 'Delay of the Stokes input’s modulation; moves the correlation peaks along the guide' },
 ]
 
 export function sweepField(id: SweepFieldId): SweepField {
@@ -65,9 +72,16 @@ export function pulseLabels(config: SimulationConfig): string[] {
   return [...out]
 }
 
+/** Every frequency-modulated input (both ports of every channel, or the Stokes ports only). */
+function modulations(config: SimulationConfig, stokesOnly = false): FrequencyModulation[] {
+  return config.channels.flatMap((c) => (stokesOnly ? [c.stokes] : [c.pump, c.stokes])).flatMap((p) => (p.modulation ? [p.modulation] : []))
+}
+
 /** Why the field cannot be swept on this config, or null when it can. */
 export function fieldProblem(config: SimulationConfig, id: SweepFieldId, pulseLabel?: string): string | null {
   const f = sweepField(id)
+  if (id === 'modulationDelayNs' && modulations(config, true).length === 0) return 'The base configuration has no frequency-modulated Stokes input'
+  if ((id === 'modulationRateMHz' || id === 'modulationExcursionMHz') && modulations(config).length === 0) return 'The base configuration has no frequency-modulated input'
   if (!f.needsPulseLabel) return null
   if (!pulseLabel?.trim()) return `${f.label} needs the label of the pulse(s) to vary`
   const pulses = labelledPulses(config, pulseLabel)
@@ -121,6 +135,15 @@ export function applySweepValue(config: SimulationConfig, id: SweepFieldId, valu
     case 'lossDbPerM':
       c.waveguide.lossDbPerM = value
       break
+    case 'modulationRateMHz':
+      for (const m of modulations(c)) m.rateMHz = value
+      break
+    case 'modulationExcursionMHz':
+      for (const m of modulations(c)) m.excursionMHz = value
+      break
+    case 'modulationDelayNs':
+      for (const m of modulations(c, true)) m.delayNs = value
+      break
   }
   return c
 }
@@ -149,5 +172,11 @@ export function readSweepValue(config: SimulationConfig, id: SweepFieldId, pulse
       return config.waveguide.linewidthMHz
     case 'lossDbPerM':
       return config.waveguide.lossDbPerM
+    case 'modulationRateMHz':
+      return modulations(config)[0]?.rateMHz ?? null
+    case 'modulationExcursionMHz':
+      return modulations(config)[0]?.excursionMHz ?? null
+    case 'modulationDelayNs':
+      return modulations(config, true)[0]?.delayNs ?? null
   }
 }
