@@ -1,0 +1,180 @@
+/*
+ * Optical power spectrum of one port trace: a complex envelope a_n = A(nΔt) in √W, n = 0 … N−1, about the
+ * port's carrier. Welch's averaged periodogram (Welch 1967, IEEE Trans. Audio Electroacoust. 15, 70) with
+ * segments of M samples (a power of two, at most MAX_SEGMENT), hop H = M/4 (75 % overlap) and the periodic
+ * Hann window w_m = sin²(πm/M):
+ *
+ *   X_s(ν_k) = Σ_m w_m a_{sH + m − (M − H)} e^{+i2πkm/M},   ν_k = k/(MΔt),  k = −M/2 … M/2 − 1
+ *   S(ν_k)   = Δt Σ_s |X_s(ν_k)|² / (3N/2)                   (W/Hz; shown as dBm/GHz = 10·log10(S) + 120)
+ *
+ * The sign of the exponent follows the exp(−iωt) convention of docs/model.md: light at carrier + δ has an
+ * envelope ∝ e^{−i2πδt}, and lands at ν = +δ. The record is padded with M − H zeros at both ends, so every
+ * sample lies in exactly four segments and Σ_s w²_{n−sH} = 3/2 for every n (sin⁴ summed over four quarter
+ * shifts). Hence Parseval holds exactly for any trace, pulsed or not:  Σ_k S(ν_k)·Δν = (1/N) Σ_n |a_n|²  (mean
+ * power), Δν = 1/(MΔt). A pulse shorter than a segment reads its energy spectral density over the record
+ * length, S ≈ |Ã(ν)|²/(NΔt); a tone of power P at a bin centre reads S = P/RBW, where the resolution bandwidth
+ * RBW = ENBW·Δν and the Hann window's equivalent noise bandwidth is 1.5 bins (Harris 1978, Proc. IEEE 66, 51,
+ * table 1). The segments that overlap the record's ends see part of a segment of zeros: a tone's peak reads
+ * low by about 0.21·M/N of its power, and a tone present at the ends gains a skirt from its truncation.
+ */
+import FFT from 'fft.js'
+
+/** Longest segment: at most this many points come out, whatever the record length (common practice). */
+export const MAX_SEGMENT = 4096
+/** Shortest segment: shorter records are zero-padded up to it. */
+export const MIN_SEGMENT = 16
+/** Hann: Σw² M / (Σw)² = (3M/8)·M / (M/2)² (Harris 1978, table 1). */
+export const HANN_ENBW_BINS = 1.5
+/** Below this mean power (10¹¹ times less than one photon per second at 1550 nm) a port is dark. */
+export const DARK_POWER_W = 1e-30
+/** Values more than this far below the peak are reported at that floor (double-precision FFT noise lies ~290 dB down). */
+export const DYNAMIC_RANGE_DB = 200
+export const SPECTRUM_WINDOW = 'Hann (periodic)'
+export const SPECTRUM_OVERLAP = 0.75
+
+export interface SpectrumOptions {
+  /** Longest segment in samples (a power of two); default MAX_SEGMENT. */
+  maxSegment?: number
+}
+
+export interface PortSpectrum {
+  kind: 'spectrum'
+  /** Offset from the port's carrier (Hz), negative to positive, bin step Δν = 1/(MΔt). */
+  offsetHz: Float64Array
+  /** Power spectral density in dBm/GHz, floored at peak − DYNAMIC_RANGE_DB. */
+  psdDbmPerGHz: Float64Array
+  peakDbmPerGHz: number
+  floorDbmPerGHz: number
+  binHz: number
+  /** ENBW × bin width. */
+  rbwHz: number
+  segmentSamples: number
+  segments: number
+  meanPowerW: number
+}
+export interface DarkPort {
+  kind: 'dark'
+  message: string
+  meanPowerW: number
+}
+export type SpectrumResult = PortSpectrum | DarkPort
+
+export const NO_LIGHT = 'No light at this port'
+
+/** Largest power of two ≤ n, within [MIN_SEGMENT, maxSegment]. */
+export function segmentLength(samples: number, maxSegment = MAX_SEGMENT): number {
+  let m = MIN_SEGMENT
+  while (m * 2 <= Math.min(samples, maxSegment)) m *= 2
+  return m
+}
+
+/**
+ * Welch accumulation that can run in slices (advance) so a page stays responsive on long traces;
+ * powerSpectrum() below runs it in one go.
+ */
+export class SpectrumAccumulator {
+  readonly samples: number
+  readonly segmentSamples: number
+  readonly segments: number
+  readonly meanPowerW: number
+  private readonly hop: number
+  private readonly window: Float64Array
+  private readonly fft: FFT
+  private readonly input: number[]
+  private readonly output: number[]
+  private readonly sum: Float64Array
+  private next = 0
+
+  constructor(
+    private readonly field: ArrayLike<number>,
+    private readonly dtS: number,
+    opts: SpectrumOptions = {},
+  ) {
+    if (!(dtS > 0) || !Number.isFinite(dtS)) throw new RangeError('The time step must be a positive number')
+    if (field.length % 2 !== 0 || field.length === 0) throw new RangeError('A complex trace needs (re, im) pairs')
+    this.samples = field.length / 2
+    let energy = 0
+    for (let i = 0; i < field.length; i++) energy += field[i] * field[i]
+    if (!Number.isFinite(energy)) throw new RangeError('The trace holds values that are not finite numbers')
+    this.meanPowerW = energy / this.samples
+    const m = segmentLength(this.samples, opts.maxSegment)
+    this.segmentSamples = m
+    this.hop = m / 4
+    // Segment s covers samples sH − (M − H) … sH + H − 1, so sample n lies in segments ⌊n/H⌋ … ⌊n/H⌋ + 3.
+    this.segments = Math.floor((this.samples - 1) / this.hop) + 4
+    this.window = new Float64Array(m)
+    for (let j = 0; j < m; j++) this.window[j] = Math.sin((Math.PI * j) / m) ** 2
+    this.fft = new FFT(m)
+    this.input = this.fft.createComplexArray()
+    this.output = this.fft.createComplexArray()
+    this.sum = new Float64Array(m)
+  }
+
+  get done(): boolean {
+    return this.next >= this.segments || this.meanPowerW < DARK_POWER_W
+  }
+
+  /** Fraction of the segments accumulated. */
+  get progress(): number {
+    return this.done ? 1 : this.next / this.segments
+  }
+
+  /** Accumulates up to `count` more segments; true when all are done. */
+  advance(count: number): boolean {
+    const { segmentSamples: m, hop, window: w, input, output, field, sum } = this
+    const end = Math.min(this.segments, this.next + count)
+    for (; this.next < end && !this.done; this.next++) {
+      const start = this.next * hop - (m - hop)
+      for (let j = 0; j < m; j++) {
+        const n = start + j
+        const inside = n >= 0 && n < this.samples
+        // Conjugated input: the forward transform then gives conj(X_s), whose |·|² is the same.
+        input[2 * j] = inside ? w[j] * field[2 * n] : 0
+        input[2 * j + 1] = inside ? -w[j] * field[2 * n + 1] : 0
+      }
+      this.fft.transform(output, input)
+      for (let k = 0; k < m; k++) sum[k] += output[2 * k] ** 2 + output[2 * k + 1] ** 2
+    }
+    return this.done
+  }
+
+  result(): SpectrumResult {
+    if (this.meanPowerW < DARK_POWER_W) return { kind: 'dark', message: NO_LIGHT, meanPowerW: this.meanPowerW }
+    if (!this.done) throw new Error('The spectrum is not finished')
+    const m = this.segmentSamples
+    const binHz = 1 / (m * this.dtS)
+    const scale = this.dtS / (1.5 * this.samples)
+    const offsetHz = new Float64Array(m)
+    const psd = new Float64Array(m)
+    let peak = -Infinity
+    for (let j = 0; j < m; j++) {
+      // fftshift: bin k = j − M/2 sits at index (k + M) mod M of the transform.
+      const k = (j + m / 2) % m
+      offsetHz[j] = (j - m / 2) * binHz
+      const s = this.sum[k] * scale
+      psd[j] = s > 0 ? 10 * Math.log10(s) + 120 : -Infinity
+      if (psd[j] > peak) peak = psd[j]
+    }
+    const floor = peak - DYNAMIC_RANGE_DB
+    for (let j = 0; j < m; j++) if (!(psd[j] >= floor)) psd[j] = floor
+    return {
+      kind: 'spectrum',
+      offsetHz,
+      psdDbmPerGHz: psd,
+      peakDbmPerGHz: peak,
+      floorDbmPerGHz: floor,
+      binHz,
+      rbwHz: HANN_ENBW_BINS * binHz,
+      segmentSamples: m,
+      segments: this.segments,
+      meanPowerW: this.meanPowerW,
+    }
+  }
+}
+
+/** The whole spectrum at once (solver, tests). */
+export function powerSpectrum(field: ArrayLike<number>, dtS: number, opts: SpectrumOptions = {}): SpectrumResult {
+  const acc = new SpectrumAccumulator(field, dtS, opts)
+  acc.advance(acc.segments)
+  return acc.result()
+}
