@@ -1,0 +1,45 @@
+// The detuning axis of a gain-spectrum scan: ±3 linewidths (FWHM) around the main resonance, or, with
+// several backward resonances, from the lowest line − 3 of its linewidths to the highest + 3 of its own.
+// At ±3 FWHM a Lorentzian is down to 1/37 of its peak, so the wings are visible on a dB axis.
+import type { SweepAxis } from '../api/sweeps'
+import { MAX_AXIS_VALUES } from '../api/sweeps'
+import { gainLines } from './gain-spectrum'
+import type { Waveguide } from './waveguide'
+
+/** How far past each line the scan reaches, in that line's FWHM. */
+export const SCAN_LINEWIDTHS = 3
+/** Points of a scan over one line: 41 puts a point every 0.15 FWHM, ten inside the line's FWHM. */
+export const SCAN_MIN_POINTS = 41
+/** Wanted spacing in units of the narrowest FWHM, so every line of a wide multi-line scan is resolved. */
+const STEP_PER_LINEWIDTH = 1 / 3
+
+export interface GainScanPlan {
+  startMHz: number
+  stopMHz: number
+  count: number
+  stepMHz: number
+  /** How many backward lines the range covers. */
+  lines: number
+  axis: SweepAxis
+}
+
+export function gainScanPlan(w: Pick<Waveguide, 'brillouinShiftGHz' | 'linewidthMHz' | 'gainCoefficientMPerW' | 'additionalResonances'>): GainScanPlan {
+  const lines = gainLines(w)
+  const startMHz = Math.min(...lines.map((l) => l.centreMHz - SCAN_LINEWIDTHS * l.linewidthMHz))
+  const stopMHz = Math.max(...lines.map((l) => l.centreMHz + SCAN_LINEWIDTHS * l.linewidthMHz))
+  const narrowest = Math.min(...lines.map((l) => l.linewidthMHz))
+  const wanted = Math.ceil((stopMHz - startMHz) / (narrowest * STEP_PER_LINEWIDTH)) + 1
+  // Odd counts keep a point on the main line's centre when the range is symmetric about it.
+  const count = Math.min(MAX_AXIS_VALUES - 1, Math.max(SCAN_MIN_POINTS, wanted | 1))
+  const round = (x: number) => Number(x.toPrecision(6))
+  const start = round(startMHz)
+  const stop = round(stopMHz)
+  return {
+    startMHz: start,
+    stopMHz: stop,
+    count,
+    stepMHz: (stop - start) / (count - 1),
+    lines: lines.length,
+    axis: { field: 'detuningMHz', values: { kind: 'linear', start, stop, count } },
+  }
+}
