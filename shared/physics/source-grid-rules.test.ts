@@ -1,0 +1,77 @@
+import { describe, expect, it } from 'vitest'
+import { chooseGrid } from './grid-step'
+import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
+import { describeIssuePath } from '../api/issue-path-labels'
+import { applySweepValue, fieldProblem, readSweepValue } from './sweep-fields'
+
+const waveguide = { name: 'test fibre', lengthM: 20, groupIndex: 1.468, effectiveAreaUm2: 80, gainCoefficientMPerW: 5e-11, brillouinShiftGHz: 10.85, linewidthMHz: 25, wavelengthNm: 1550 }
+const config = (port: Record<string, unknown>, extra: Partial<SimulationConfigInput> = {}): SimulationConfigInput => ({
+  waveguide,
+  windowNs: 300,
+  channels: [{ pump: { backgroundPowerW: 0.01, ...port }, stokes: { backgroundPowerW: 0.001 } }],
+  ...extra,
+})
+
+describe('time-step rules of modulated and broadband sources', () => {
+  it('picks ten steps per Carson bandwidth 2(Δf + f_m) (Carson 1922, common practice) and names the excursion', () => {
+    const g = chooseGrid(SimulationConfig.parse(config({ modulation: { rateMHz: 10, excursionMHz: 990 } })))
+    // 1/(10 · 2 · 1000 MHz) = 50 ps, rounded down so that Δz tiles L
+    expect(g.dtS).toBeLessThanOrEqual(50e-12)
+    expect(g.dtS).toBeGreaterThan(49e-12)
+    expect(g.binding.field).toBe('channels.0.pump.modulation.excursionMHz')
+  })
+
+  it('picks 2πΔν·Δt ≤ 0.05 rad² for a broadband source', () => {
+    const g = chooseGrid(SimulationConfig.parse(config({ broadband: { linewidthMHz: 1000, seed: 4 } })))
+    const limitS = 0.05 / (2 * Math.PI * 1e9)
+    expect(g.dtS).toBeLessThanOrEqual(limitS)
+    expect(g.dtS).toBeGreaterThan(0.98 * limitS)
+    expect(g.binding.field).toBe('channels.0.pump.broadband.linewidthMHz')
+  })
+
+  it('refuses a set step coarser than two samples per Carson bandwidth, on the time step, stating the limit', () => {
+    // 2 · 2(990 + 10) MHz = 4 GHz → at most 250 ps
+    const ok = SimulationConfig.safeParse(config({ modulation: { rateMHz: 10, excursionMHz: 990 } }, { grid: { timeStepPs: 250 } }))
+    expect(ok.success).toBe(true)
+    const bad = SimulationConfig.safeParse(config({ modulation: { rateMHz: 10, excursionMHz: 990 } }, { grid: { timeStepPs: 260 } }))
+    expect(bad.success).toBe(false)
+    const issue = bad.error!.issues.find((i) => i.path.join('.') === 'grid.timeStepPs')
+    expect(issue?.message).toMatch(/at most 250 ps.*Carson bandwidth/)
+  })
+
+  it('refuses a set step over which a broadband source diffuses more than 0.5 rad²', () => {
+    // 0.5/(2π · 100 MHz) = 796 ps
+    const bad = SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 100 } }, { grid: { timeStepPs: 800 } }))
+    expect(bad.error?.issues.find((i) => i.path.join('.') === 'grid.timeStepPs')?.message).toMatch(/at most 796 ps/)
+    expect(SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 100 } }, { grid: { timeStepPs: 790 } })).success).toBe(true)
+  })
+
+  it('refuses a zero modulation rate and names the field in plain words', () => {
+    const bad = SimulationConfig.safeParse(config({ modulation: { rateMHz: 0, excursionMHz: 100 } }))
+    const issue = bad.error!.issues[0]
+    expect(issue.message).toBe('must be above 0')
+    expect(describeIssuePath(issue.path, 1)).toBe('Pump, frequency modulation, rate')
+  })
+})
+
+describe('sweeping the modulation', () => {
+  const base = SimulationConfig.parse({
+    ...config({ modulation: { rateMHz: 10, excursionMHz: 500 } }),
+    channels: [{ pump: { backgroundPowerW: 0.01, modulation: { rateMHz: 10, excursionMHz: 500 } }, stokes: { backgroundPowerW: 0.001, modulation: { rateMHz: 10, excursionMHz: 500, delayNs: 2 } } }],
+  })
+
+  it('sets rate and excursion on every modulated input and the delay on the Stokes inputs only', () => {
+    const c = applySweepValue(applySweepValue(applySweepValue(base, 'modulationRateMHz', 12), 'modulationExcursionMHz', 700), 'modulationDelayNs', 9)
+    expect(c.channels[0].pump.modulation).toEqual({ rateMHz: 12, excursionMHz: 700, delayNs: 0 })
+    expect(c.channels[0].stokes.modulation).toEqual({ rateMHz: 12, excursionMHz: 700, delayNs: 9 })
+    expect(readSweepValue(c, 'modulationDelayNs')).toBe(9)
+    expect(readSweepValue(base, 'modulationRateMHz')).toBe(10)
+  })
+
+  it('explains why a configuration without modulation cannot sweep it', () => {
+    const plain = SimulationConfig.parse(config({}))
+    expect(fieldProblem(plain, 'modulationRateMHz')).toMatch(/no frequency-modulated input/)
+    expect(fieldProblem(plain, 'modulationDelayNs')).toMatch(/no frequency-modulated Stokes input/)
+    expect(fieldProblem(base, 'modulationDelayNs')).toBeNull()
+  })
+})
