@@ -3,7 +3,7 @@
 import { randomUUID } from 'node:crypto'
 import { hostname } from 'node:os'
 import type PgBoss from 'pg-boss'
-import type { Pool, PoolClient } from 'pg'
+import type { Pool } from 'pg'
 import type { Logger } from '../logger'
 import { RUN_CANCEL_CHANNEL } from '../modules/runs/run-events.repo'
 import { POLL_INTERVAL_S, RUN_QUEUE } from './queues'
@@ -11,6 +11,7 @@ import { ABORT_GRACE_MS, registerSolverPool, type RunHandle, type RunOutcome } f
 import { SolverPool } from './solver-pool'
 import { runSimulationHandler } from './handlers/run-simulation'
 import { releaseRun } from './requeue'
+import { holdListen } from '../db/held-listen'
 
 /** How often the workers row is refreshed (the queue view counts workers seen in the last minute). */
 const PRESENCE_MS = 10_000
@@ -35,7 +36,6 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
   const log = o.log.child({ workerId: id })
   const active = new Map<string, RunHandle>()
   const jobs = new Map<string, string>()
-  let stopping = false
 
   const presence = async () =>
     o.pool.query(
@@ -46,50 +46,16 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
   await presence()
   const presenceTimer = setInterval(() => presence().catch((err) => log.warn({ err }, 'presence update failed')), PRESENCE_MS)
 
-  // Cancels reach us by NOTIFY so the solver stops within a second, not at the next heartbeat. A database
-  // restart drops the connection: it is destroyed once (never handed back twice) and reopened.
-  let listener: { release: () => void } | null = null
-  let retry: NodeJS.Timeout | null = null
-  const listenLater = () => {
-    if (!stopping && !retry) retry = setTimeout(() => ((retry = null), void listen()), 1_000)
-  }
-  const listen = async () => {
-    let c: PoolClient
-    try {
-      c = await o.pool.connect()
-    } catch (err) {
-      log.warn({ err }, 'listen for cancels failed; retrying')
-      return listenLater()
-    }
-    let handedBack = false
-    const handBack = (err?: Error) => {
-      if (handedBack) return
-      handedBack = true
-      c.removeListener('notification', onNotification)
-      c.removeListener('error', onError)
-      // Destroyed, not pooled: a late socket error must still find a listener or it ends the process.
-      c.on('error', () => {})
-      c.release(err ?? true)
-    }
-    const onNotification = (n: { channel: string; payload?: string }) => {
-      if (n.channel === RUN_CANCEL_CHANNEL && n.payload) active.get(n.payload)?.abort('cancelled')
-    }
-    const onError = (err: Error) => {
-      if (listener?.release === handBack) listener = null
-      handBack(err)
-      listenLater()
-    }
-    c.on('notification', onNotification)
-    c.on('error', onError)
-    try {
-      await c.query(`listen ${RUN_CANCEL_CHANNEL}`)
-    } catch (err) {
-      handBack(err as Error)
-      return listenLater()
-    }
-    if (!handedBack) listener = { release: handBack }
-  }
-  await listen()
+  // Cancels reach us by NOTIFY so the solver stops within a second, not at the next heartbeat.
+  const cancels = await holdListen({
+    pool: o.pool,
+    channel: RUN_CANCEL_CHANNEL,
+    name: 'listen for cancels',
+    log,
+    onNotification: (runId) => {
+      if (runId) active.get(runId)?.abort('cancelled')
+    },
+  })
 
   // Solver threads are started now and kept: each takes one run at a time (the work() loops below never
   // hold more runs than there are threads). Runs are taken only once the threads are loaded, so a
@@ -124,7 +90,6 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
     id,
     busy: () => active.size,
     async stop() {
-      stopping = true
       await o.boss.offWork(RUN_QUEUE)
       // Runs in hand go back to the queue at once rather than waiting for the watchdog.
       const inHand = [...active.values()]
@@ -138,9 +103,7 @@ export async function startWorker(o: WorkerOptions): Promise<RunWorker> {
       registerSolverPool(id, null)
       await solvers.close()
       await o.pool.query(`delete from workers where id = $1`, [id]).catch(() => {})
-      if (retry) clearTimeout(retry)
-      listener?.release()
-      listener = null
+      await cancels.stop()
     },
   }
 }

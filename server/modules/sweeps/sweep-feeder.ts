@@ -34,6 +34,7 @@ import { bossDb } from '../../jobs/requeue'
 import { inTransaction } from '../../jobs/run-store'
 import { RUN_EVENTS_CHANNEL } from '../runs/run-events.repo'
 import { closeFinishedSweeps } from './sweep-finish'
+import { holdListen } from '../../db/held-listen'
 
 export { SWEEP_POINT_PRIORITY }
 /** pg_try_advisory_xact_lock key: "swep". */
@@ -179,24 +180,9 @@ export async function startSweepFeeder(o: FeederOptions): Promise<SweepFeeder> {
     }, COALESCE_MS)
   }
 
-  let listener: PoolClient | null = null
-  const listen = async () => {
-    try {
-      const c = await o.pool.connect()
-      c.on('notification', poke)
-      c.on('error', () => {
-        c.release(true)
-        listener = null
-        if (!stopped) setTimeout(() => void listen(), 1_000)
-      })
-      await c.query(`listen ${RUN_EVENTS_CHANNEL}`)
-      listener = c
-    } catch (err) {
-      o.log.warn({ err }, 'sweep feeder could not listen for run events; retrying')
-      if (!stopped) setTimeout(() => void listen(), 1_000)
-    }
-  }
-  await listen()
+  // Missed events while the connection was away are made up for by the next interval's feed, and at once
+  // after a reconnect.
+  const listener = await holdListen({ pool: o.pool, channel: RUN_EVENTS_CHANNEL, name: 'sweep feeder', log: o.log, onNotification: poke, onReconnect: poke })
   const interval = setInterval(poke, o.intervalMs ?? FEED_INTERVAL_MS)
   interval.unref()
   void feedNow()
@@ -209,10 +195,7 @@ export async function startSweepFeeder(o: FeederOptions): Promise<SweepFeeder> {
       clearInterval(interval)
       clearTimeout(timer)
       await running
-      if (listener) {
-        await listener.query(`unlisten ${RUN_EVENTS_CHANNEL}`).catch(() => {})
-        listener.release()
-      }
+      await listener.stop()
     },
   }
 }
