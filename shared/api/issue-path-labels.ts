@@ -40,6 +40,11 @@ const FIELD_NAMES: Record<string, string> = {
   excursionMHz: 'excursion',
   delayNs: 'delay',
   broadband: 'broadband source',
+  startM: 'start',
+  endM: 'end',
+  shiftOffsetMHz: 'shift change',
+  temperatureOffsetK: 'temperature change',
+  strainMicro: 'strain',
 }
 
 export function describeIssuePath(path: readonly PropertyKey[], channelCount: number): string {
@@ -54,6 +59,9 @@ export function describeIssuePath(path: readonly PropertyKey[], channelCount: nu
       i += 2
     } else if (k === 'pump' || k === 'stokes') {
       parts.push(k === 'pump' ? 'pump' : 'Stokes')
+    } else if (k === 'profile' && path[i + 1] === 'segments' && typeof path[i + 2] === 'number') {
+      parts.push(`profile segment ${(path[i + 2] as number) + 1}`)
+      i += 2
     } else if (k === 'energyWindows' && typeof path[i + 1] === 'number') {
       parts.push(`energy window ${(path[i + 1] as number) + 1}`)
       i++

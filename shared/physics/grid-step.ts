@@ -7,6 +7,7 @@ import type { Waveguide } from './waveguide'
 import { MIN_AUTO_STEPS } from './grid-limits'
 import { shortestFeaturePath, strongestPowerPath, widestOffsetPath } from './grid-binding'
 import { SOURCE_GRID_RULES, sourceStepBound } from './source-grid-rules'
+import { profileStepBound } from './profile-grid-rules'
 
 /** Rates of the coupled-mode equations in SI units (see docs/model.md, conventions). */
 export interface BrillouinRates {
@@ -149,6 +150,8 @@ export function chooseGrid(config: SimulationConfig): GridChoice {
         : `broadband source: 2πΔν·Δt ≤ ${SOURCE_GRID_RULES.phaseVariancePerStep} rad² gives Δt ≤ ${ps(source.dtS)}`
     bounds.push({ dtS: source.dtS, reason, field: source.path.join('.') })
   }
+  const feature = profileStepBound(config)
+  if (feature) bounds.push({ dtS: feature.dtS, reason: `longitudinal profile: ${feature.feature.name} spans ≥ 2 cells, Δt ≤ ${ps(feature.dtS)}`, field: feature.feature.path.join('.') })
   let maxDq = 0
   for (const a of config.channels) for (const b of config.channels) maxDq = Math.max(maxDq, Math.abs(channelMismatchPerM(config, a.offsetGHz - b.offsetGHz)))
   if (maxDq > 0) {

@@ -6,6 +6,7 @@ import { truncationMessage } from './pulse-truncation'
 import { MIN_TIME_STEP_PS, MIN_WINDOW_NS, MIN_WINDOW_STEPS } from './grid-limits'
 import { safeText } from '../api/text'
 import { sourceStepProblem } from './source-grid-rules'
+import { profileIssues } from './profile-grid-rules'
 import { CascadeSettings } from './resonances'
 
 const finite = () => z.number().finite()
@@ -164,6 +165,7 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
     }
   })
   for (const issue of waveSetIssues(c)) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message })
+  for (const issue of profileIssues(c)) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message })
   // Cross beats between channels are dropped; that holds only far from the gain line.
   const linewidthGHz = c.waveguide.linewidthMHz / 1000
   for (let i = 0; i < c.channels.length; i++) {

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { safeText } from '../api/text'
 import { BackwardResonance, ForwardResonance, MAX_EXTRA_RESONANCES } from './resonances'
+import { LongitudinalProfile } from './longitudinal-profile'
 
 const finite = () => z.number().finite()
 
@@ -32,6 +33,7 @@ export const Waveguide = z.object({
     .max(MAX_EXTRA_RESONANCES)
     .default([])
     .describe('Forward (co-propagating) acoustic resonances coupling the pump to forward Stokes and anti-Stokes waves'),
+  profile: LongitudinalProfile.optional().describe('Sections along z whose shift, linewidth, gain or loss differ (temperature, strain)'),
 })
 export type Waveguide = z.infer<typeof Waveguide>
 export type WaveguideInput = z.input<typeof Waveguide>
