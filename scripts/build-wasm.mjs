@@ -54,6 +54,8 @@ export function engineModuleText(bytes) {
 async function main() {
   const check = process.argv.includes('--check')
   const t0 = performance.now()
+  // An install without dev dependencies has no compiler: the committed module serves as it is.
+  if (!check && !existsSync(join(ROOT, 'node_modules', 'assemblyscript'))) return console.log('build: no AssemblyScript compiler installed; using the committed wasm engine')
   const text = engineModuleText(await compileEngine())
   const target = join(ROOT, ENGINE_MODULE)
   const current = existsSync(target) ? readFileSync(target, 'utf8') : null

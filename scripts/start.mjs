@@ -34,6 +34,8 @@ if (runStep(null, process.execPath, [...TSX, 'server/db/prepare.ts', '--seed'], 
 // Demo runs of solver/examples, once, for a demo group without runs; the server's worker computes them.
 // Not fatal: the app is usable without them (the script prints why it failed).
 runStep(null, process.execPath, [...TSX, 'server/db/seed-runs.ts'], env)
+// The solver's WebAssembly engine from its AssemblyScript source (rewritten only when the bytes change).
+if (runStep(null, process.execPath, ['scripts/build-wasm.mjs']) !== 0) fail('build: the WebAssembly engine did not build (see above)')
 if (clientBuildStale()) {
   if (runStep('build: client', process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']) !== 0) {
     fail('build: the client did not build (see above)')

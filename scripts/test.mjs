@@ -29,6 +29,8 @@ if (runStep('test: migrate', process.execPath, [...TSX, 'server/db/migrate.ts'],
 if (runStep('test: typecheck', 'npm', ['run', '--silent', 'typecheck']) !== 0) failures.push('typecheck')
 // The dependency arrows, configuration reads, file names and unused code (eslint.config.js).
 if (runStep('test: lint', 'npm', ['run', '--silent', 'lint']) !== 0) failures.push('lint')
+// The committed WebAssembly engine must be the compile of its AssemblyScript source (scripts/build-wasm.mjs).
+if (runStep('test: wasm engine', process.execPath, ['scripts/build-wasm.mjs', '--check']) !== 0) failures.push('wasm engine')
 // The e2e run serves dist/; building it here also proves the client builds.
 if (runStep('test: client build', process.execPath, ['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn']) !== 0) failures.push('client build')
 
