@@ -8,6 +8,8 @@ import { DB_PER_NEPER_POWER, dbPerMToPerM } from './units'
 import { chooseGrid } from './grid-step'
 import { laserSafetyAdvisories, type Advisory } from './laser-safety'
 import { MIN_CELLS_PER_PULSE, physicsAdvisories } from './derived-warnings'
+import { resonanceQuantities, resonanceRows, type ResonanceQuantities } from './resonance-quantities'
+import { resonanceAdvisories } from './resonance-warnings'
 export { DEFAULT_DISPERSION_PS2_PER_KM, MIN_CELLS_PER_PULSE } from './derived-warnings'
 
 export type { Advisory } from './laser-safety'
@@ -79,6 +81,8 @@ export interface DerivedQuantities {
   kerrPhaseRad: number
   temperatureK: number
   thermalOccupation: number
+  /** Further and forward resonances, cascade thresholds and the co-propagating probe (resonance-quantities.ts). */
+  resonanceFigures: ResonanceQuantities
   grid?: GridSummary & { shortestFeatureNs?: number; cellsAcrossShortestPulse?: number }
   rows: DerivedRow[]
   warnings: Advisory[]
@@ -185,6 +189,7 @@ export function deriveQuantities(input: DerivedInput, options: DerivedOptions = 
     kerrPhaseRad: kerrGamma * pumpPowerW * lEff,
     temperatureK,
     thermalOccupation: thermalOccupation(nuBHz, temperatureK),
+    resonanceFigures: resonanceQuantities({ waveguide: w, config: cfg, pumpPowerW, effectiveLengthM: lEff, lossPerM: alpha, mainGainNepers: g0 }),
     rows: [],
     warnings: [],
   }
@@ -206,11 +211,19 @@ export function deriveQuantities(input: DerivedInput, options: DerivedOptions = 
   d.rows = derivedRows(d, w)
   d.warnings = physicsAdvisories(d, w, cfg, options)
   if (cfg) {
+    d.warnings.push(...resonanceAdvisories(d.resonanceFigures, cfg, pumpPowerW))
     const stokesInW = Math.max(0, ...cfg.channels.map((ch) => portPeakW(ch.stokes)))
+    // Every other input is light in the guide too: the co-propagating probe, forward inputs, cascade seeds.
+    const otherInputs = cfg.channels.flatMap((ch) => [...(ch.coProbe ? [ch.coProbe] : []), ...ch.forwardInputs.flatMap((f) => [f.stokes, f.antiStokes])])
+    const seedW = cfg.options.cascade.stokesOrders > 1 ? cfg.options.cascade.seedPowerW : 0
     d.warnings.push(
       ...laserSafetyAdvisories({
-        maxCwPowerW: Math.max(0, ...cfg.channels.flatMap((ch) => [portCwW(ch.pump, cfg.windowNs), portCwW(ch.stokes, cfg.windowNs)])),
-        maxPeakPowerW: Math.max(pumpPowerW, stokesInW),
+        maxCwPowerW: Math.max(
+          seedW,
+          ...cfg.channels.flatMap((ch) => [portCwW(ch.pump, cfg.windowNs), portCwW(ch.stokes, cfg.windowNs)]),
+          ...otherInputs.map((p) => portCwW(p, cfg.windowNs)),
+        ),
+        maxPeakPowerW: Math.max(pumpPowerW, stokesInW, seedW, ...otherInputs.map(portPeakW)),
         effectiveAreaUm2: w.effectiveAreaUm2,
         isFibre: options.isFibre ?? w.lengthM >= 1,
         // Undepleted estimate; depletion caps the true value, so this errs towards warning.
@@ -246,6 +259,7 @@ function derivedRows(d: DerivedQuantities, w: Waveguide): DerivedRow[] {
   add('kerrGammaPerWM', d.kerrGammaPerWM, '1/(W m)', 'Kerr parameter γ', 'γ = n₂ω/(c A_eff)')
   add('kerrPhaseRad', d.kerrPhaseRad, 'rad', 'Kerr phase', 'γ P₀ L_eff')
   add('thermalOccupation', d.thermalOccupation, '–', 'Thermal phonon occupation n_th', `At ${d.temperatureK} K`)
+  for (const r of resonanceRows(d.resonanceFigures, d.pumpPowerW)) add(r.quantity, r.value, r.unit, r.label, r.note)
   if (d.grid) {
     add('timeStepPs', d.grid.dtS * 1e12, 'ps', 'Time step Δt')
     add('spaceStepUm', d.grid.dzM * 1e6, 'µm', 'Space step Δz', 'Δz = v_g Δt')
