@@ -8,10 +8,11 @@
 import { SimulationConfig } from '@shared/physics/simulation-config'
 import { COMPLEX_LAYOUT, type ArrayDescriptor, type ChannelFigures, type FiguresOfMerit, type ResultGrid, type RunStatus, type SimulationManifest, type SolverWarning } from '@shared/physics/simulation-result'
 import { SOLVER_LIMITS, SimulationRun, planGrid } from './driver'
+import { usesWaveNetwork } from '@shared/physics/wave-set'
+import { NetworkRun } from './network/network-run'
 import { planCompanion } from './error-estimate-run'
 import type { ChannelTraces } from './observers/figures-of-merit'
 import { postRunWarnings } from './observers/warnings'
-import { portSpectra, portTracesOf } from './observers/port-spectra'
 import { ENGINE_CHOICES, EngineUnavailableError, type EngineChoice } from './engine/wasm-engine'
 
 export const SOLVER_VERSION = '0.1.0'
@@ -67,8 +68,11 @@ const yieldToLoop = () => new Promise<void>((resolve) => (typeof setImmediate ==
 /** Target wall time of one chunk of steps between abort checks (ms). */
 const CHUNK_MS = 5
 
+/** The plain pump–Stokes run, or the multi-wave run when the configuration has further waves or fields. */
+type Run = SimulationRun | NetworkRun
+
 interface Prepared {
-  run: SimulationRun | null
+  run: Run | null
   failure: SimulationResult | null
 }
 
@@ -89,6 +93,7 @@ function prepare(input: unknown, opts: SimulateOptions): Prepared {
   if (![grid.dtS, grid.dzM].every(Number.isFinite) || grid.dtS <= 0) problems.push({ path: 'grid', message: 'No valid grid could be chosen for this configuration' })
   if (problems.length > 0) return { run: null, failure: failed('The run exceeds the solver limits', problems) }
   try {
+    if (usesWaveNetwork(config)) return { run: new NetworkRun(config, grid), failure: null }
     return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine }), failure: null }
   } catch (err) {
     if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: err.message }]) }
@@ -121,7 +126,7 @@ class Loop {
   readonly t0 = now()
 
   constructor(
-    readonly run: SimulationRun,
+    readonly run: Run,
     readonly opts: SimulateOptions,
   ) {
     const total = run.model.nt + 1
@@ -182,7 +187,7 @@ export async function simulate(config: SimulationConfig, opts: SimulateOptions =
   const plan = planCompanion(config, opts)
   const fine = await simulateOne(config, plan.fineOpts)
   const companion = plan.companionFor(fine)
-  return withPortSpectra(plan.finish(fine, companion ? await simulateOne(companion.config, companion.opts) : null))
+  return plan.finish(fine, companion ? await simulateOne(companion.config, companion.opts) : null)
 }
 
 async function simulateOne(config: SimulationConfig, opts: SimulateOptions): Promise<SimulationResult> {
@@ -209,7 +214,7 @@ export function simulateSync(config: SimulationConfig, opts: SimulateOptions = {
   const plan = planCompanion(config, opts)
   const fine = simulateSyncOne(config, plan.fineOpts)
   const companion = plan.companionFor(fine)
-  return withPortSpectra(plan.finish(fine, companion ? simulateSyncOne(companion.config, companion.opts) : null))
+  return plan.finish(fine, companion ? simulateSyncOne(companion.config, companion.opts) : null)
 }
 
 function simulateSyncOne(config: SimulationConfig, opts: SimulateOptions): SimulationResult {
@@ -229,16 +234,7 @@ function simulateSyncOne(config: SimulationConfig, opts: SimulateOptions): Simul
   return loop.finish('finished', 'Finished')
 }
 
-/** A finished run with the power spectrum of every optical port trace among its arrays (observers/port-spectra.ts). */
-function withPortSpectra(r: SimulationResult): SimulationResult {
-  if (r.status !== 'finished' || !r.manifest.grid) return r
-  const spectra = portSpectra(portTracesOf(r.manifest.arrays, r.arrays, r.timeNs.length), r.manifest.grid.dtS)
-  if (spectra.length === 0) return r
-  const arrays = { ...r.arrays, ...Object.fromEntries(spectra.map((s) => [s.name, s.data])) }
-  return { ...r, arrays, manifest: { ...r.manifest, arrays: [...r.manifest.arrays, ...spectra.map((s) => ({ name: s.name, ...s.descriptor }))] } }
-}
-
-function assemble(run: SimulationRun, status: RunStatus, message: string, wallTimeS: number): SimulationResult {
+function assemble(run: Run, status: RunStatus, message: string, wallTimeS: number): SimulationResult {
   const m = run.model
   const L = run.maps.layout
   const cellUpdates = run.cellUpdates
@@ -271,6 +267,7 @@ function assemble(run: SimulationRun, status: RunStatus, message: string, wallTi
     add(`${ch}_stokes_out`, t.stokesOut, { dtype: 'c16', shape: [nT], units: '√W', description: `Channel ${k + 1} Stokes envelope leaving at z = 0` })
     add(`${ch}_acoustic_final`, finalAcoustic[k], { dtype: 'c16', shape: [m.nodes], units: '√(J/m)', description: `Channel ${k + 1} acoustic envelope b(z) at the end of the run` })
   })
+  if (run instanceof NetworkRun) for (const x of run.extraArrays()) add(x.name, x.data, x.descriptor)
   const red = run.config.grid.mapReduction
   const mapNote = `block ${red} over ${L.rowSteps} steps (${L.samplesPerRow} sampled) × ${L.colNodes} nodes, summed over channels`
   add('map_time_ns', mapTimeNs, { dtype: 'f8', shape: [L.rows], units: 'ns', description: 'Centre time of each map row' })

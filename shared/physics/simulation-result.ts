@@ -58,9 +58,10 @@ const nullableNumber = z.number().nullable()
 /**
  * Why a figure is not given as a number. window-outside-run: the light it measures is expected (partly)
  * outside the simulated time; overlaps-pulse: another pulse's light arrives inside its window;
- * several-pulses: the port carries more than the one pulse the figure describes.
+ * several-pulses: the port carries more than the one pulse the figure describes; other-waves: further waves
+ * (shared/physics/wave-set.ts) trade light with the pair, so a figure of the pair alone does not apply.
  */
-export const NOT_DETERMINED_CODES = ['window-outside-run', 'overlaps-pulse', 'several-pulses'] as const
+export const NOT_DETERMINED_CODES = ['window-outside-run', 'overlaps-pulse', 'several-pulses', 'other-waves'] as const
 export const NotDetermined = z.object({
   /** The figure's key in ChannelFigures, or "energy" for an energy window. */
   figure: z.string(),

@@ -25,6 +25,9 @@ export function mapLayout(nt: number, nodes: number, wantRows: number, wantCols:
   return { rows, cols, rowSteps, colNodes, samplesPerRow: Math.ceil(rowSteps / sampleStride), sampleStride }
 }
 
+/** What the recorder reads of a model: P_p = kappaP·|u|², P_s = rates.kappa·|v|², phonons = |b|²/stokesPhotonJ. */
+export type MapScales = Pick<Model, 'nodes' | 'nCh' | 'nt' | 'kappaP' | 'stokesPhotonJ'> & { rates: { kappa: number } }
+
 export class MapRecorder {
   readonly pumpPowerW: Float32Array
   readonly stokesPowerW: Float32Array
@@ -38,7 +41,7 @@ export class MapRecorder {
 
   constructor(
     readonly layout: MapLayout,
-    private readonly model: Model,
+    private readonly model: MapScales,
     private readonly useMax: boolean,
   ) {
     const n = layout.rows * layout.cols
