@@ -13,6 +13,7 @@ import { NetworkRun } from './network/network-run'
 import { planCompanion } from './error-estimate-run'
 import type { ChannelTraces } from './observers/figures-of-merit'
 import { postRunWarnings } from './observers/warnings'
+import { portSpectra, portTracesOf } from './observers/port-spectra'
 import { ENGINE_CHOICES, EngineUnavailableError, type EngineChoice } from './engine/wasm-engine'
 
 export const SOLVER_VERSION = '0.1.0'
@@ -187,7 +188,7 @@ export async function simulate(config: SimulationConfig, opts: SimulateOptions =
   const plan = planCompanion(config, opts)
   const fine = await simulateOne(config, plan.fineOpts)
   const companion = plan.companionFor(fine)
-  return plan.finish(fine, companion ? await simulateOne(companion.config, companion.opts) : null)
+  return withPortSpectra(plan.finish(fine, companion ? await simulateOne(companion.config, companion.opts) : null))
 }
 
 async function simulateOne(config: SimulationConfig, opts: SimulateOptions): Promise<SimulationResult> {
@@ -214,7 +215,7 @@ export function simulateSync(config: SimulationConfig, opts: SimulateOptions = {
   const plan = planCompanion(config, opts)
   const fine = simulateSyncOne(config, plan.fineOpts)
   const companion = plan.companionFor(fine)
-  return plan.finish(fine, companion ? simulateSyncOne(companion.config, companion.opts) : null)
+  return withPortSpectra(plan.finish(fine, companion ? simulateSyncOne(companion.config, companion.opts) : null))
 }
 
 function simulateSyncOne(config: SimulationConfig, opts: SimulateOptions): SimulationResult {
@@ -232,6 +233,15 @@ function simulateSyncOne(config: SimulationConfig, opts: SimulateOptions): Simul
     }
   }
   return loop.finish('finished', 'Finished')
+}
+
+/** A finished run with the power spectrum of every optical port trace among its arrays (observers/port-spectra.ts). */
+function withPortSpectra(r: SimulationResult): SimulationResult {
+  if (r.status !== 'finished' || !r.manifest.grid) return r
+  const spectra = portSpectra(portTracesOf(r.manifest.arrays, r.arrays, r.timeNs.length), r.manifest.grid.dtS)
+  if (spectra.length === 0) return r
+  const arrays = { ...r.arrays, ...Object.fromEntries(spectra.map((s) => [s.name, s.data])) }
+  return { ...r, arrays, manifest: { ...r.manifest, arrays: [...r.manifest.arrays, ...spectra.map((s) => ({ name: s.name, ...s.descriptor }))] } }
 }
 
 function assemble(run: Run, status: RunStatus, message: string, wallTimeS: number): SimulationResult {
