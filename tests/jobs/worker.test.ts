@@ -218,6 +218,10 @@ describe('the ZIP download', () => {
       expect(csv[0]).toMatch(/^time \(ns\),ch1_pump_in re \(sqrtW\),ch1_pump_in im \(sqrtW\),ch1_pump_in power \(W\),/)
       expect(csv.filter((l) => l).length - 1).toBe(manifest.arrays.find((a: { name: string }) => a.name === 'time_ns').shape[0])
       expect(readFileSync(join(dir, 'x', 'README.txt'), 'utf8')).toMatch(/ch1_stokes_out\.npy\s+<c16/)
+      // The plotting script reads every array with numpy and checks its shape against the manifest.
+      expect(listing).toMatch(/plot_run\.py/)
+      const check = execFileSync('python3', [join(dir, 'x', 'plot_run.py'), '--check'], { encoding: 'utf8' })
+      expect(check).toMatch(new RegExp(`^${manifest.arrays.length} arrays match manifest\\.json; [1-9]\\d* port traces; status finished`))
     } finally {
       rmSync(dir, { recursive: true, force: true })
     }

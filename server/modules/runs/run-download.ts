@@ -1,5 +1,7 @@
 // GET /api/runs/:id/download: a ZIP streamed with archiver holding manifest.json, every array as NPY, the
-// port traces also as CSV, and a README.txt saying what each file holds and in which units.
+// port traces also as CSV, a README.txt saying what each file holds and in which units, and plot_run.py, which
+// draws the traces and maps with matplotlib (SVG, PDF or PNG) from those files.
+import { readFileSync } from 'node:fs'
 import type { Response } from 'express'
 import { ZipArchive } from 'archiver'
 import type { Db } from '../../db/client'
@@ -9,6 +11,9 @@ import { splitComplex } from './array-window'
 import { findArray, type RunRow, type StoredArray } from './runs.repo'
 
 const PORTS = ['pump_in', 'stokes_in', 'pump_out', 'stokes_out'] as const
+
+/** Read once: it is part of the server's code, not of a run. */
+const PLOT_SCRIPT = readFileSync(new URL('./assets/plot_run.py', import.meta.url), 'utf8')
 
 /** ASCII units for spreadsheet headers. */
 const asciiUnits = (u: string) => u.replace('√', 'sqrt')
@@ -56,6 +61,9 @@ export function readmeText(run: RunRow, manifest: RunManifest, csvFiles: string[
     'imaginary parts of the envelope in sqrt(W) and the power |A|^2 in W. Units are in the header row.',
     ...csvFiles.map((f) => `  ${f}`),
     '',
+    'plot_run.py    Draws the port traces and the space-time maps from these files with numpy and matplotlib:',
+    '               python3 plot_run.py [--format svg|pdf|png]   (python3 plot_run.py --check only reads and checks)',
+    '',
   ]
   return lines.join('\n')
 }
@@ -92,5 +100,6 @@ export async function streamRunZip(res: Response, db: Db, run: RunRow, log: Logg
     }
   }
   zip.append(readmeText(run, manifest, csvFiles), { name: 'README.txt' })
+  zip.append(PLOT_SCRIPT, { name: 'plot_run.py', mode: 0o755 })
   await zip.finalize()
 }
