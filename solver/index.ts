@@ -97,7 +97,7 @@ function prepare(input: unknown, opts: SimulateOptions): Prepared {
     if (usesWaveNetwork(config)) return { run: new NetworkRun(config, grid), failure: null }
     return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine }), failure: null }
   } catch (err) {
-    if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: err.message }]) }
+    if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: 'choose the TypeScript engine (ts) or the automatic choice (auto) for this configuration' }]) }
     throw err
   }
 }

@@ -2,20 +2,24 @@
 // with node:util parseArgs. Its tokens are checked here rather than in its strict mode, so every mistake gets
 // a message in our words (which option, what it needs) instead of Node's.
 import { parseArgs as parseArgv } from 'node:util'
+import { ENGINE_CHOICES, type EngineChoice } from '../engine/wasm-engine'
 
 export interface SolveArgs {
   mode: 'solve' | 'schema' | 'help'
   configPath?: string
   outDir?: string
   force: boolean
+  /** Absent: automatic choice. */
+  engine?: EngineChoice
 }
 
 export const USAGE = `Usage:
-  npm run solve -- CONFIG.json --out DIR [--force]   run a simulation, write DIR/manifest.json and one .npy per array
+  npm run solve -- CONFIG.json --out DIR [--force] [--engine E]   run a simulation, write DIR/manifest.json and one .npy per array
   npm run solve -- --schema                          print the JSON Schema of the configuration
 Options:
   --out DIR    output directory (must not exist or be empty, unless --force replaces it)
   --force      replace an existing output directory
+  --engine E   the step engine: auto (default: WebAssembly where it covers the options, else TypeScript), ts or wasm
   --help       this text
 Exit codes: 0 done, 1 the run failed, 2 bad input or over the resource limits, 130 interrupted.`
 
@@ -23,6 +27,7 @@ export class UsageError extends Error {}
 
 const OPTIONS = {
   out: { type: 'string', short: 'o' },
+  engine: { type: 'string' },
   force: { type: 'boolean' },
   schema: { type: 'boolean' },
   help: { type: 'boolean', short: 'h' },
@@ -49,6 +54,11 @@ export function parseArgs(argv: string[]): SolveArgs {
       // --help wins over --schema whatever their order: asking for help never prints the schema.
       else if (t.name === 'help') args.mode = 'help'
       else if (args.mode !== 'help') args.mode = 'schema'
+      continue
+    }
+    if (t.name === 'engine') {
+      if (!ENGINE_CHOICES.includes(t.value as EngineChoice)) throw new UsageError(`--engine takes ${ENGINE_CHOICES.join(', ')}`)
+      args.engine = t.value as EngineChoice
       continue
     }
     // Without '=', a value starting with '-' is most likely the next option, not a directory.

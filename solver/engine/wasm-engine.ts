@@ -22,7 +22,7 @@ export const wasmEngineApplies = fastPathApplies
 /** Why a forced 'wasm' cannot run this model (a sentence for the user), or null when it can. */
 export function engineProblem(choice: EngineChoice, m: Model): string | null {
   if (choice !== 'wasm' || wasmEngineApplies(m)) return null
-  return 'The WebAssembly engine covers one channel with the slowly varying acoustic envelope, no Kerr effect and no thermal noise; choose the TypeScript engine (or automatic choice) for this configuration'
+  return 'The WebAssembly engine covers one channel with the slowly varying acoustic envelope, no Kerr effect and no thermal noise'
 }
 
 interface Exports {
