@@ -3,6 +3,7 @@ import { chooseGrid } from './grid-step'
 import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
 import { describeIssuePath } from '../api/issue-path-labels'
 import { applySweepValue, fieldProblem, readSweepValue } from './sweep-fields'
+import { broadbandCorrelationLengthM, correlationFigures } from './correlation-figures'
 
 const waveguide = { name: 'test fibre', lengthM: 20, groupIndex: 1.468, effectiveAreaUm2: 80, gainCoefficientMPerW: 5e-11, brillouinShiftGHz: 10.85, linewidthMHz: 25, wavelengthNm: 1550 }
 const config = (port: Record<string, unknown>, extra: Partial<SimulationConfigInput> = {}): SimulationConfigInput => ({
@@ -73,5 +74,22 @@ describe('sweeping the modulation', () => {
     expect(fieldProblem(plain, 'modulationRateMHz')).toMatch(/no frequency-modulated input/)
     expect(fieldProblem(plain, 'modulationDelayNs')).toMatch(/no frequency-modulated Stokes input/)
     expect(fieldProblem(base, 'modulationDelayNs')).toBeNull()
+  })
+})
+
+describe('correlation figures shown in the form', () => {
+  it('gives d_m = v_g/(2f_m) and Δz = v_g Δν_B/(2π f_m Δf) (Hotate & Hasegawa 2000)', () => {
+    // n_g = 1.5: v_g = 199 861 638.7 m/s; f_m = 10 MHz → d_m = 9.993 m; Δν_B = 30 MHz, Δf = 3 GHz → Δz = 3.1809 cm (worked by hand)
+    const f = correlationFigures(1.5, 30, 10, 3000)
+    expect(f.peakSpacingM).toBeCloseTo(9.99308, 4)
+    expect(f.peakWidthM!).toBeCloseTo(0.031809, 6)
+    expect(f.widthIsLowerBound).toBe(false)
+    expect(correlationFigures(1.5, 30, 20, 3000).widthIsLowerBound).toBe(true)
+    expect(correlationFigures(1.5, 30, 10, 0).peakWidthM).toBeNull()
+  })
+
+  it('gives a broadband correlation length v_g/(πΔν)', () => {
+    // v_g = c/1.5, Δν = 100 MHz: 199 861 638.7/(π · 10⁸) = 0.636179 m
+    expect(broadbandCorrelationLengthM(1.5, 100)).toBeCloseTo(0.636179, 5)
   })
 })
