@@ -46,7 +46,7 @@ describe('gain-spectrum overlay', () => {
     const cols = s.metrics.filter((m) => m.key === 'peakStokesGainDb')
     const opt = withGainOverlay(lineOption(s, cols, 'png'), s, cols)
     expect(opt.series.map((x) => x.name)).toEqual(['Peak Stokes gain (dB)', CLOSED_FORM_NAME.cw])
-    expect((opt.series[1] as { lineStyle: { type: string } }).lineStyle.type).toBe('solid')
+    expect((opt.series[1].lineStyle as { type: string }).type).toBe('solid')
   })
 
   it('calls a pulsed scan the effective gain and draws the CW curve dashed, at the peak pump power', () => {
@@ -55,7 +55,7 @@ describe('gain-spectrum overlay', () => {
     const cols = s.metrics.filter((m) => m.key === 'peakStokesGainDb')
     const opt = withGainOverlay(lineOption(s, cols, 'png'), s, cols)
     expect(opt.series.map((x) => x.name)).toEqual([EFFECTIVE_GAIN_NAME, CLOSED_FORM_NAME.pulsed])
-    expect((opt.series[1] as { lineStyle: { type: string } }).lineStyle.type).toBe('dashed')
+    expect((opt.series[1].lineStyle as { type: string }).type).toBe('dashed')
     expect(gainOverlay(s)!.pumpPowerW).toBe(0.05)
   })
 

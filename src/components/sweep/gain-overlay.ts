@@ -63,7 +63,7 @@ interface LineChartOption {
  * The line chart with the closed-form curve added on the gain's own y-axis; the gain's points renamed
  * "effective gain" for pulsed runs. Unchanged when the gain is not plotted or the sweep is no gain scan.
  */
-export function withGainOverlay<T extends LineChartOption>(option: T, s: SweepDetail, plotted: MetricColumn[]): T {
+export function withGainOverlay<T extends LineChartOption>(option: T, s: SweepDetail, plotted: MetricColumn[]): Omit<T, 'series'> & { series: LineSeries[] } {
   const o = gainOverlay(s)
   const at = o ? plotted.findIndex((m) => m.key === o.metricKey) : -1
   if (!o || at < 0) return option
@@ -80,5 +80,5 @@ export function withGainOverlay<T extends LineChartOption>(option: T, s: SweepDe
     lineStyle: { width: 1.5, type: o.kind === 'cw' ? 'solid' : 'dashed' },
     data: o.curve,
   })
-  return { ...option, series } as T
+  return { ...option, series }
 }

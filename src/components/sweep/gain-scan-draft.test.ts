@@ -1,0 +1,27 @@
+import { describe, expect, it } from 'vitest'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { toAxis } from './axis-draft'
+import { gainScanStart } from './gain-scan-draft'
+
+const config = (extra: object, pump: object = { pulses: [], backgroundPowerW: 0.05 }) =>
+  SimulationConfig.parse({
+    waveguide: { lengthM: 0.05, groupIndex: 2.44, effectiveAreaUm2: 2.3, gainCoefficientMPerW: 6.9e-10, brillouinShiftGHz: 7.7, linewidthMHz: 34, ...extra },
+    channels: [{ pump, stokes: { pulses: [], backgroundPowerW: 1e-6 } }],
+    windowNs: 20,
+  })
+
+describe('gain-scan start of the sweep form', () => {
+  it('turns the scan plan into a detuning axis of ±3 linewidths and says so', () => {
+    const s = gainScanStart(config({}))
+    expect(toAxis(s.draft)).toEqual({ field: 'detuningMHz', values: { kind: 'linear', start: -102, stop: 102, count: 41 } })
+    expect(s.range).toBe('Detuning from -102 to 102 MHz in 41 points, 5.1 MHz apart: ±3 linewidths around the Brillouin resonance.')
+    expect(s.chart).toMatch(/closed-form small-signal gain/)
+  })
+
+  it('covers every backward resonance and calls a pulsed run’s curve the effective gain', () => {
+    const pulse = { shape: 'gaussian', peakPowerW: 1, centreNs: 10, fwhmNs: 2 }
+    const s = gainScanStart(config({ additionalResonances: [{ shiftGHz: 7.8, linewidthMHz: 34, gainCoefficientMPerW: 3e-10 }] }, { pulses: [pulse], backgroundPowerW: 0 }))
+    expect(s.range).toMatch(/^Detuning from -102 to 202 MHz .*all 2 backward resonances/)
+    expect(s.chart).toMatch(/effective gain .* dashed reference/)
+  })
+})

@@ -1,0 +1,40 @@
+// A gain-spectrum scan as the sweep form takes it: the detuning axis of shared/physics/gain-scan.ts as an
+// axis draft, and the sentences that tell the user what will be swept and what the chart will show.
+import type { SimulationConfig } from '@shared/physics/simulation-config'
+import { gainDrive } from '@shared/physics/gain-spectrum'
+import { SCAN_LINEWIDTHS, gainScanPlan, type GainScanPlan } from '@shared/physics/gain-scan'
+import type { AxisDraft } from './axis-draft'
+import { formatValue } from './sweep-format'
+
+export interface GainScanStart {
+  plan: GainScanPlan
+  draft: AxisDraft
+  /** What is swept, in words. */
+  range: string
+  /** What the chart will plot for this base configuration. */
+  chart: string
+}
+
+export function gainScanStart(config: SimulationConfig): GainScanStart {
+  const plan = gainScanPlan(config.waveguide)
+  const draft: AxisDraft = {
+    field: 'detuningMHz',
+    pulseLabel: '',
+    kind: 'linear',
+    listText: '',
+    start: String(plan.startMHz),
+    stop: String(plan.stopMHz),
+    count: String(plan.count),
+  }
+  const where =
+    plan.lines === 1
+      ? `±${SCAN_LINEWIDTHS} linewidths around the Brillouin resonance`
+      : `all ${plan.lines} backward resonances, from the lowest one − ${SCAN_LINEWIDTHS} of its linewidths to the highest + ${SCAN_LINEWIDTHS}`
+  const range = `Detuning from ${formatValue(plan.startMHz)} to ${formatValue(plan.stopMHz)} MHz in ${plan.count} points, ${formatValue(plan.stepMHz)} MHz apart: ${where}.`
+  const drive = gainDrive(config)
+  const chart =
+    drive.kind === 'cw'
+      ? 'Pump and Stokes are continuous: the sweep page plots the Stokes gain against detuning over the closed-form small-signal gain (a sum of Lorentzians).'
+      : 'The pump or Stokes is pulsed: the sweep page plots the effective gain (peak Stokes output over peak input) against detuning, with the continuous-wave closed form at the peak pump power as a dashed reference.'
+  return { plan, draft, range, chart }
+}
