@@ -37,6 +37,9 @@ const amount = (what: string) =>
     .transform(Number)
     .pipe(z.number({ error: `must be a finite number of ${what}` }))
 
+// 'auto': the WebAssembly engine where it covers a run's options; 'ts': the TypeScript kernels only (the off switch).
+const solverEngineSetting = z.enum(['auto', 'ts'], { error: 'must be auto or ts' }).default('auto')
+
 const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production'], { error: 'must be development, test or production' }).default('development'),
   DATABASE_URL: postgresUrl.optional(),
@@ -71,6 +74,8 @@ const EnvSchema = z.object({
   QUOTA_GROUP_CELL_UPDATES_PER_DAY: amount('cell-updates').default(1e13),
   QUOTA_UNCONFIRMED_RUNS_IN_FLIGHT: amount('runs').default(1),
   QUOTA_UNCONFIRMED_CELL_UPDATES_PER_DAY: amount('cell-updates').default(4e10),
+  // The solver threads' step engine (read there by solverEngine()); checked here so a bad value stops the start.
+  SOLVER_ENGINE: solverEngineSetting,
 })
 
 /** Per-user and per-group quotas; an account whose email is not confirmed gets the `unconfirmed` pair instead of `user`. */
@@ -214,6 +219,12 @@ export function loadLogLevel(fallback = 'warn'): string {
   const result = EnvSchema.pick({ LOG_LEVEL: true }).safeParse({ LOG_LEVEL: process.env.LOG_LEVEL || fallback })
   if (!result.success) exitWith(result.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`))
   return result.data.LOG_LEVEL
+}
+
+/** SOLVER_ENGINE for the solver threads (loadEnv has already refused a bad value at start; else 'auto'). */
+export function solverEngine(): 'auto' | 'ts' {
+  const r = solverEngineSetting.safeParse(process.env.SOLVER_ENGINE || undefined)
+  return r.success ? r.data : 'auto'
 }
 
 // `node --import tsx server/env.ts` checks the configuration and prints nothing when it is fine.

@@ -4,6 +4,7 @@
 import { parentPort, workerData } from 'node:worker_threads'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { simulateSync, type MapFrame } from '../../solver/index'
+import { solverEngine } from '../env'
 
 export interface SolverThreadInput {
   /** Int32 flag: non-zero asks the solver to stop at its next chunk (a few ms). The pool clears it before each run. */
@@ -32,6 +33,8 @@ export const FRAME_INTERVAL_MS = 500
 const port = parentPort
 if (!port) throw new Error('solver-thread.ts runs as a worker thread')
 const flag = new Int32Array((workerData as SolverThreadInput).abortFlag)
+/** The step engine, from SOLVER_ENGINE (the thread inherits the process's environment). */
+const engine = solverEngine()
 const post = (m: SolverThreadMessage, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer)
 
 function runOne({ seq, config }: SolverThreadRequest): void {
@@ -43,6 +46,7 @@ function runOne({ seq, config }: SolverThreadRequest): void {
     },
     shouldAbort: () => Atomics.load(flag, 0) !== 0,
     yieldEveryMs: FRAME_INTERVAL_MS,
+    engine,
   })
   // Transferred, not copied: the thread keeps no reference to a finished run's arrays. Each buffer once in
   // the transfer list (two views may share one).
