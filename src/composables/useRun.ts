@@ -5,6 +5,7 @@ import { useAsync } from './useAsync'
 import { useRunEvents } from './useRunEvents'
 import { mapFrameOf, type MapFrame } from '@/components/run/run-layout'
 import type { MapKey } from '@/components/run/run-map-buffer'
+import { extraWaveTraces, type WaveTraceRef } from '@/components/run/wave-traces'
 
 const FINAL_MAP_ARRAYS: Record<MapKey, string> = {
   pumpPowerW: 'map_pump_power_w',
@@ -13,9 +14,15 @@ const FINAL_MAP_ARRAYS: Record<MapKey, string> = {
 }
 const PORTS = ['pump_in', 'stokes_in', 'pump_out', 'stokes_out'] as const
 export type PortKey = (typeof PORTS)[number]
+export interface WaveTrace extends WaveTraceRef {
+  input: Float64Array | null
+  output: Float64Array | null
+}
 export interface ChannelTraces {
   timeNs: Float64Array
   ports: Record<PortKey, Float64Array>
+  /** Waves beyond the pump–Stokes pair (co-propagating probe, cascade orders, forward waves); channel 1 only. */
+  waves?: WaveTrace[]
 }
 
 /** How often the queue position is asked again while the run waits (ms). */
@@ -42,7 +49,10 @@ export function useRun(id: Ref<string>, share?: string) {
   const traces = shallowRef<ChannelTraces | null>(null)
   const results = useAsync(async (runId: string, ch: number) => {
     const [time, ...ports] = await Promise.all([fetchRunArray(runId, 'time_ns', share), ...PORTS.map((p) => fetchRunArray(runId, `ch${ch + 1}_${p}`, share))])
-    const t: ChannelTraces = { timeNs: time.data as Float64Array, ports: Object.fromEntries(PORTS.map((p, i) => [p, ports[i].data])) as Record<PortKey, Float64Array> }
+    const refs = ch === 0 && run.value ? extraWaveTraces(run.value.arrays, run.value.figures?.waves) : []
+    const fetchOr = (name: string | null) => (name ? fetchRunArray(runId, name, share).then((a) => a.data as Float64Array) : Promise.resolve(null))
+    const waves = await Promise.all(refs.map(async (w) => ({ ...w, input: await fetchOr(w.inName), output: await fetchOr(w.outName) })))
+    const t: ChannelTraces = { timeNs: time.data as Float64Array, ports: Object.fromEntries(PORTS.map((p, i) => [p, ports[i].data])) as Record<PortKey, Float64Array>, waves }
     if (!finalMaps.value) {
       const maps = await Promise.all(Object.values(FINAL_MAP_ARRAYS).map((n) => fetchRunArray(runId, n, share)))
       finalMaps.value = Object.fromEntries(Object.keys(FINAL_MAP_ARRAYS).map((k, i) => [k, maps[i]])) as Record<MapKey, RunArray>
