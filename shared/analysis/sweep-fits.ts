@@ -1,0 +1,88 @@
+// Fits a one-axis sweep supports, chosen from what the axis varies and the run scheme:
+//
+// - storage time: the read pulse's centre swept in a storage run. The retrieval efficiency decays with the
+//   write–read delay τ as η(τ) = η₀·exp(−Γτ): the stored phonon energy decays at Γ_B (docs/model.md,
+//   conventions: energy lifetime 1/Γ_B, amplitude lifetime 2/Γ_B; Agrawal, Nonlinear Fiber Optics, ch. 9).
+//   The waveguide's nominal energy lifetime is 1/Γ_B with Γ_B = 2π·Δν_B.
+// - pump power in an amplifier: the small-signal slope of the peak Stokes gain in dB (gain-slope-fit.ts). For
+//   a CW pump the closed-form slope is 10·log10(e)·η g_B L_eff/(A_eff (1 + (2Δ/Δν_B)²)) dB/W at detuning Δ
+//   (Lorentzian gain line; Agrawal, ch. 9).
+import type { SweepDetail } from '../api/sweeps'
+import { channelScheme, storageRoles } from '../physics/pulse-roles'
+import { effectiveLengthM } from '../physics/derived-quantities'
+import { DB_PER_NEPER_POWER, dbPerMToPerM } from '../physics/units'
+import { fitExponentialDecay, type ExponentialDecayResult } from './exponential-decay-fit'
+import { fitSmallSignalGainSlope, type GainSlopeResult } from './gain-slope-fit'
+
+type Sweep = Pick<SweepDetail, 'axes' | 'baseConfig' | 'metrics' | 'points'>
+
+export interface LifetimeAnalysis {
+  kind: 'lifetime'
+  metricKey: string
+  /** τ = axis value − offsetNs: the delay after the write pulse (or the data pulse when none is labelled write). */
+  offsetNs: number
+  result: ExponentialDecayResult
+  /** 1/Γ_B of the waveguide (ns). */
+  nominalEnergyLifetimeNs: number
+}
+
+export interface GainSlopeAnalysis {
+  kind: 'gainSlope'
+  metricKey: string
+  result: GainSlopeResult
+  /** The CW closed form (dB/W), or null when the pump is pulsed. */
+  nominalSlopeDbPerW: number | null
+}
+
+export type SweepAnalysis = LifetimeAnalysis | GainSlopeAnalysis
+
+const sameLabel = (a: string | undefined, b: string | undefined) => (a ?? '').trim().toLowerCase() === (b ?? '').trim().toLowerCase()
+
+/** The metric's values at the finished points, against the axis value. */
+function series(s: Sweep, key: string): { x: number[]; y: number[] } {
+  const x: number[] = []
+  const y: number[] = []
+  for (const p of s.points) {
+    const v = p.metrics[key]
+    if (p.status !== 'succeeded' || typeof v !== 'number' || !Number.isFinite(v)) continue
+    x.push(p.values[0])
+    y.push(v)
+  }
+  return { x, y }
+}
+
+const metricKey = (s: Sweep, ci: number, key: string) => (s.baseConfig.channels.length > 1 ? `ch${ci + 1}.${key}` : key)
+
+/** The analyses this sweep supports (none for two axes or for axes no fit applies to). */
+export function sweepAnalyses(s: Sweep): SweepAnalysis[] {
+  if (s.axes.length !== 1) return []
+  const axis = s.axes[0]
+  const cfg = s.baseConfig
+  const w = cfg.waveguide
+  const out: SweepAnalysis[] = []
+  cfg.channels.forEach((ch, ci) => {
+    const scheme = channelScheme(ch)
+    if (scheme === 'storage' && axis.field === 'pulseCentreNs') {
+      const roles = storageRoles(ch)!
+      if (!sameLabel(roles.read.label, axis.pulseLabel)) return
+      // A write pulse sharing the read's label would move with it; then τ is measured from the data pulse.
+      const anchor = roles.write && !sameLabel(roles.write.label, axis.pulseLabel) ? roles.write : roles.data
+      const key = metricKey(s, ci, 'retrievalEfficiency')
+      const { x, y } = series(s, key)
+      const offsetNs = anchor.centreNs
+      out.push({ kind: 'lifetime', metricKey: key, offsetNs, result: fitExponentialDecay(x.map((v) => v - offsetNs), y), nominalEnergyLifetimeNs: 1e3 / (2 * Math.PI * w.linewidthMHz) })
+    }
+    const pumpPowerAxis =
+      axis.field === 'pumpPowerW' ||
+      (axis.field === 'pulsePeakPowerW' && ch.pump.pulses.some((p) => sameLabel(p.label, axis.pulseLabel)) && !ch.stokes.pulses.some((p) => sameLabel(p.label, axis.pulseLabel)))
+    if (scheme === 'amplifier' && pumpPowerAxis) {
+      const key = metricKey(s, ci, 'peakStokesGainDb')
+      const { x, y } = series(s, key)
+      const cw = axis.field === 'pumpPowerW' && ch.pump.pulses.length === 0
+      const lorentz = 1 + ((2 * cfg.detuningMHz) / w.linewidthMHz) ** 2
+      const nominal = cw ? (DB_PER_NEPER_POWER * w.polarisationFactor * w.gainCoefficientMPerW * effectiveLengthM(dbPerMToPerM(w.lossDbPerM), w.lengthM)) / (w.effectiveAreaUm2 * 1e-12 * lorentz) : null
+      out.push({ kind: 'gainSlope', metricKey: key, result: fitSmallSignalGainSlope(x, y), nominalSlopeDbPerW: nominal })
+    }
+  })
+  return out
+}
