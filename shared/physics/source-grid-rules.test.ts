@@ -93,3 +93,15 @@ describe('correlation figures shown in the form', () => {
     expect(broadbandCorrelationLengthM(1.5, 100)).toBeCloseTo(0.636179, 5)
   })
 })
+
+describe('how wide a source spectrum may be', () => {
+  it('refuses Δf + f_m ≥ ν_B/2 and a linewidth above ν_B/10, on the field at fault', () => {
+    // ν_B = 10.85 GHz: Δf + f_m < 5425 MHz, Δν ≤ 1085 MHz
+    expect(SimulationConfig.safeParse(config({ modulation: { rateMHz: 10, excursionMHz: 5400 } })).success).toBe(true)
+    const wide = SimulationConfig.safeParse(config({ modulation: { rateMHz: 30, excursionMHz: 5400 } }))
+    expect(wide.error!.issues.map((i) => i.path.join('.'))).toEqual(['channels.0.pump.modulation.excursionMHz'])
+    expect(SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 1085 } })).success).toBe(true)
+    const broad = SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 1100 } }))
+    expect(broad.error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['channels.0.pump.broadband.linewidthMHz', expect.stringMatching(/a tenth of the Brillouin shift \(1085 MHz\)/)]])
+  })
+})

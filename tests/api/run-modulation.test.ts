@@ -30,11 +30,11 @@ const submit = (config: object) => request(app).post('/api/runs').set('Authoriza
 
 describe('runs with modulated and broadband inputs', () => {
   it('queues a run with a frequency-modulated pump and a broadband Stokes input and keeps both', async () => {
-    const res = await submit(modulatedRun({ modulation: { rateMHz: 100, excursionMHz: 5000, delayNs: 1 } }, { broadband: { linewidthMHz: 200, seed: 9 } }))
+    const res = await submit(modulatedRun({ modulation: { rateMHz: 100, excursionMHz: 3000, delayNs: 1 } }, { broadband: { linewidthMHz: 200, seed: 9 } }))
 
     expect(res.status).toBe(202)
     const { rows } = await pool.query(`select config from runs where id = $1`, [RunDetail.parse(res.body).id])
-    expect(rows[0].config.channels[0].pump.modulation).toEqual({ rateMHz: 100, excursionMHz: 5000, delayNs: 1 })
+    expect(rows[0].config.channels[0].pump.modulation).toEqual({ rateMHz: 100, excursionMHz: 3000, delayNs: 1 })
     expect(rows[0].config.channels[0].stokes.broadband).toEqual({ linewidthMHz: 200, seed: 9 })
   })
 
@@ -46,12 +46,19 @@ describe('runs with modulated and broadband inputs', () => {
   })
 
   it('refuses a set step too coarse for the excursion with 400 on the time step, stating the largest step', async () => {
-    // Carson bandwidth B = 2(100 + 10) GHz = 220 GHz: at most 1/(2B) = 2.27 ps, the run asks for 5 ps.
-    const res = await submit(modulatedRun({ modulation: { rateMHz: 1e4, excursionMHz: 1e5 } }, {}, 5))
+    // Carson bandwidth B = 2(3000 + 100) MHz = 6.2 GHz: at most 1/(2B) = 80.6 ps, the run asks for 100 ps.
+    const res = await submit(modulatedRun({ modulation: { rateMHz: 100, excursionMHz: 3000 } }, {}, 100))
 
     expect(res.status).toBe(400)
-    const field = res.body.error.fields.find((f: { path: string }) => f.path === 'config.grid.timeStepPs')
-    expect(field.message).toMatch(/at most 2\.27 ps, two samples per Carson bandwidth/)
+    expect(res.body.error.fields).toEqual([{ path: 'config.grid.timeStepPs', message: expect.stringMatching(/at most 80\.6 ps, two samples per Carson bandwidth/) }])
+  })
+
+  it('refuses a modulation that reaches halfway to the other wave (Δf + f_m ≥ ν_B/2) with 400 on the excursion', async () => {
+    // The chip's ν_B = 7.7 GHz: Δf + f_m must stay below 3850 MHz.
+    const res = await submit(modulatedRun({ modulation: { rateMHz: 100, excursionMHz: 3800 } }))
+
+    expect(res.status).toBe(400)
+    expect(res.body.error.fields).toEqual([{ path: 'config.channels.0.pump.modulation.excursionMHz', message: expect.stringMatching(/below half the Brillouin shift \(3850 MHz\)/) }])
   })
 
   it('refuses a broadband seed that is not a whole number with 400 on the seed', async () => {

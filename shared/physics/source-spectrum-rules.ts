@@ -1,0 +1,40 @@
+/*
+ * How wide a source's spectrum may be. The model carries pump and Stokes as two envelopes on carriers ν_B
+ * apart (docs/model.md, equations); a modulated or broadband field whose spectrum reaches halfway to the other
+ * carrier would be light the model assigns to the wrong wave.
+ *
+ * Frequency modulation: by Carson's rule (common practice) the spectrum spans ν ± (Δf + f_m); refuse
+ * Δf + f_m ≥ ν_B/2. Broadband: a Lorentzian of FWHM Δν has 1 − (2/π)·atan(ν_B/Δν) of its power beyond ±ν_B/2;
+ * refuse Δν > ν_B/10, where that reaches 6 %.
+ */
+import type { SimulationConfig } from './simulation-config'
+
+export const MAX_LINEWIDTH_PER_SHIFT = 0.1
+
+export interface SourceSpectrumIssue {
+  path: (string | number)[]
+  message: string
+}
+
+export function sourceSpectrumIssues(config: SimulationConfig): SourceSpectrumIssue[] {
+  const halfShiftMHz = (config.waveguide.brillouinShiftGHz * 1000) / 2
+  const out: SourceSpectrumIssue[] = []
+  config.channels.forEach((ch, ci) => {
+    for (const port of ['pump', 'stokes'] as const) {
+      const { modulation, broadband } = ch[port]
+      if (modulation && modulation.excursionMHz + modulation.rateMHz >= halfShiftMHz) {
+        out.push({
+          path: ['channels', ci, port, 'modulation', 'excursionMHz'],
+          message: `Excursion plus rate must stay below half the Brillouin shift (${halfShiftMHz.toPrecision(4)} MHz): a wider modulation reaches the other wave's carrier, which this model of two separate waves does not describe`,
+        })
+      }
+      if (broadband && broadband.linewidthMHz > MAX_LINEWIDTH_PER_SHIFT * 2 * halfShiftMHz) {
+        out.push({
+          path: ['channels', ci, port, 'broadband', 'linewidthMHz'],
+          message: `The linewidth must be at most a tenth of the Brillouin shift (${(MAX_LINEWIDTH_PER_SHIFT * 2 * halfShiftMHz).toPrecision(4)} MHz): a broader source puts light at the other wave's carrier, which this model of two separate waves does not describe`,
+        })
+      }
+    }
+  })
+  return out
+}
