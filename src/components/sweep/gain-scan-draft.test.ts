@@ -16,6 +16,9 @@ describe('gain-scan start of the sweep form', () => {
     expect(toAxis(s.draft)).toEqual({ field: 'detuningMHz', values: { kind: 'linear', start: -102, stop: 102, count: 41 } })
     expect(s.range).toBe('Detuning from -102 to 102 MHz in 41 points, 5.1 MHz apart: ±3 linewidths around the Brillouin resonance.')
     expect(s.chart).toMatch(/closed-form small-signal gain/)
+    // 1/Γ_B = 1/(2π·34 MHz) = 4.68 ns: a 20 ns window is 4.3 lifetimes; 25 lifetimes are 117.03 ns, rounded up to 118.
+    expect(s.settle).toMatch(/spans 4\.3 phonon lifetimes.*A window of 118 ns or more/)
+    expect(gainScanStart(SimulationConfig.parse({ ...config({}), windowNs: 150 })).settle).toBeNull()
   })
 
   it('covers every backward resonance and calls a pulsed run’s curve the effective gain', () => {

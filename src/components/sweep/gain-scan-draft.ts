@@ -13,7 +13,15 @@ export interface GainScanStart {
   range: string
   /** What the chart will plot for this base configuration. */
   chart: string
+  /** A CW window too short for the Stokes output to settle to its steady gain, or null. */
+  settle: string | null
 }
+
+/**
+ * Phonon lifetimes 1/Γ_B a CW window should span before its last samples show the steady gain. Measured on
+ * the validation chip (G₀ = 0.75): the peak gain is 15 % low after 4 lifetimes, 0.4 % after 13, exact after 32.
+ */
+export const CW_SETTLE_LIFETIMES = 25
 
 export function gainScanStart(config: SimulationConfig): GainScanStart {
   const plan = gainScanPlan(config.waveguide)
@@ -36,5 +44,12 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
     drive.kind === 'cw'
       ? 'Pump and Stokes are continuous: the sweep page plots the Stokes gain against detuning over the closed-form small-signal gain (a sum of Lorentzians).'
       : 'The pump or Stokes is pulsed: the sweep page plots the effective gain (peak Stokes output over peak input) against detuning, with the continuous-wave closed form at the peak pump power as a dashed reference.'
-  return { plan, draft, range, chart }
+  // The narrowest line has the longest lifetime 1/Γ = 1/(2π·Δν).
+  const lifetimeNs = 1e3 / (2 * Math.PI * Math.min(config.waveguide.linewidthMHz, ...(config.waveguide.additionalResonances ?? []).map((r) => r.linewidthMHz)))
+  const lifetimes = config.windowNs / lifetimeNs
+  const settle =
+    drive.kind === 'cw' && lifetimes < CW_SETTLE_LIFETIMES
+      ? `The window, ${formatValue(config.windowNs)} ns, spans ${formatValue(Number(lifetimes.toPrecision(2)))} phonon lifetimes: a CW run's Stokes output settles to its steady gain over tens of lifetimes, so the points may lie below the closed form. A window of ${formatValue(Math.ceil(CW_SETTLE_LIFETIMES * lifetimeNs))} ns or more lets them reach it.`
+      : null
+  return { plan, draft, range, chart, settle }
 }
