@@ -1,8 +1,8 @@
-// `npm run bench [-- --quick]`: throughput, memory, linear-cost and work–precision figures of the solver,
+// `npm run bench [-- --quick | --engines]`: throughput, memory, linear-cost and work–precision figures of the solver,
 // then the oscillation analysis's coverage table (oscillation-coverage.ts; --quick: white noise only).
 // Prints figures and never asserts; record them in benchmarks/README.md with the date and machine.
 import os from 'node:os'
-import { simulateSync, type SimulationResult } from '../solver/index'
+import { simulateSync, type EngineChoice, type SimulationResult } from '../solver/index'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { brillouinRates } from '@shared/physics/grid-step'
 import { exactDepletion } from '../tests/solver/closed-forms'
@@ -21,7 +21,7 @@ interface Measured {
   peakHeapMiB: number
 }
 
-function measure(config: SimulationConfig): Measured {
+function measure(config: SimulationConfig, engine: EngineChoice = 'auto'): Measured {
   let peakRss = 0
   let peakHeap = 0
   const sample = () => {
@@ -32,7 +32,7 @@ function measure(config: SimulationConfig): Measured {
   sample()
   const t0 = performance.now()
   // Throughput of the scheme itself: the error estimate's companion run would add a quarter of untimed work.
-  const result = simulateSync({ ...config, options: { ...config.options, errorEstimate: false } }, { onProgress: sample })
+  const result = simulateSync({ ...config, options: { ...config.options, errorEstimate: false } }, { onProgress: sample, engine })
   const seconds = (performance.now() - t0) / 1000
   sample()
   if (result.status !== 'finished') throw new Error(`benchmark run ${result.status}: ${result.message}`)
@@ -62,6 +62,28 @@ function throughputTable(): void {
           `${pad(fmt(c.cellUpdates / m.seconds / 1e6), 8)} ${pad(fmt((m.seconds * 1e9) / c.cellUpdates), 8)} ${pad(m.peakRssMiB.toFixed(0), 12)} ${pad(m.peakHeapMiB.toFixed(0), 11)}`,
       )
     }
+  }
+}
+
+/** Both step engines on the same runs, interleaved (ts, wasm, ts, wasm, …) so a change of machine load hits both; best of 3. */
+function engineTable(): void {
+  console.log('\n## Step engines side by side (plain SVEA, one channel; best of 3, interleaved)')
+  console.log(`${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('cell-upd', 9)} ${pad('ts Mcell/s', 11)} ${pad('wasm Mcell/s', 13)} ${pad('wasm/ts', 8)}`)
+  const sizes: [number, number][] = [[2000, 20000], [8000, 40000]]
+  for (const [nz, nt] of sizes) {
+    if (quick && nz * nt > QUICK_CAP) continue
+    const config = gridCase(nz, nt)
+    const best = { ts: Infinity, wasm: Infinity }
+    let cells = 0
+    for (let rep = 0; rep < 3; rep++) {
+      for (const engine of ['ts', 'wasm'] as const) {
+        const m = measure(config, engine)
+        cells = m.result.manifest.counters.cellUpdates
+        best[engine] = Math.min(best[engine], m.seconds)
+      }
+    }
+    const rate = (s: number) => cells / s / 1e6
+    console.log(`${pad(nz, 6)} ${pad(nt, 7)} ${pad(fmt(cells), 9)} ${pad(fmt(rate(best.ts)), 11)} ${pad(fmt(rate(best.wasm)), 13)} ${pad((best.ts / best.wasm).toFixed(2), 8)}`)
   }
 }
 
@@ -106,8 +128,13 @@ function workPrecision(): void {
 
 console.log(`# Sonoweave solver benchmark ${new Date().toISOString()}${quick ? ' (--quick: runs above 1e8 cell-updates skipped)' : ''}`)
 console.log(`node ${process.version}, ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, load average ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`)
-throughputTable()
-scalingTable()
-workPrecision()
-oscillationCoverage(quick)
+if (process.argv.includes('--engines')) {
+  engineTable()
+} else {
+  throughputTable()
+  engineTable()
+  scalingTable()
+  workPrecision()
+  oscillationCoverage(quick)
+}
 console.log(`\nload average at the end ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`)

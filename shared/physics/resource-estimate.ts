@@ -23,6 +23,13 @@ export interface GridCounts {
  * expressed as factors of it.
  */
 export const CELL_UPDATES_PER_S_SVEA = 40e6
+/**
+ * Relative speed of the WebAssembly step engine (solver/engine/) against the TypeScript fast path, for the
+ * runs it covers (`wasmEngineCovers`); benchmark 2026-12-03, interleaved side by side: 2.0–2.3× (machine
+ * loaded). The factor stands for the engine the solver chooses by default; with SOLVER_ENGINE=ts the estimate
+ * errs short by that much.
+ */
+export const SPEED_FACTOR_WASM_ENGINE = 2
 /** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.20–0.31. */
 export const SPEED_FACTOR_HIGHER_ORDER = 0.25
 /** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark idle: 0.10–0.12. */
@@ -39,6 +46,12 @@ export const PLAIN_FIELDS = 1
  * couplings. 1 until the benchmark of that solver gives a measured value.
  */
 export const SPEED_FACTOR_WAVE_NETWORK = 1
+
+/** Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no Kerr, no noise (solver fastPathApplies). */
+export function wasmEngineCovers(config: SimulationConfig): boolean {
+  const o = config.options
+  return config.channels.length === 1 && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.kerr && !o.noise.enabled
+}
 
 /** Optical waves and acoustic fields a run integrates per cell (shared/physics/wave-set.ts). */
 export function envelopeCounts(config: SimulationConfig): { waves: number; fields: number } {
@@ -110,7 +123,8 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     (network ? (SPEED_FACTOR_WAVE_NETWORK * (PLAIN_WAVES + PLAIN_FIELDS)) / (waves + fields) : 1) *
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
-    (o.kerr ? SPEED_FACTOR_KERR : 1)
+    (o.kerr ? SPEED_FACTOR_KERR : 1) *
+    (wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1)
   return {
     channels,
     waves,
