@@ -35,11 +35,17 @@ export const SweepAxis = z
   .object({
     field: z.enum(SWEEP_FIELD_IDS),
     pulseLabel: safeText().trim().max(60).optional().describe('Label of the pulse(s) a pulse field acts on'),
+    tiedLabels: z
+      .array(safeText().trim().min(1, 'must not be empty').max(60))
+      .max(4, 'tie at most 4 further labels')
+      .optional()
+      .describe('Further pulse labels that take the same value (e.g. the data and write widths together)'),
     values: AxisValues,
   })
   .superRefine((a, ctx) => {
     const f = sweepField(a.field)
     if (f.needsPulseLabel && !a.pulseLabel) ctx.addIssue({ code: 'custom', path: ['pulseLabel'], message: `${f.label} needs the label of the pulse(s) to vary` })
+    if (!f.needsPulseLabel && a.tiedLabels?.length) ctx.addIssue({ code: 'custom', path: ['tiedLabels'], message: `${f.label} does not act on labelled pulses; only pulse fields can be tied` })
     const bad = axisLengthOk(a.values) ? axisValues(a.values).find((v) => (f.positive ? v <= 0 : !f.signed && v < 0)) : undefined
     if (bad !== undefined) ctx.addIssue({ code: 'custom', path: ['values'], message: `${f.label} must be ${f.positive ? 'above 0' : 'at least 0'}; got ${bad} ${f.unit}` })
   })
@@ -48,6 +54,7 @@ export type SweepAxis = z.infer<typeof SweepAxis>
 const sweepFields = {
   baseConfig: SimulationConfig,
   axes: z.array(SweepAxis).min(1, 'a sweep needs one axis').max(2, 'a sweep has at most two axes'),
+  extendWindow: z.boolean().optional().describe('Lengthen a point’s window when its pulses or its storage echo would leave it (default: yes)'),
 }
 
 function checkAxes(s: { axes: SweepAxis[] }, ctx: z.RefinementCtx) {
@@ -195,8 +202,9 @@ export const SweepDownloadQuery = ShareTokenQuery.extend({
   arrays: z.enum(['0', '1', 'true', 'false']).optional().transform((v) => v === '1' || v === 'true'),
 })
 
-/** "Pulse width [read] (ns)". */
-export function axisLabel(a: Pick<SweepAxis, 'field' | 'pulseLabel'>): string {
+/** "Pulse width [read] (ns)", "Pulse width [data = write] (ns)". */
+export function axisLabel(a: Pick<SweepAxis, 'field' | 'pulseLabel'> & { tiedLabels?: string[] }): string {
   const f = sweepField(a.field)
-  return `${f.label}${f.needsPulseLabel && a.pulseLabel ? ` [${a.pulseLabel}]` : ''} (${f.unit})`
+  const labels = [a.pulseLabel, ...(a.tiedLabels ?? [])].filter((l): l is string => !!l)
+  return `${f.label}${f.needsPulseLabel && labels.length ? ` [${labels.join(' = ')}]` : ''} (${f.unit})`
 }

@@ -3,13 +3,17 @@
 import type { Pulse } from './pulse'
 import type { FrequencyModulation } from './source-modulation'
 import type { SimulationConfig } from './simulation-config'
+import { criticalPowerOf, energyPerPeakNs, setStorageDelay, storageDelayNs } from './sweep-derived'
 
 export const SWEEP_FIELD_IDS = [
   'pulseFwhmNs',
   'pulsePeakPowerW',
   'pulseCentreNs',
   'pulseSpacingNs',
+  'pulseEnergyNJ',
+  'storageDelayNs',
   'detuningMHz',
+  'pumpPowerCritical',
   'pumpPowerW',
   'stokesPowerW',
   'lengthM',
@@ -40,8 +44,11 @@ export const SWEEP_FIELDS: readonly SweepField[] = [
   { id: 'pulsePeakPowerW', label: 'Pulse peak power', unit: 'W', path: 'channels[*].{pump,stokes}.pulses[label].peakPowerW', needsPulseLabel: true, positive: false, help: 'Peak power of the labelled pulse(s)' },
   { id: 'pulseCentreNs', label: 'Pulse centre (e.g. write–read delay)', unit: 'ns', path: 'channels[*].{pump,stokes}.pulses[label].centreNs', needsPulseLabel: true, positive: false, help: 'Centre time of the labelled pulse(s); sweeping the read pulse sweeps the storage time' },
   { id: 'pulseSpacingNs', label: 'Pulse spacing (e.g. refresh spacing)', unit: 'ns', path: 'channels[*].{pump,stokes}.pulses[label].centreNs = first + k·spacing', needsPulseLabel: true, positive: true, help: 'The labelled pulses keep the first one’s centre and are re-spaced evenly' },
+  { id: 'pulseEnergyNJ', label: 'Pulse energy (fixed width)', unit: 'nJ', path: 'channels[*].{pump,stokes}.pulses[label].peakPowerW = E/∫P/P_peak dt', needsPulseLabel: true, positive: false, help: 'Energy of the labelled pulse(s); the peak power follows at the pulse’s own width and shape' },
+  { id: 'storageDelayNs', label: 'Write–read delay', unit: 'ns', path: 'channels[*].stokes.pulses[read].centreNs = write centre + delay', needsPulseLabel: false, positive: true, help: 'Storage time: the read pulse moves, the write pulse stays' },
   { id: 'detuningMHz', label: 'Detuning', unit: 'MHz', path: 'detuningMHz', needsPulseLabel: false, positive: false, signed: true, help: '(ν_p − ν_s) − ν_B' },
   { id: 'pumpPowerW', label: 'CW pump power', unit: 'W', path: 'channels[*].pump.backgroundPowerW', needsPulseLabel: false, positive: false, help: 'Continuous pump power in every channel' },
+  { id: 'pumpPowerCritical', label: 'CW pump power / critical power', unit: '× P_cr', path: 'channels[*].pump.backgroundPowerW = x·21/(G_B L_eff)', needsPulseLabel: false, positive: false, help: 'Continuous pump power in units of the critical power P_cr = 21/(G_B L_eff) (Smith 1972)' },
   { id: 'stokesPowerW', label: 'CW Stokes seed power', unit: 'W', path: 'channels[*].stokes.backgroundPowerW', needsPulseLabel: false, positive: false, help: 'Continuous Stokes power in every channel' },
   { id: 'lengthM', label: 'Waveguide length', unit: 'm', path: 'waveguide.lengthM', needsPulseLabel: false, positive: true, help: 'Interaction length L' },
   { id: 'linewidthMHz', label: 'Brillouin linewidth', unit: 'MHz', path: 'waveguide.linewidthMHz', needsPulseLabel: false, positive: true, help: 'Gain linewidth Δν_B (FWHM); sets the phonon lifetime' },
@@ -82,6 +89,7 @@ export function fieldProblem(config: SimulationConfig, id: SweepFieldId, pulseLa
   const f = sweepField(id)
   if (id === 'modulationDelayNs' && modulations(config, true).length === 0) return 'The base configuration has no frequency-modulated Stokes input'
   if ((id === 'modulationRateMHz' || id === 'modulationExcursionMHz') && modulations(config).length === 0) return 'The base configuration has no frequency-modulated input'
+  if (id === 'storageDelayNs' && storageDelayNs(config) === null) return 'The base configuration has no storage pulses: label a pump pulse “data”, and Stokes pulses “write” and “read”'
   if (!f.needsPulseLabel) return null
   if (!pulseLabel?.trim()) return `${f.label} needs the label of the pulse(s) to vary`
   const pulses = labelledPulses(config, pulseLabel)
@@ -89,6 +97,7 @@ export function fieldProblem(config: SimulationConfig, id: SweepFieldId, pulseLa
     const known = pulseLabels(config)
     return `The base configuration has no pulse labelled "${pulseLabel}"${known.length ? ` (labels: ${known.join(', ')})` : ''}`
   }
+  if (id === 'pulseEnergyNJ' && pulses.some((p) => !(energyPerPeakNs(p) > 0))) return `A pulse labelled "${pulseLabel}" has no power profile to scale`
   if (id === 'pulseFwhmNs' && pulses.some((p) => !('fwhmNs' in p))) return `A pulse labelled "${pulseLabel}" is sampled and has no width to vary`
   if (id === 'pulseSpacingNs' && pulses.length < 2) return `Spacing needs at least two pulses labelled "${pulseLabel}"`
   return null
@@ -115,6 +124,17 @@ export function applySweepValue(config: SimulationConfig, id: SweepFieldId, valu
       const ps = pulses()
       const first = ps[0]?.centreNs ?? 0
       ps.forEach((p, k) => (p.centreNs = first + k * value))
+      break
+    }
+    case 'pulseEnergyNJ':
+      for (const p of pulses()) p.peakPowerW = value / energyPerPeakNs(p)
+      break
+    case 'storageDelayNs':
+      setStorageDelay(c, value)
+      break
+    case 'pumpPowerCritical': {
+      const pCr = criticalPowerOf(c)
+      for (const ch of c.channels) ch.pump.backgroundPowerW = value * pCr
       break
     }
     case 'detuningMHz':
@@ -160,6 +180,12 @@ export function readSweepValue(config: SimulationConfig, id: SweepFieldId, pulse
       return ps[0]?.centreNs ?? null
     case 'pulseSpacingNs':
       return ps.length >= 2 ? (ps[ps.length - 1].centreNs - ps[0].centreNs) / (ps.length - 1) : null
+    case 'pulseEnergyNJ':
+      return ps[0] ? ps[0].peakPowerW * energyPerPeakNs(ps[0]) : null
+    case 'storageDelayNs':
+      return storageDelayNs(config)
+    case 'pumpPowerCritical':
+      return config.channels[0].pump.backgroundPowerW / criticalPowerOf(config)
     case 'detuningMHz':
       return config.detuningMHz
     case 'pumpPowerW':

@@ -5,12 +5,15 @@ import { describeIssuePath } from '../api/issue-path-labels'
 import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from './resource-estimate'
 import { SimulationConfig } from './simulation-config'
 import { applySweepValue, fieldProblem } from './sweep-fields'
+import { neededWindowNs } from './sweep-window'
 import { axisLabel, axisValues, MAX_SWEEP_POINTS, type SweepDefinition, type SweepEstimate } from '../api/sweeps'
 
 export interface BuiltPoint {
   index: number
   values: number[]
   config: SimulationConfig
+  /** The base window when this point's window was lengthened to hold its pulses (sweep-window.ts). */
+  windowExtendedFromNs?: number
 }
 
 export interface PointIssue {
@@ -29,6 +32,10 @@ export function buildSweepPoints(def: SweepDefinition): BuiltSweep {
   def.axes.forEach((a, i) => {
     const problem = fieldProblem(def.baseConfig, a.field, a.pulseLabel)
     if (problem) issues.push({ path: `axes.${i}.${a.pulseLabel ? 'pulseLabel' : 'field'}`, message: problem })
+    ;(a.tiedLabels ?? []).forEach((label, k) => {
+      const tied = fieldProblem(def.baseConfig, a.field, label)
+      if (tied) issues.push({ path: `axes.${i}.tiedLabels.${k}`, message: tied })
+    })
   })
   if (issues.length) return { ok: false, issues }
   const values = def.axes.map((a) => axisValues(a.values))
@@ -38,17 +45,27 @@ export function buildSweepPoints(def: SweepDefinition): BuiltSweep {
   for (let index = 0; index < total; index++) {
     const at = values.length === 2 ? [values[0][Math.floor(index / n1)], values[1][index % n1]] : [values[0][index]]
     let config: SimulationConfig = def.baseConfig
-    def.axes.forEach((a, i) => (config = applySweepValue(config, a.field, at[i], a.pulseLabel)))
+    def.axes.forEach((a, i) => {
+      for (const label of [a.pulseLabel, ...(a.tiedLabels ?? [])]) config = applySweepValue(config, a.field, at[i], label)
+    })
+    let windowExtendedFromNs: number | undefined
+    if (def.extendWindow ?? true) {
+      const needNs = neededWindowNs(config)
+      if (needNs > config.windowNs) {
+        windowExtendedFromNs = config.windowNs
+        config = { ...config, windowNs: needNs }
+      }
+    }
     const parsed = SimulationConfig.safeParse(config)
     if (!parsed.success) {
       if (issues.length < MAX_REPORTED_POINTS) {
         const where = def.axes.map((a, i) => `${axisLabel(a)} = ${at[i]}`).join(', ')
         const first = parsed.error.issues[0]
-        issues.push({ path: 'axes', message: `Point ${index} (${where}) is not a valid run: ${describeIssuePath(first.path, def.baseConfig.channels.length)}: ${first.message}` })
+        issues.push({ path: 'axes', message: `Point ${index + 1} (${where}) is not a valid run: ${describeIssuePath(first.path, def.baseConfig.channels.length)}: ${first.message}` })
       }
       continue
     }
-    points.push({ index, values: at, config: parsed.data })
+    points.push({ index, values: at, config: parsed.data, ...(windowExtendedFromNs !== undefined ? { windowExtendedFromNs } : {}) })
   }
   return issues.length ? { ok: false, issues } : { ok: true, points, axisValues: values }
 }
@@ -98,7 +115,7 @@ export function checkSweepLimits(points: BuiltPoint[], limits: SweepLimits = DEF
   const over = perPoint.map((e, i) => ({ i, check: checkLimits(e, limits.run) })).filter((x) => !x.check.ok)
   if (over.length) {
     const first = over[0].check as { message: string }
-    reasons.push(`${over.length} of the ${total.points} points are over the run limits; point ${points[over[0].i].index}: ${first.message}`)
+    reasons.push(`${over.length} of the ${total.points} points are over the run limits; point ${points[over[0].i].index + 1}: ${first.message}`)
   }
   return reasons.length ? { ok: false, message: reasons.join(' '), reasons } : { ok: true }
 }

@@ -139,10 +139,15 @@ describe('POST /api/sweeps', () => {
     expect(badLog.status).toBe(400)
     expect(badLog.body.error.fields.map((f: { path: string }) => f.path)).toContain('axes.0.values.start')
 
-    const outside = await post('/sweeps', editor, { ...powerSweep(editor.groupId, 'x', 3), axes: [{ field: 'pulseCentreNs', pulseLabel: 'write', values: { kind: 'list', values: [1, 9] } }] })
+    // Points are numbered from 1, as on the sweep page; the window is kept as set when asked to.
+    const outside = await post('/sweeps', editor, {
+      ...powerSweep(editor.groupId, 'x', 3),
+      extendWindow: false,
+      axes: [{ field: 'pulseCentreNs', pulseLabel: 'write', values: { kind: 'list', values: [1, 9] } }],
+    })
     expect(outside.status).toBe(400)
     // The field in words, as the run form names it: no JSON path reaches the user.
-    expect(outside.body.error.fields[0].message).toMatch(/Point 1 \(.*\) is not a valid run: Pump pulse 1, centre time: The pulse centre must lie inside the simulated window/)
+    expect(outside.body.error.fields[0].message).toMatch(/Point 2 \(.*= 9\) is not a valid run: Pump pulse 1, centre time: The pulse centre must lie inside the simulated window/)
     expect(outside.body.error.fields[0].message).not.toMatch(/channels\.|centreNs|pulses\./)
   })
 
