@@ -13,6 +13,8 @@ import { buildModel, type Model } from './problem/coupled-modes'
 import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, noiseWeight, type FieldState } from './steppers/interaction-kernel'
 import { planStorageReference, type ReferencePlan } from './storage-reference'
 import { resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
+import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
+import { interactProfile, transportProfile } from './steppers/profile-kernel'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -35,6 +37,8 @@ export class SimulationRun {
   n = 0
   private readonly rng: NormalSource | null
   private readonly fast: boolean
+  /** Per-node constants of a waveguide with a longitudinal profile (its own kernel), else null. */
+  readonly profile: ProfileArrays | null
   private readonly forceGeneral: boolean
   /** The engine asked for, and the WebAssembly engine when this run uses it (engine/wasm-engine.ts). */
   private readonly engineChoice: EngineChoice
@@ -53,7 +57,8 @@ export class SimulationRun {
     const m = (this.model = buildModel(config, grid))
     this.forceGeneral = options.forceGeneralKernel ?? false
     this.engineChoice = options.engine ?? 'auto'
-    this.wasm = resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? new WasmSveaEngine(m) : null
+    this.profile = buildProfileModel(config, grid, m)
+    this.wasm = !this.profile && resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? new WasmSveaEngine(m) : null
     this.state = this.wasm?.state ?? allocateState(m)
     this.traces = config.channels.map((ch) => ({
       pumpIn: sampleInput(ch.pump, m.nt, m.dtS),
@@ -70,7 +75,7 @@ export class SimulationRun {
     // A caller-supplied source of normal deviates replaces the seeded one (the exact-covariance tests feed
     // unit draws through it to read off the scheme's noise input map).
     this.rng = config.options.noise.enabled ? (options.normalSource ?? new SeededRandom(config.options.noise.seed)) : null
-    this.fast = !this.forceGeneral && fastPathApplies(m)
+    this.fast = !this.profile && !this.forceGeneral && fastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
@@ -134,6 +139,7 @@ export class SimulationRun {
     const nz = m.nz
     for (let n = start; n < end; n++) {
       if (this.wasm) this.wasm.step()
+      else if (this.profile) interactProfile(s, this.profile, nz, m.dtS)
       else if (this.fast) {
         const c = m.exchangePerB
         const K = m.driveK, Er = m.svea.eRe, Ei = m.svea.eIm, h = m.dtS
@@ -196,6 +202,7 @@ export class SimulationRun {
     const nz = m.nz
     const loss = m.lossPerCell
     if (this.wasm) return this.wasm.transport()
+    if (this.profile) return transportProfile(s, this.profile, nz)
     for (let k = 0; k < m.nCh; k++) {
       const base = k * m.nodes
       s.uRe.copyWithin(base + 1, base, base + nz)
