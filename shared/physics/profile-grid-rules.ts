@@ -10,6 +10,7 @@
 import { SPEED_OF_LIGHT_M_PER_S } from './physical-constants'
 import type { ProfileSegment } from './longitudinal-profile'
 import type { SimulationConfig } from './simulation-config'
+import { usesWaveNetwork } from './wave-set'
 
 export const PROFILE_GRID_RULES = {
   /** Cells a profile feature must span. */
@@ -69,6 +70,7 @@ export function profileIssues(c: SimulationConfig): ProfileIssue[] {
   const o = c.options
   const unsupported: [boolean, (string | number)[], string][] = [
     [c.channels.length > 1, ['channels'], 'one channel'],
+    [usesWaveNetwork(c), ['waveguide', 'profile'], 'the plain pump–Stokes pair (no further waves, resonances or cascade orders)'],
     [o.kerr, ['options', 'kerr'], 'the Kerr effect off'],
     [o.noise.enabled, ['options', 'noise', 'enabled'], 'thermal noise off'],
     [o.higherOrderAcoustic, ['options', 'higherOrderAcoustic'], 'the slowly varying acoustic envelope'],
