@@ -2,7 +2,7 @@
 // and the API speak of a field the same way: "Interaction length L (m)" → label, unit "m", help = whole text.
 
 /** Units the shared schemas put in parentheses; anything else in parentheses is part of the label. */
-const KNOWN_UNITS = new Set(['m', 'ns', 'ps', 'W', 'MHz', 'GHz', 'dB/m', 'µm²', 'm/W', 'm²/W', 'nm', 'K', 'rad', 'm/s', 'm²', '1/(W m)'])
+const KNOWN_UNITS = new Set(['m', 'ns', 'ps', 'W', 'MHz', 'GHz', 'dB/m', 'µm²', 'm/W', 'm²/W', 'nm', 'K', 'rad', 'm/s', 'm²', '1/(W m)', '1/m'])
 
 export interface FieldText {
   label: string
