@@ -53,51 +53,74 @@ describe('power spectrum of a port trace', () => {
   })
 
   it('puts a CW tone in its bin, reading P/RBW with the Hann ENBW of 1.5 bins', () => {
-    // Hann window: equivalent noise bandwidth 1.5 bins (Harris 1978, Proc. IEEE 66, 51, table 1). The record holds
-    // 256 segments, so the segments at its ends lower the peak by ≈ 0.21/256 (see power-spectrum.ts).
+    // Hann window: equivalent noise bandwidth 1.5 bins (Harris 1978, Proc. IEEE 66, 51, table 1). Light is on at
+    // the record's ends, so the segments lie inside it and a bin-centred tone reads exactly P/RBW.
     const m = 256
-    const n = 256 * m
+    const n = 64 * m
     const binHz = 1 / (m * DT_S)
     const pW = 2e-3
     const s = spectrum(envelope(n, () => Math.sqrt(pW), 37 * binHz), m)
+    expect(s.ends).toBe('inside')
     const j = argmax(s.psdDbmPerGHz)
     expect(j).toBe(m / 2 + 37)
     expect(s.offsetHz[j]).toBeCloseTo(37 * binHz, 0)
     expect(s.rbwHz).toBeCloseTo(HANN_ENBW_BINS * binHz, 6)
-    expect(Math.abs(wPerHz(s.psdDbmPerGHz[j]) * s.rbwHz / pW - 1)).toBeLessThan(2e-3)
+    expect((wPerHz(s.psdDbmPerGHz[j]) * s.rbwHz) / pW).toBeCloseTo(1, 9)
     // ENBW measured: the integral over the peak height, in bins.
-    expect(integral(s) / wPerHz(s.psdDbmPerGHz[j]) / binHz).toBeCloseTo(1.5, 2)
+    expect(integral(s) / wPerHz(s.psdDbmPerGHz[j]) / binHz).toBeCloseTo(1.5, 9)
   })
 
   it('loses 1.42 dB on a tone halfway between bins (Hann scalloping loss)', () => {
     // Scalloping loss of the Hann window 1.42 dB (Harris 1978, Proc. IEEE 66, 51, table 1).
     const m = 256
     const binHz = 1 / (m * DT_S)
-    const s = spectrum(envelope(256 * m, () => 1e-2, -20.5 * binHz), m)
+    const s = spectrum(envelope(64 * m, () => 1e-2, -20.5 * binHz), m)
     const j = argmax(s.psdDbmPerGHz)
     expect([m / 2 - 21, m / 2 - 20]).toContain(j)
-    const onBin = 10 * Math.log10((1e-4 / s.rbwHz) * (1 - 0.21 / 256)) + 120
+    const onBin = 10 * Math.log10(1e-4 / s.rbwHz) + 120
     expect(s.psdDbmPerGHz[j] - onBin).toBeCloseTo(-1.42, 2)
   })
 
-  it('integrates to the trace mean power (Parseval) for a pulse at the very start, a tone and noise', () => {
+  it('shows a wave that is on at the record ends with the Hann line shape, not the spectrum of its truncation', () => {
+    // Hann: highest sidelobe −31.5 dB, falling 18 dB per octave (Harris 1978, Proc. IEEE 66, 51, table 1).
+    for (const n of [2000, 5000, 1 << 16]) {
+      const s = spectrum(envelope(n, () => 1, 2.3e9))
+      const j = argmax(s.psdDbmPerGHz)
+      const beyond = (bins: number) => Math.max(...Array.from(s.psdDbmPerGHz).filter((_, i) => Math.abs(i - j) >= bins)) - s.psdDbmPerGHz[j]
+      expect(beyond(3)).toBeLessThan(-31.5)
+      expect(beyond(10)).toBeLessThan(-65)
+      // Steady light: the window-weighted mean power is the mean power (Parseval).
+      expect(s.integratedPowerW / s.meanPowerW).toBeCloseTo(1, 12)
+    }
+  })
+
+  it('integrates to the trace mean power (Parseval) for pulses with no light at the ends, one of them close to the start', () => {
     // Parseval's theorem for the DFT; exact here because every sample carries the same window weight Σw² = 3/2.
     const n = 50_000
-    let seed = 12345
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31) - 0.5
     const a = new Float64Array(2 * n)
     let sum = 0
     for (let k = 0; k < n; k++) {
-      const pulse = 3 * Math.exp(-((k / 40) ** 2))
-      a[2 * k] = pulse + 0.2 * Math.cos(0.3 * k) + 0.05 * rand()
-      a[2 * k + 1] = 0.2 * Math.sin(0.3 * k) + 0.05 * rand()
+      const pulse = 3 * Math.exp(-(((k - 1300) / 40) ** 2)) + Math.exp(-(((k - 31_000) / 900) ** 2))
+      a[2 * k] = pulse * Math.cos(0.3 * k)
+      a[2 * k + 1] = pulse * Math.sin(0.3 * k)
       sum += a[2 * k] ** 2 + a[2 * k + 1] ** 2
     }
     const s = spectrum(a)
+    expect(s.ends).toBe('padded')
     expect(s.segmentSamples).toBe(MAX_SEGMENT)
-    expect(s.offsetHz.length).toBeLessThanOrEqual(4096)
     expect(integral(s) / (sum / n)).toBeCloseTo(1, 9)
+    expect(s.integratedPowerW / s.meanPowerW).toBeCloseTo(1, 12)
     expect(s.meanPowerW).toBeCloseTo(sum / n, 12)
+  })
+
+  it('reports the weighted power when a pulse sits near an end of a trace that is lit there', () => {
+    // A pulse in the first segment-quarter on a CW background is weighted by the rising Hann edge: the
+    // spectrum integrates to less than the mean power, and says by how much.
+    const n = 20_000
+    const s = spectrum(envelope(n, (k) => 0.01 + 3 * Math.exp(-(((k - 30) / 10) ** 2)), 0))
+    expect(s.ends).toBe('inside')
+    expect(integral(s) / s.integratedPowerW).toBeCloseTo(1, 9)
+    expect(s.integratedPowerW / s.meanPowerW).toBeLessThan(0.5)
   })
 
   it('reports a dark port instead of −∞ dB, and finite values for weak light', () => {
@@ -109,8 +132,9 @@ describe('power spectrum of a port trace', () => {
     expect(Math.min(...weak.psdDbmPerGHz)).toBeGreaterThanOrEqual(weak.floorDbmPerGHz)
   })
 
-  it('chooses the longest power-of-two segment the record holds, and pads short records', () => {
-    expect(spectrum(envelope(100, () => 1, 0)).segmentSamples).toBe(64)
+  it('chooses the longest power-of-two segment that fits (half the record when it is lit at the ends), and pads short records', () => {
+    expect(spectrum(envelope(100, () => 1, 0)).segmentSamples).toBe(32)
+    expect(spectrum(envelope(100, (k) => Math.exp(-(((k - 50) / 5) ** 2)), 0)).segmentSamples).toBe(64)
     expect(spectrum(envelope(5, () => 1, 0)).segmentSamples).toBe(16)
     expect(spectrum(envelope(1 << 20, () => 1, 0)).offsetHz.length).toBe(MAX_SEGMENT)
   })

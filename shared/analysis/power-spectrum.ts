@@ -1,21 +1,27 @@
 /*
  * Optical power spectrum of one port trace: a complex envelope a_n = A(nΔt) in √W, n = 0 … N−1, about the
  * port's carrier. Welch's averaged periodogram (Welch 1967, IEEE Trans. Audio Electroacoust. 15, 70) with
- * segments of M samples (a power of two, at most MAX_SEGMENT), hop H = M/4 (75 % overlap) and the periodic
- * Hann window w_m = sin²(πm/M):
+ * segments of M samples (a power of two, at most MAX_SEGMENT), hop H = M/4 (75 % overlap), the periodic Hann
+ * window w_m = sin²(πm/M) and segment starts t_s:
  *
- *   X_s(ν_k) = Σ_m w_m a_{sH + m − (M − H)} e^{+i2πkm/M},   ν_k = k/(MΔt),  k = −M/2 … M/2 − 1
- *   S(ν_k)   = Δt Σ_s |X_s(ν_k)|² / (3N/2)                   (W/Hz; shown as dBm/GHz = 10·log10(S) + 120)
+ *   X_s(ν_k) = Σ_m w_m a_{t_s + m} e^{+i2πkm/M},   ν_k = k/(MΔt),  k = −M/2 … M/2 − 1   (a = 0 outside the record)
+ *   S(ν_k)   = Δt Σ_s |X_s(ν_k)|² / W                (W/Hz; shown as dBm/GHz = 10·log10(S) + 120)
  *
  * The sign of the exponent follows the exp(−iωt) convention of docs/model.md: light at carrier + δ has an
- * envelope ∝ e^{−i2πδt}, and lands at ν = +δ. The record is padded with M − H zeros at both ends, so every
- * sample lies in exactly four segments and Σ_s w²_{n−sH} = 3/2 for every n (sin⁴ summed over four quarter
- * shifts). Hence Parseval holds exactly for any trace, pulsed or not:  Σ_k S(ν_k)·Δν = (1/N) Σ_n |a_n|²  (mean
- * power), Δν = 1/(MΔt). A pulse shorter than a segment reads its energy spectral density over the record
- * length, S ≈ |Ã(ν)|²/(NΔt); a tone of power P at a bin centre reads S = P/RBW, where the resolution bandwidth
- * RBW = ENBW·Δν and the Hann window's equivalent noise bandwidth is 1.5 bins (Harris 1978, Proc. IEEE 66, 51,
- * table 1). The segments that overlap the record's ends see part of a segment of zeros: a tone's peak reads
- * low by about 0.21·M/N of its power, and a tone present at the ends gains a skirt from its truncation.
+ * envelope ∝ e^{−i2πδt}, and lands at ν = +δ. A tone of power P at a bin centre reads S = P/RBW, where
+ * RBW = ENBW·Δν, Δν = 1/(MΔt), and the Hann window's equivalent noise bandwidth is 1.5 bins (Harris 1978,
+ * Proc. IEEE 66, 51, table 1). Where the segments lie depends on the light at the record's ends:
+ *
+ * - Light at the ends (a CW wave, a background): segments lie inside the record, t_s = sH, M ≤ N/2, and
+ *   W = S_count·Σw² = S_count·3M/8 (the usual Welch normalisation). A wave that is on at the ends then shows
+ *   the Hann line shape, not the spectrum of its truncation; Σ_k S·Δν is the mean power weighted by Σ_s w²,
+ *   exact for steady light, and reported (integratedPowerW) so a pulse near an end is not silently misweighted.
+ * - No light at the ends (mean power over the first and last M/4 samples, M the segment this case would use,
+ *   below END_DARK_RATIO of the whole record's):
+ *   the record is padded with M − H zeros at both ends, t_s = sH − (M − H), M ≤ N, so every sample lies in
+ *   four segments and Σ_s w²_{n−sH} = 3/2 for every n (sin⁴ summed over four quarter shifts); W = 3N/2. Then
+ *   Parseval holds exactly, Σ_k S(ν_k)·Δν = (1/N) Σ_n |a_n|², and a pulse shorter than a segment reads its
+ *   energy spectral density over the record length, S ≈ |Ã(ν)|²/(NΔt).
  */
 import FFT from 'fft.js'
 
@@ -27,6 +33,8 @@ export const MIN_SEGMENT = 16
 export const HANN_ENBW_BINS = 1.5
 /** Below this mean power (10¹¹ times less than one photon per second at 1550 nm) a port is dark. */
 export const DARK_POWER_W = 1e-30
+/** Light at the record's ends below this fraction of the mean power (−60 dB) counts as none: the record is padded. */
+export const END_DARK_RATIO = 1e-6
 /** Values more than this far below the peak are reported at that floor (double-precision FFT noise lies ~290 dB down). */
 export const DYNAMIC_RANGE_DB = 200
 export const SPECTRUM_WINDOW = 'Hann (periodic)'
@@ -50,7 +58,11 @@ export interface PortSpectrum {
   rbwHz: number
   segmentSamples: number
   segments: number
+  /** 'padded': no light at the ends, record zero-padded, every sample weighs the same; 'inside': segments inside the record. */
+  ends: 'padded' | 'inside'
   meanPowerW: number
+  /** Σ S·Δν: the mean power itself when padded, else the window-weighted mean power. */
+  integratedPowerW: number
 }
 export interface DarkPort {
   kind: 'dark'
@@ -68,6 +80,13 @@ export function segmentLength(samples: number, maxSegment = MAX_SEGMENT): number
   return m
 }
 
+/** Mean of |a_n|² over samples [from, to). */
+function meanPower(field: ArrayLike<number>, from: number, to: number): number {
+  let e = 0
+  for (let i = 2 * from; i < 2 * to; i++) e += field[i] * field[i]
+  return to > from ? e / (to - from) : 0
+}
+
 /**
  * Welch accumulation that can run in slices (advance) so a page stays responsive on long traces;
  * powerSpectrum() below runs it in one go.
@@ -77,7 +96,9 @@ export class SpectrumAccumulator {
   readonly segmentSamples: number
   readonly segments: number
   readonly meanPowerW: number
+  readonly ends: 'padded' | 'inside'
   private readonly hop: number
+  private readonly offset: number
   private readonly window: Float64Array
   private readonly fft: FFT
   private readonly input: number[]
@@ -92,16 +113,23 @@ export class SpectrumAccumulator {
   ) {
     if (!(dtS > 0) || !Number.isFinite(dtS)) throw new RangeError('The time step must be a positive number')
     if (field.length % 2 !== 0 || field.length === 0) throw new RangeError('A complex trace needs (re, im) pairs')
-    this.samples = field.length / 2
-    let energy = 0
-    for (let i = 0; i < field.length; i++) energy += field[i] * field[i]
-    if (!Number.isFinite(energy)) throw new RangeError('The trace holds values that are not finite numbers')
-    this.meanPowerW = energy / this.samples
-    const m = segmentLength(this.samples, opts.maxSegment)
+    const n = (this.samples = field.length / 2)
+    this.meanPowerW = meanPower(field, 0, n)
+    if (!Number.isFinite(this.meanPowerW)) throw new RangeError('The trace holds values that are not finite numbers')
+    const quarter = Math.max(1, segmentLength(n, opts.maxSegment) / 4)
+    const endPower = Math.max(meanPower(field, 0, Math.min(n, quarter)), meanPower(field, Math.max(0, n - quarter), n))
+    this.ends = n < 2 * MIN_SEGMENT || endPower < END_DARK_RATIO * this.meanPowerW ? 'padded' : 'inside'
+    const m = segmentLength(this.ends === 'padded' ? n : n / 2, opts.maxSegment)
     this.segmentSamples = m
     this.hop = m / 4
-    // Segment s covers samples sH − (M − H) … sH + H − 1, so sample n lies in segments ⌊n/H⌋ … ⌊n/H⌋ + 3.
-    this.segments = Math.floor((this.samples - 1) / this.hop) + 4
+    if (this.ends === 'padded') {
+      // Segment s covers samples sH − (M − H) … sH + H − 1, so sample n lies in segments ⌊n/H⌋ … ⌊n/H⌋ + 3.
+      this.offset = -(m - this.hop)
+      this.segments = Math.floor((n - 1) / this.hop) + 4
+    } else {
+      this.offset = 0
+      this.segments = Math.floor((n - m) / this.hop) + 1
+    }
     this.window = new Float64Array(m)
     for (let j = 0; j < m; j++) this.window[j] = Math.sin((Math.PI * j) / m) ** 2
     this.fft = new FFT(m)
@@ -124,7 +152,7 @@ export class SpectrumAccumulator {
     const { segmentSamples: m, hop, window: w, input, output, field, sum } = this
     const end = Math.min(this.segments, this.next + count)
     for (; this.next < end && !this.done; this.next++) {
-      const start = this.next * hop - (m - hop)
+      const start = this.next * hop + this.offset
       for (let j = 0; j < m; j++) {
         const n = start + j
         const inside = n >= 0 && n < this.samples
@@ -143,15 +171,18 @@ export class SpectrumAccumulator {
     if (!this.done) throw new Error('The spectrum is not finished')
     const m = this.segmentSamples
     const binHz = 1 / (m * this.dtS)
-    const scale = this.dtS / (1.5 * this.samples)
+    const weight = this.ends === 'padded' ? 1.5 * this.samples : (this.segments * 3 * m) / 8
+    const scale = this.dtS / weight
     const offsetHz = new Float64Array(m)
     const psd = new Float64Array(m)
     let peak = -Infinity
+    let integrated = 0
     for (let j = 0; j < m; j++) {
       // fftshift: bin k = j − M/2 sits at index (k + M) mod M of the transform.
       const k = (j + m / 2) % m
       offsetHz[j] = (j - m / 2) * binHz
       const s = this.sum[k] * scale
+      integrated += s * binHz
       psd[j] = s > 0 ? 10 * Math.log10(s) + 120 : -Infinity
       if (psd[j] > peak) peak = psd[j]
     }
@@ -167,9 +198,19 @@ export class SpectrumAccumulator {
       rbwHz: HANN_ENBW_BINS * binHz,
       segmentSamples: m,
       segments: this.segments,
+      ends: this.ends,
       meanPowerW: this.meanPowerW,
+      integratedPowerW: integrated,
     }
   }
+}
+
+/** How the record's ends were treated and, when it matters, how far the integral is from the mean power. */
+export function spectrumEndsNote(s: PortSpectrum): string {
+  if (s.ends === 'padded') return 'no light at the record ends, which are zero-padded: the spectrum integrates to the mean power'
+  const db = 10 * Math.log10(s.integratedPowerW / s.meanPowerW)
+  const base = 'light at the record ends, so the segments lie inside it'
+  return Math.abs(db) < 0.01 ? base : `${base}; the windows weigh light near the ends less than the rest, so the spectrum integrates to ${db > 0 ? '+' : ''}${db.toFixed(2)} dB of the mean power`
 }
 
 /** The whole spectrum at once (solver, tests). */

@@ -1,7 +1,8 @@
 // The optical power spectrum of every port trace of a finished run, as result arrays: one shared frequency
 // axis and one PSD array per trace with light (shared/analysis/power-spectrum.ts states the estimator).
-// Every trace of a run has the same length and Δt, hence the same segment length and axis.
-import { powerSpectrum, SPECTRUM_OVERLAP, SPECTRUM_WINDOW, type SpectrumResult } from '@shared/analysis/power-spectrum'
+// Every trace of a run has the same length and Δt; all take the segment length of a trace lit at its ends
+// (half the record at most), so one axis serves them all.
+import { MAX_SEGMENT, powerSpectrum, segmentLength, spectrumEndsNote, SPECTRUM_OVERLAP, SPECTRUM_WINDOW, type SpectrumResult } from '@shared/analysis/power-spectrum'
 import type { ArrayDescriptor } from '@shared/physics/simulation-result'
 
 export interface PortTrace {
@@ -31,7 +32,9 @@ export function portTracesOf(descriptors: ArrayDescriptor[], arrays: Record<stri
 
 /** Spectrum arrays for the given traces: the axis first, then one PSD per trace with light; none without light anywhere. */
 export function portSpectra(traces: PortTrace[], dtS: number): SpectrumArray[] {
-  const results = traces.map((t) => ({ trace: t, s: powerSpectrum(t.data, dtS) }))
+  const samples = traces.length > 0 ? traces[0].data.length / 2 : 0
+  const opts = { maxSegment: segmentLength(samples / 2, MAX_SEGMENT) }
+  const results = traces.map((t) => ({ trace: t, s: powerSpectrum(t.data, dtS, opts) }))
   const lit = results.filter((r): r is { trace: PortTrace; s: Extract<SpectrumResult, { kind: 'spectrum' }> } => r.s.kind === 'spectrum')
   if (lit.length === 0) return []
   const first = lit[0].s
@@ -58,7 +61,7 @@ export function portSpectra(traces: PortTrace[], dtS: number): SpectrumArray[] {
         dtype: 'f8' as const,
         shape: [s.psdDbmPerGHz.length],
         units: 'dBm/GHz',
-        description: `Power spectral density of ${trace.name} (${trace.label}); ${method}; values below ${s.floorDbmPerGHz.toFixed(1)} dBm/GHz are set to it`,
+        description: `Power spectral density of ${trace.name} (${trace.label}); ${method}; ${spectrumEndsNote(s)}; values below ${s.floorDbmPerGHz.toFixed(1)} dBm/GHz are set to it`,
       },
     })),
   ]

@@ -2,12 +2,14 @@
 // axis draft, and the sentences that tell the user what will be swept and what the chart will show.
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { gainDrive } from '@shared/physics/gain-spectrum'
-import { SCAN_LINEWIDTHS, gainScanPlan, type GainScanPlan } from '@shared/physics/gain-scan'
+import { SCAN_LINEWIDTHS, SETTLED_TAIL_FRACTION, gainScanPlan, withSettledWindows, type GainScanPlan } from '@shared/physics/gain-scan'
 import type { AxisDraft } from './axis-draft'
 import { formatValue } from './sweep-format'
 
 export interface GainScanStart {
   plan: GainScanPlan
+  /** The base configuration of the sweep: for CW runs with the two settled-tail windows added. */
+  config: SimulationConfig
   draft: AxisDraft
   /** What is swept, in words. */
   range: string
@@ -40,9 +42,10 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
       : `all ${plan.lines} backward resonances, from the lowest one − ${SCAN_LINEWIDTHS} of its linewidths to the highest + ${SCAN_LINEWIDTHS}`
   const range = `Detuning from ${formatValue(plan.startMHz)} to ${formatValue(plan.stopMHz)} MHz in ${plan.count} points, ${formatValue(plan.stepMHz)} MHz apart: ${where}.`
   const drive = gainDrive(config)
+  const tailNs = formatValue(config.windowNs * SETTLED_TAIL_FRACTION)
   const chart =
     drive.kind === 'cw'
-      ? 'Pump and Stokes are continuous: the sweep page plots the Stokes gain against detuning over the closed-form small-signal gain (a sum of Lorentzians).'
+      ? `Pump and Stokes are continuous: the sweep page plots the Stokes gain against detuning over the closed-form small-signal gain (a sum of Lorentzians). The gain is read over the last ${tailNs} ns of each run, after the switch-on ringing, from two energy windows added to the base configuration.`
       : 'The pump or Stokes is pulsed: the sweep page plots the effective gain (peak Stokes output over peak input) against detuning, with the continuous-wave closed form at the peak pump power as a dashed reference.'
   // The narrowest line has the longest lifetime 1/Γ = 1/(2π·Δν).
   const lifetimeNs = 1e3 / (2 * Math.PI * Math.min(config.waveguide.linewidthMHz, ...(config.waveguide.additionalResonances ?? []).map((r) => r.linewidthMHz)))
@@ -51,5 +54,5 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
     drive.kind === 'cw' && lifetimes < CW_SETTLE_LIFETIMES
       ? `The window, ${formatValue(config.windowNs)} ns, spans ${formatValue(Number(lifetimes.toPrecision(2)))} phonon lifetimes: a CW run's Stokes output settles to its steady gain over tens of lifetimes, so the points may lie below the closed form. A window of ${formatValue(Math.ceil(CW_SETTLE_LIFETIMES * lifetimeNs))} ns or more lets them reach it.`
       : null
-  return { plan, draft, range, chart, settle }
+  return { plan, config: drive.kind === 'cw' ? withSettledWindows(config) : config, draft, range, chart, settle }
 }
