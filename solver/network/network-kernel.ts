@@ -25,85 +25,99 @@ export interface NetworkState {
   aIm: Float64Array[]
   bRe: Float64Array[]
   bIm: Float64Array[]
-  /** Per field: D₀ and b̄ of the node in hand. */
-  scratch: Float64Array
+  /** Per field and node: the source D₀, and b̄ (later D₁). */
+  dRe: Float64Array[]
+  dIm: Float64Array[]
+  mRe: Float64Array[]
+  mIm: Float64Array[]
 }
 
 export function allocateNetworkState(m: NetworkModel): NetworkState {
   const arrays = (n: number) => Array.from({ length: n }, () => new Float64Array(m.nodes))
-  return { aRe: arrays(m.waves.length), aIm: arrays(m.waves.length), bRe: arrays(m.fields.length), bIm: arrays(m.fields.length), scratch: new Float64Array(4 * m.fields.length) }
+  const W = m.waves.length, F = m.fields.length
+  return { aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F) }
 }
 
-/** Adds i·K·a_h a_l*·e^{−iθ} of every process at node j into d (re at 2f, im at 2f + 1). */
-function sources(m: NetworkModel, s: NetworkState, j: number, d: Float64Array, offset: number): void {
-  const F = m.fields.length
-  for (let f = 0; f < F; f++) (d[offset + 2 * f] = 0), (d[offset + 2 * f + 1] = 0)
+/** Sets (outRe, outIm) of every field to Σ_processes i·K·a_h a_l*·e^{−iθ} over nodes j0..j1. */
+function sources(m: NetworkModel, s: NetworkState, j0: number, j1: number, outRe: Float64Array[], outIm: Float64Array[]): void {
+  for (let f = 0; f < outRe.length; f++) outRe[f].fill(0, j0, j1 + 1), outIm[f].fill(0, j0, j1 + 1)
   for (const p of m.processes) {
-    const hr = s.aRe[p.higher][j], hi = s.aIm[p.higher][j]
-    const lr = s.aRe[p.lower][j], li = s.aIm[p.lower][j]
-    let xr = hr * lr + hi * li
-    let xi = hi * lr - hr * li
-    if (p.phaseRe) {
-      const cr = p.phaseRe[j], ci = p.phaseIm![j]
-      const yr = xr * cr + xi * ci
-      xi = xi * cr - xr * ci
-      xr = yr
+    const hRe = s.aRe[p.higher], hIm = s.aIm[p.higher], lRe = s.aRe[p.lower], lIm = s.aIm[p.lower]
+    const dr = outRe[p.field], di = outIm[p.field]
+    const K = p.K
+    const cRe = p.phaseRe, cIm = p.phaseIm
+    for (let j = j0; j <= j1; j++) {
+      const hr = hRe[j], hi = hIm[j], lr = lRe[j], li = lIm[j]
+      let xr = hr * lr + hi * li
+      let xi = hi * lr - hr * li
+      if (cRe !== null) {
+        const cr = cRe[j], ci = cIm![j]
+        const yr = xr * cr + xi * ci
+        xi = xi * cr - xr * ci
+        xr = yr
+      }
+      dr[j] -= K * xi
+      di[j] += K * xr
     }
-    d[offset + 2 * p.field] -= p.K * xi
-    d[offset + 2 * p.field + 1] += p.K * xr
   }
 }
 
-/** Cayley rotation of (a_h, a_l) with generator i[[0, β], [β*, 0]]; β = scale·b̄·e^{iθ}. */
-function rotate(s: NetworkState, j: number, h: number, l: number, betaR: number, betaI: number): void {
-  const ur = s.aRe[h][j], ui = s.aIm[h][j], vr = s.aRe[l][j], vi = s.aIm[l][j]
-  const q = 0.25 * (betaR * betaR + betaI * betaI)
-  const den = 1 / (1 + q)
-  const a = 1 - q
-  s.aRe[h][j] = (a * ur - betaR * vi - betaI * vr) * den
-  s.aIm[h][j] = (a * ui + betaR * vr - betaI * vi) * den
-  s.aRe[l][j] = (a * vr - betaR * ui + betaI * ur) * den
-  s.aIm[l][j] = (a * vi + betaR * ur + betaI * ui) * den
+/** Cayley rotation of (a_h, a_l) with generator i[[0, β], [β*, 0]], β = c·b̄·e^{iθ}, over nodes j0..j1. */
+function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number, j0: number, j1: number): void {
+  const hRe = s.aRe[p.higher], hIm = s.aIm[p.higher], lRe = s.aRe[p.lower], lIm = s.aIm[p.lower]
+  const mRe = s.mRe[p.field], mIm = s.mIm[p.field]
+  const cRe = p.phaseRe, cIm = p.phaseIm
+  for (let j = j0; j <= j1; j++) {
+    let betaR = c * mRe[j]
+    let betaI = c * mIm[j]
+    if (cRe !== null) {
+      const cr = cRe[j], ci = cIm![j]
+      const r = betaR * cr - betaI * ci
+      betaI = betaR * ci + betaI * cr
+      betaR = r
+    }
+    const ur = hRe[j], ui = hIm[j], vr = lRe[j], vi = lIm[j]
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + q)
+    const a = 1 - q
+    hRe[j] = (a * ur - betaR * vi - betaI * vr) * den
+    hIm[j] = (a * ui + betaR * vr - betaI * vi) * den
+    lRe[j] = (a * vr - betaR * ui + betaI * ur) * den
+    lIm[j] = (a * vi + betaR * ur + betaI * ui) * den
+  }
 }
 
+/** One interaction step at nodes j0..j1 of equal weight (array-wise per field and process: tight loops). */
 export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
   const F = m.fields.length
   const P = m.processes.length
   const h = m.dtS
   const hh = 0.5 * h
-  const d = s.scratch
-  // d: D₀ at [0, 2F), b̄ at [2F, 4F)
-  const bb = 2 * F
-  for (let j = j0; j <= j1; j++) {
-    sources(m, s, j, d, 0)
-    for (let f = 0; f < F; f++) {
-      const { eRe: Er, eIm: Ei } = m.fields[f].svea
-      const br = s.bRe[f][j], bi = s.bIm[f][j]
-      const tr = br + h * d[2 * f], ti = bi + h * d[2 * f + 1]
-      d[bb + 2 * f] = 0.5 * (br + Er * tr - Ei * ti)
-      d[bb + 2 * f + 1] = 0.5 * (bi + Er * ti + Ei * tr)
+  sources(m, s, j0, j1, s.dRe, s.dIm)
+  for (let f = 0; f < F; f++) {
+    const { eRe: Er, eIm: Ei } = m.fields[f].svea
+    const bRe = s.bRe[f], bIm = s.bIm[f], dRe = s.dRe[f], dIm = s.dIm[f], mRe = s.mRe[f], mIm = s.mIm[f]
+    for (let j = j0; j <= j1; j++) {
+      const br = bRe[j], bi = bIm[j]
+      const tr = br + h * dRe[j], ti = bi + h * dIm[j]
+      mRe[j] = 0.5 * (br + Er * tr - Ei * ti)
+      mIm[j] = 0.5 * (bi + Er * ti + Ei * tr)
     }
-    for (let k = 0; k < 2 * P - 1; k++) {
-      const pi = k < P ? k : 2 * P - 2 - k
-      const p = m.processes[pi]
-      const c = (pi === P - 1 ? 1 : 0.5) * weight * p.c
-      let betaR = c * d[bb + 2 * p.field]
-      let betaI = c * d[bb + 2 * p.field + 1]
-      if (p.phaseRe) {
-        const cr = p.phaseRe[j], ci = p.phaseIm![j]
-        const r = betaR * cr - betaI * ci
-        betaI = betaR * ci + betaI * cr
-        betaR = r
-      }
-      rotate(s, j, p.higher, p.lower, betaR, betaI)
-    }
-    // b ← E(b + h/2·D₀) + h/2·D₁ ; D₁ overwrites b̄ (no longer needed)
-    sources(m, s, j, d, bb)
-    for (let f = 0; f < F; f++) {
-      const { eRe: Er, eIm: Ei } = m.fields[f].svea
-      const sr = s.bRe[f][j] + hh * d[2 * f], si = s.bIm[f][j] + hh * d[2 * f + 1]
-      s.bRe[f][j] = Er * sr - Ei * si + hh * d[bb + 2 * f]
-      s.bIm[f][j] = Er * si + Ei * sr + hh * d[bb + 2 * f + 1]
+  }
+  for (let k = 0; k < 2 * P - 1; k++) {
+    const pi = k < P ? k : 2 * P - 2 - k
+    const p = m.processes[pi]
+    rotate(s, p, (pi === P - 1 ? 1 : 0.5) * weight * p.c, j0, j1)
+  }
+  // b ← E(b + h/2·D₀) + h/2·D₁, with D₁ written over b̄ (no longer needed).
+  sources(m, s, j0, j1, s.mRe, s.mIm)
+  for (let f = 0; f < F; f++) {
+    const { eRe: Er, eIm: Ei } = m.fields[f].svea
+    const bRe = s.bRe[f], bIm = s.bIm[f], dRe = s.dRe[f], dIm = s.dIm[f], mRe = s.mRe[f], mIm = s.mIm[f]
+    for (let j = j0; j <= j1; j++) {
+      const sr = bRe[j] + hh * dRe[j], si = bIm[j] + hh * dIm[j]
+      bRe[j] = Er * sr - Ei * si + hh * mRe[j]
+      bIm[j] = Er * si + Ei * sr + hh * mIm[j]
     }
   }
 }
