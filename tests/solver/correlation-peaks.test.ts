@@ -79,7 +79,7 @@ describe('correlation read-out with a shared frequency modulation', () => {
     [10, 500, 25],
     [4, 400, 60],
     [8, 1200, 30],
-  ])('f_m = %s MHz, Δf = %s MHz, L = %s m: peaks d_m = v_g/(2f_m) apart, width v_g Δν_B/(2π f_m Δf) within 15 %%', (rateMHz, excursionMHz, lengthM) => {
+  ])('f_m = %s MHz, Δf = %s MHz, L = %s m: peaks d_m = v_g/(2f_m) apart, width v_g Δν_B/(2π f_m Δf) within 15 per cent', (rateMHz, excursionMHz, lengthM) => {
     const peaks = correlationPeaks(rateMHz, excursionMHz, lengthM)
     const spacingM = VG / (2 * rateMHz * 1e6)
     const widthM = (VG * WAVEGUIDE.linewidthMHz * 1e6) / (2 * Math.PI * rateMHz * 1e6 * excursionMHz * 1e6)
