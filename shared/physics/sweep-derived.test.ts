@@ -5,11 +5,10 @@ import { criticalPowerOf, energyPerPeakNs, storageDelayNs } from './sweep-derive
 import { applySweepValue, readSweepValue } from './sweep-fields'
 import { neededWindowNs } from './sweep-window'
 import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
-import type { Pulse } from './pulse'
 import { erfc } from './pulse-truncation'
-import { transitNs } from './pulse-roles'
+import { pulseFwhmNs, transitNs } from './pulse-roles'
 
-const gaussian = (peakPowerW: number, centreNs: number, fwhmNs: number, label?: string): Pulse => ({ shape: 'gaussian', peakPowerW, centreNs, fwhmNs, phaseRad: 0, frequencyOffsetMHz: 0, label })
+const gaussian = (peakPowerW: number, centreNs: number, fwhmNs: number, label?: string) => ({ shape: 'gaussian' as const, peakPowerW, centreNs, fwhmNs, phaseRad: 0, frequencyOffsetMHz: 0, label })
 
 /** A lossless 5 cm chalcogenide-like rib (invented values) storing a data pulse. */
 function storageConfig(readNs = 4, windowNs = 8): SimulationConfig {
@@ -26,11 +25,11 @@ describe('derived sweep axes', () => {
     // Source: Gaussian integral ∫e^{−a t²} dt = √(π/a) with a = 4 ln2/F² (common practice); ∫sech²(t/T₀) dt = 2T₀.
     const F = 0.7
     expect(energyPerPeakNs(gaussian(1, 5, F))).toBeCloseTo(F * Math.sqrt(Math.PI / (4 * Math.LN2)), 14)
-    expect(energyPerPeakNs({ ...gaussian(1, 5, F), shape: 'sech2' })).toBeCloseTo((2 * F) / (2 * Math.log(1 + Math.SQRT2)), 14)
-    const sg = energyPerPeakNs({ ...gaussian(1, 5, F), shape: 'superGaussian', order: 1 })
+    expect(energyPerPeakNs({ ...gaussian(1, 5, F), shape: 'sech2' as const })).toBeCloseTo((2 * F) / (2 * Math.log(1 + Math.SQRT2)), 14)
+    const sg = energyPerPeakNs({ ...gaussian(1, 5, F), shape: 'superGaussian' as const, order: 1 })
     expect(Math.abs(sg / energyPerPeakNs(gaussian(1, 5, F)) - 1)).toBeLessThan(1e-9)
     // A flat-topped pulse with a rise much shorter than its width carries ≈ its width (within the edges' share).
-    const rect = energyPerPeakNs({ ...gaussian(1, 5, 2), shape: 'rectangular', riseNs: 0.002 })
+    const rect = energyPerPeakNs({ ...gaussian(1, 5, 2), shape: 'rectangular' as const, riseNs: 0.002 })
     expect(Math.abs(rect / 2 - 1)).toBeLessThan(1e-3)
     // Sampled: trapezoid rule over the samples, scaled by the largest.
     expect(energyPerPeakNs({ shape: 'sampled', peakPowerW: 1, centreNs: 5, phaseRad: 0, frequencyOffsetMHz: 0, sampleIntervalNs: 0.1, powerShape: [0, 2, 2, 0] })).toBeCloseTo(0.2, 14)
@@ -106,9 +105,9 @@ describe('the window a sweep point needs', () => {
     expect(last.values).toEqual([8, 0.3])
     expect(last.windowExtendedFromNs).toBe(5)
     expect(last.config.windowNs).toBeGreaterThan(9)
-    expect(last.config.channels[0].pump.pulses[0].fwhmNs).toBe(0.3)
-    expect(last.config.channels[0].stokes.pulses[0].fwhmNs).toBe(0.3)
-    expect(last.config.channels[0].stokes.pulses[1].fwhmNs).toBe(0.2)
+    expect(pulseFwhmNs(last.config.channels[0].pump.pulses[0])).toBe(0.3)
+    expect(pulseFwhmNs(last.config.channels[0].stokes.pulses[0])).toBe(0.3)
+    expect(pulseFwhmNs(last.config.channels[0].stokes.pulses[1])).toBe(0.2)
     expect(built.points[0].windowExtendedFromNs).toBeUndefined()
     expect(built.points[0].config.windowNs).toBe(5)
 

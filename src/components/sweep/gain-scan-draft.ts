@@ -30,6 +30,7 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
   const draft: AxisDraft = {
     field: 'detuningMHz',
     pulseLabel: '',
+    tiedLabels: [],
     kind: 'linear',
     listText: '',
     start: String(plan.startMHz),
