@@ -1,4 +1,4 @@
-import { index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { boolean, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import type { SweepAxis, SweepEstimate } from '@shared/api/sweeps'
 import { groups } from './groups'
@@ -22,6 +22,8 @@ export const sweeps = pgTable(
     notes: text('notes').notNull().default(''),
     baseConfig: jsonb('base_config').$type<SimulationConfig>().notNull(),
     axes: jsonb('axes').$type<SweepAxis[]>().notNull(),
+    /** Points' windows lengthen to hold their pulses (shared/physics/sweep-window.ts); kept so a re-run builds the same point. */
+    extendWindow: boolean('extend_window').notNull().default(true),
     pointCount: integer('point_count').notNull(),
     estimate: jsonb('estimate').$type<SweepEstimate>().notNull(),
     /** running until no point is queued or running; the feeder (server/modules/sweeps/sweep-feeder.ts) closes it. */

@@ -1,0 +1,1 @@
+ALTER TABLE "sweeps" ADD COLUMN "extend_window" boolean DEFAULT true NOT NULL;
