@@ -52,33 +52,36 @@ describe('power spectrum of a port trace', () => {
     expect(worst).toBeLessThan(1e-3)
   })
 
-  it('puts a CW tone in its bin, reading P/RBW with the Hann ENBW of 1.5 bins', () => {
-    // Hann window: equivalent noise bandwidth 1.5 bins (Harris 1978, Proc. IEEE 66, 51, table 1). Light is on at
-    // the record's ends, so the segments lie inside it and a bin-centred tone reads exactly P/RBW.
+  it('puts a CW tone in its bin, reading P/RBW with the Hann ENBW of 1.5 resolution cells', () => {
+    // Hann window: equivalent noise bandwidth 1.5 cells of 1/(MΔt) (Harris 1978, Proc. IEEE 66, 51, table 1). Light
+    // is on at the record's ends, so the segments lie inside it and a tone on a cell centre reads exactly P/RBW.
     const m = 256
-    const n = 64 * m
-    const binHz = 1 / (m * DT_S)
+    const cellHz = 1 / (m * DT_S)
     const pW = 2e-3
-    const s = spectrum(envelope(n, () => Math.sqrt(pW), 37 * binHz), m)
+    const s = spectrum(envelope(64 * m, () => Math.sqrt(pW), 37 * cellHz), m)
     expect(s.ends).toBe('inside')
+    // Transformed on 4M points (zero-filled): four plotted bins per resolution cell.
+    expect(s.offsetHz.length).toBe(4 * m)
+    expect(s.binHz).toBeCloseTo(cellHz / 4, 6)
     const j = argmax(s.psdDbmPerGHz)
-    expect(j).toBe(m / 2 + 37)
-    expect(s.offsetHz[j]).toBeCloseTo(37 * binHz, 0)
-    expect(s.rbwHz).toBeCloseTo(HANN_ENBW_BINS * binHz, 6)
+    expect(j).toBe(2 * m + 4 * 37)
+    expect(s.offsetHz[j]).toBeCloseTo(37 * cellHz, 0)
+    expect(s.rbwHz).toBeCloseTo(HANN_ENBW_BINS * cellHz, 6)
     expect((wPerHz(s.psdDbmPerGHz[j]) * s.rbwHz) / pW).toBeCloseTo(1, 9)
-    // ENBW measured: the integral over the peak height, in bins.
-    expect(integral(s) / wPerHz(s.psdDbmPerGHz[j]) / binHz).toBeCloseTo(1.5, 9)
+    // ENBW measured: the integral over the peak height, in cells.
+    expect(integral(s) / wPerHz(s.psdDbmPerGHz[j]) / cellHz).toBeCloseTo(1.5, 9)
   })
 
-  it('loses 1.42 dB on a tone halfway between bins (Hann scalloping loss)', () => {
+  it('reads 1.42 dB down half a resolution cell from a tone (Hann scalloping loss)', () => {
     // Scalloping loss of the Hann window 1.42 dB (Harris 1978, Proc. IEEE 66, 51, table 1).
     const m = 256
-    const binHz = 1 / (m * DT_S)
-    const s = spectrum(envelope(64 * m, () => 1e-2, -20.5 * binHz), m)
-    const j = argmax(s.psdDbmPerGHz)
-    expect([m / 2 - 21, m / 2 - 20]).toContain(j)
-    const onBin = 10 * Math.log10(1e-4 / s.rbwHz) + 120
-    expect(s.psdDbmPerGHz[j] - onBin).toBeCloseTo(-1.42, 2)
+    const cellHz = 1 / (m * DT_S)
+    const s = spectrum(envelope(64 * m, () => 1e-2, -20.5 * cellHz), m)
+    const onTone = 10 * Math.log10(1e-4 / s.rbwHz) + 120
+    const at = (cells: number) => s.psdDbmPerGHz[Math.round(cells * 4) + 2 * m]
+    expect(at(-20.5) - onTone).toBeCloseTo(0, 6)
+    expect(at(-20) - onTone).toBeCloseTo(-1.42, 2)
+    expect(at(-21) - onTone).toBeCloseTo(-1.42, 2)
   })
 
   it('shows a wave that is on at the record ends with the Hann line shape, not the spectrum of its truncation', () => {
@@ -86,7 +89,8 @@ describe('power spectrum of a port trace', () => {
     for (const n of [2000, 5000, 1 << 16]) {
       const s = spectrum(envelope(n, () => 1, 2.3e9))
       const j = argmax(s.psdDbmPerGHz)
-      const beyond = (bins: number) => Math.max(...Array.from(s.psdDbmPerGHz).filter((_, i) => Math.abs(i - j) >= bins)) - s.psdDbmPerGHz[j]
+      const perCell = s.offsetHz.length / s.segmentSamples
+      const beyond = (cells: number) => Math.max(...Array.from(s.psdDbmPerGHz).filter((_, i) => Math.abs(i - j) >= cells * perCell)) - s.psdDbmPerGHz[j]
       expect(beyond(3)).toBeLessThan(-31.5)
       expect(beyond(10)).toBeLessThan(-65)
       // Steady light: the window-weighted mean power is the mean power (Parseval).

@@ -4,13 +4,15 @@
  * segments of M samples (a power of two, at most MAX_SEGMENT), hop H = M/4 (75 % overlap), the periodic Hann
  * window w_m = sin²(πm/M) and segment starts t_s:
  *
- *   X_s(ν_k) = Σ_m w_m a_{t_s + m} e^{+i2πkm/M},   ν_k = k/(MΔt),  k = −M/2 … M/2 − 1   (a = 0 outside the record)
+ *   X_s(ν_k) = Σ_m w_m a_{t_s + m} e^{+i2πkm/P},   ν_k = k/(PΔt),  k = −P/2 … P/2 − 1   (a = 0 outside the record)
  *   S(ν_k)   = Δt Σ_s |X_s(ν_k)|² / W                (W/Hz; shown as dBm/GHz = 10·log10(S) + 120)
  *
  * The sign of the exponent follows the exp(−iωt) convention of docs/model.md: light at carrier + δ has an
- * envelope ∝ e^{−i2πδt}, and lands at ν = +δ. A tone of power P at a bin centre reads S = P/RBW, where
- * RBW = ENBW·Δν, Δν = 1/(MΔt), and the Hann window's equivalent noise bandwidth is 1.5 bins (Harris 1978,
- * Proc. IEEE 66, 51, table 1). Where the segments lie depends on the light at the record's ends:
+ * envelope ∝ e^{−i2πδt}, and lands at ν = +δ. The transform length P = min(4M, MAX_SEGMENT) ≥ M zero-fills
+ * short segments, so the curve is sampled every Δν = 1/(PΔt), finer than its resolution; Σ_k S·Δν is unchanged. A tone
+ * of power P_t on a resolution cell's centre (ν = j/(MΔt)) reads S = P_t/RBW, where RBW = ENBW/(MΔt) and the Hann
+ * window's equivalent noise bandwidth is 1.5 cells (Harris 1978, Proc. IEEE 66, 51, table 1). Where the
+ * segments lie depends on the light at the record's ends:
  *
  * - Light at the ends (a CW wave, a background): segments lie inside the record, t_s = sH, M ≤ N/2, and
  *   W = S_count·Σw² = S_count·3M/8 (the usual Welch normalisation). A wave that is on at the ends then shows
@@ -27,6 +29,8 @@ import FFT from 'fft.js'
 
 /** Longest segment: at most this many points come out, whatever the record length (common practice). */
 export const MAX_SEGMENT = 4096
+/** Short segments are transformed on this many times their length (zero-filled), at most MAX_SEGMENT points. */
+export const ZERO_FILL = 4
 /** Shortest segment: shorter records are zero-padded up to it. */
 export const MIN_SEGMENT = 16
 /** Hann: Σw² M / (Σw)² = (3M/8)·M / (M/2)² (Harris 1978, table 1). */
@@ -43,18 +47,20 @@ export const SPECTRUM_OVERLAP = 0.75
 export interface SpectrumOptions {
   /** Longest segment in samples (a power of two); default MAX_SEGMENT. */
   maxSegment?: number
+  /** Most output points (a power of two; zero-filled transform up to 4 × the segment); default MAX_SEGMENT. */
+  maxPoints?: number
 }
 
 export interface PortSpectrum {
   kind: 'spectrum'
-  /** Offset from the port's carrier (Hz), negative to positive, bin step Δν = 1/(MΔt). */
+  /** Offset from the port's carrier (Hz), negative to positive, bin step Δν = 1/(PΔt). */
   offsetHz: Float64Array
   /** Power spectral density in dBm/GHz, floored at peak − DYNAMIC_RANGE_DB. */
   psdDbmPerGHz: Float64Array
   peakDbmPerGHz: number
   floorDbmPerGHz: number
   binHz: number
-  /** ENBW × bin width. */
+  /** Hann ENBW × 1/(MΔt): the resolution, whatever the zero-filling. */
   rbwHz: number
   segmentSamples: number
   segments: number
@@ -104,6 +110,8 @@ export class SpectrumAccumulator {
   private readonly input: number[]
   private readonly output: number[]
   private readonly sum: Float64Array
+  /** Transform length P (a power of two, M ≤ P ≤ 4M). */
+  readonly points: number
   private next = 0
 
   constructor(
@@ -132,10 +140,13 @@ export class SpectrumAccumulator {
     }
     this.window = new Float64Array(m)
     for (let j = 0; j < m; j++) this.window[j] = Math.sin((Math.PI * j) / m) ** 2
-    this.fft = new FFT(m)
+    // Zero-filled transform on up to 4M points: the curve is drawn between the window's resolution cells
+    // (the RBW stays 1.5/(MΔt)); entries past 2M of the input are never written and stay zero.
+    this.points = Math.max(m, Math.min(opts.maxPoints ?? MAX_SEGMENT, ZERO_FILL * m))
+    this.fft = new FFT(this.points)
     this.input = this.fft.createComplexArray()
     this.output = this.fft.createComplexArray()
-    this.sum = new Float64Array(m)
+    this.sum = new Float64Array(this.points)
   }
 
   get done(): boolean {
@@ -161,7 +172,7 @@ export class SpectrumAccumulator {
         input[2 * j + 1] = inside ? -w[j] * field[2 * n + 1] : 0
       }
       this.fft.transform(output, input)
-      for (let k = 0; k < m; k++) sum[k] += output[2 * k] ** 2 + output[2 * k + 1] ** 2
+      for (let k = 0; k < this.points; k++) sum[k] += output[2 * k] ** 2 + output[2 * k + 1] ** 2
     }
     return this.done
   }
@@ -170,24 +181,25 @@ export class SpectrumAccumulator {
     if (this.meanPowerW < DARK_POWER_W) return { kind: 'dark', message: NO_LIGHT, meanPowerW: this.meanPowerW }
     if (!this.done) throw new Error('The spectrum is not finished')
     const m = this.segmentSamples
-    const binHz = 1 / (m * this.dtS)
+    const p = this.points
+    const binHz = 1 / (p * this.dtS)
     const weight = this.ends === 'padded' ? 1.5 * this.samples : (this.segments * 3 * m) / 8
     const scale = this.dtS / weight
-    const offsetHz = new Float64Array(m)
-    const psd = new Float64Array(m)
+    const offsetHz = new Float64Array(p)
+    const psd = new Float64Array(p)
     let peak = -Infinity
     let integrated = 0
-    for (let j = 0; j < m; j++) {
-      // fftshift: bin k = j − M/2 sits at index (k + M) mod M of the transform.
-      const k = (j + m / 2) % m
-      offsetHz[j] = (j - m / 2) * binHz
+    for (let j = 0; j < p; j++) {
+      // fftshift: bin k = j − P/2 sits at index (k + P) mod P of the transform.
+      const k = (j + p / 2) % p
+      offsetHz[j] = (j - p / 2) * binHz
       const s = this.sum[k] * scale
       integrated += s * binHz
       psd[j] = s > 0 ? 10 * Math.log10(s) + 120 : -Infinity
       if (psd[j] > peak) peak = psd[j]
     }
     const floor = peak - DYNAMIC_RANGE_DB
-    for (let j = 0; j < m; j++) if (!(psd[j] >= floor)) psd[j] = floor
+    for (let j = 0; j < p; j++) if (!(psd[j] >= floor)) psd[j] = floor
     return {
       kind: 'spectrum',
       offsetHz,
@@ -195,7 +207,7 @@ export class SpectrumAccumulator {
       peakDbmPerGHz: peak,
       floorDbmPerGHz: floor,
       binHz,
-      rbwHz: HANN_ENBW_BINS * binHz,
+      rbwHz: HANN_ENBW_BINS / (m * this.dtS),
       segmentSamples: m,
       segments: this.segments,
       ends: this.ends,

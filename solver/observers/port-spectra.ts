@@ -38,7 +38,7 @@ export function portSpectra(traces: PortTrace[], dtS: number): SpectrumArray[] {
   const lit = results.filter((r): r is { trace: PortTrace; s: Extract<SpectrumResult, { kind: 'spectrum' }> } => r.s.kind === 'spectrum')
   if (lit.length === 0) return []
   const first = lit[0].s
-  const method = `${SPECTRUM_WINDOW} window, ${first.segmentSamples}-sample segments overlapping ${SPECTRUM_OVERLAP * 100} %, resolution bandwidth ${formatHz(first.rbwHz)}`
+  const method = `${SPECTRUM_WINDOW} window, ${first.segmentSamples}-sample segments overlapping ${SPECTRUM_OVERLAP * 100} %, resolution bandwidth ${formatHz(first.rbwHz)}, sampled every ${formatHz(first.binHz)}`
   const dark = results.filter((r) => r.s.kind === 'dark').map((r) => r.trace.name)
   const axis: SpectrumArray = {
     name: SPECTRUM_AXIS_ARRAY,

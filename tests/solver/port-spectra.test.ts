@@ -14,7 +14,7 @@ describe('port spectra in the result', () => {
     const byName = new Map(r.manifest.arrays.map((d) => [d.name, d]))
     const axis = byName.get(SPECTRUM_AXIS_ARRAY)!
     expect(axis.units).toBe('GHz')
-    expect(axis.description).toMatch(/Hann .*window, \d+-sample segments overlapping 75 %, resolution bandwidth [\d.]+ [MG]Hz/)
+    expect(axis.description).toMatch(/Hann .*window, \d+-sample segments overlapping 75 %, resolution bandwidth [\d.]+ [MG]Hz, sampled every [\d.]+ [MG]Hz/)
     // Nothing is launched into the Stokes port and nothing seeds it (no noise): both Stokes ports are dark.
     expect(axis.description).toContain('no light, so no spectrum, at ch1_stokes_in, ch1_stokes_out')
     expect(byName.has('ch1_stokes_in_psd_dbm_per_ghz')).toBe(false)

@@ -45,10 +45,10 @@ describe('run spectra panel', () => {
   it('states the window and the resolution bandwidth under the plot', async () => {
     const w = await render()
     const caption = w.find('[data-testid="spectrum-rbw"]').text()
-    // 2000 samples of 10 ps, lit at the ends: 512-sample segments, bin 1/(512·10 ps) = 195 MHz, RBW 1.5 bins = 293 MHz
-    // (Hann ENBW, Harris 1978, Proc. IEEE 66, 51).
+    // 2000 samples of 10 ps, lit at the ends: 512-sample segments (5.12 ns), RBW 1.5/5.12 ns = 293 MHz (Hann ENBW,
+    // Harris 1978, Proc. IEEE 66, 51), transformed on 2048 points: drawn every 1/20.48 ns = 48.8 MHz.
     expect(caption).toContain('Hann window, 512-sample segments overlapping 75 %')
-    expect(caption).toContain('resolution bandwidth 293 MHz (1.5 bins of 195 MHz)')
+    expect(caption).toContain('resolution bandwidth 293 MHz (1.5 × 1/segment duration), drawn every 48.8 MHz')
     expect(caption).toContain('Light at the record ends, so the segments lie inside it.')
   })
 
@@ -74,6 +74,7 @@ describe('spectrum chart options', () => {
     expect(peak[0]).toBeCloseTo(2, 1)
     expect(o.yAxis.max).toBeGreaterThanOrEqual(peak[1])
     expect(o.yAxis.min).toBe(Math.floor((s.peakDbmPerGHz - 100) / 10) * 10)
+    expect(o.xAxis.axisLabel.formatter(-3.6955717318775614)).toBe('-3.7')
   })
 
   it('opens on the occupied band around the tone', () => {

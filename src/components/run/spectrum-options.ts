@@ -23,7 +23,7 @@ export function formatHz(hz: number): string {
 export function spectrumCaption(s: PortSpectrum): string {
   return (
     `Hann window, ${s.segmentSamples}-sample segments overlapping ${SPECTRUM_OVERLAP * 100} % (${s.segments} averaged); ` +
-    `resolution bandwidth ${formatHz(s.rbwHz)} (${HANN_ENBW_BINS} bins of ${formatHz(s.binHz)}). ` +
+    `resolution bandwidth ${formatHz(s.rbwHz)} (${HANN_ENBW_BINS} × 1/segment duration), drawn every ${formatHz(s.binHz)}. ` +
     `Power spectral density in dBm/GHz: a line narrower than the resolution bandwidth reads its power divided by it. ` +
     `${capitalise(spectrumEndsNote(s))}.`
   )
@@ -63,7 +63,8 @@ export function buildSpectrumOptions(s: PortSpectrum, colour?: string) {
       axisPointer: { label: { formatter: (p: { value: number }) => `${Number(p.value.toPrecision(4))} ${fu.unit}` } },
     },
     grid: { left: 64, right: 20, top: 16, bottom: 64 },
-    xAxis: { type: 'value', name: axisName, nameLocation: 'middle', nameGap: 26, min: data[0][0], max: data[n - 1][0] },
+    // The zoomed ends fall anywhere: round their labels to three digits.
+    xAxis: { type: 'value', name: axisName, nameLocation: 'middle', nameGap: 26, min: data[0][0], max: data[n - 1][0], axisLabel: { formatter: (v: number) => `${Number(v.toPrecision(3))}` } },
     yAxis: { type: 'value', name: 'PSD (dBm/GHz)', nameLocation: 'middle', nameGap: 44, min: yMin, max: yMax },
     dataZoom: [
       { type: 'inside', xAxisIndex: 0, ...zoom },
