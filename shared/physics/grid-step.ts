@@ -8,6 +8,7 @@ import { MIN_AUTO_STEPS } from './grid-limits'
 import { shortestFeaturePath, strongestPowerPath, widestOffsetPath } from './grid-binding'
 import { SOURCE_GRID_RULES, sourceStepBound } from './source-grid-rules'
 import { profileStepBound } from './profile-grid-rules'
+import { networkStepBounds } from './network-grid-rules'
 
 /** Rates of the coupled-mode equations in SI units (see docs/model.md, conventions). */
 export interface BrillouinRates {
@@ -138,6 +139,7 @@ export function chooseGrid(config: SimulationConfig): GridChoice {
       bounds.push({ dtS: dzK / vg, reason: `γ·P_max·Δz ≤ 0.01 gives Δt ≤ ${ps(dzK / vg)}`, field })
     }
   }
+  bounds.push(...networkStepBounds(config, vg, tMinS))
   if (config.options.higherOrderAcoustic) {
     const dt = 1 / (GRID_RULES.stepsPerAcousticPeriod * ghzToHz(wg.brillouinShiftGHz))
     bounds.push({ dtS: dt, reason: `higher-order acoustic term: Δt ≤ 1/(20 ν_B) = ${ps(dt)}`, field: 'options.higherOrderAcoustic' })
