@@ -108,6 +108,7 @@ const ROUTES: Record<string, RouteSpec> = {
   'POST /api/sweeps/:id/cancel': { path: (w) => `/api/sweeps/${w.sweepId}/cancel`, note: 'no input' },
   'POST /api/sweeps/:id/rerun-failed': { path: (w) => `/api/sweeps/${w.sweepId}/rerun-failed`, note: 'no input' },
   'GET /api/sweeps/:id/download': { path: (w) => `/api/sweeps/${w.sweepId}/download`, query: () => ({ arrays: '0' }), variants: 40 },
+  'GET /api/sweeps/:id/sensing-map': { path: (w) => `/api/sweeps/${w.sweepId}/sensing-map`, query: () => ({ format: 'json', noiseRms: '0' }), variants: 40, validStatus: 422 },
   'GET /api/waveguides': { path: () => '/api/waveguides', query: (w) => ({ groupId: w.groupId }) },
   'POST /api/waveguides': { path: () => '/api/waveguides', body: (w) => ({ groupId: w.groupId, waveguide: { ...CHIP_WAVEGUIDE, name: 'Fuzzed rib' }, notes: 'fuzz' }) },
   'GET /api/waveguides/:id': { path: (w) => `/api/waveguides/${w.waveguideId}` },

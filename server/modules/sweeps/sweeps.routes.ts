@@ -1,10 +1,13 @@
 import { Router } from 'express'
 import { SweepCreate, SweepDefinition, SweepDownloadQuery, SweepListQuery } from '@shared/api/sweeps'
+import { SensingMapQuery } from '@shared/api/sensing-map'
 import { validate } from '../../middleware/validate'
 import { isUuid } from '../../policy/ids'
 import { requireAuth } from '../auth/auth.middleware'
 import { registerShareable, shareTokenOf } from '../shares'
 import { streamSweepZip } from './sweep-download'
+import { sendSensingMap } from './sensing-map-download'
+import { sensingMapFor } from './sensing-map.service'
 import { findSweep } from './sweeps.repo'
 import { cancelSweep, createSweep, estimateSweepFor, getSweep, listSweepsFor, rerunFailed, type SweepsDeps } from './sweeps.service'
 
@@ -42,6 +45,12 @@ export function sweepsRoutes(deps: SweepsDeps): Router {
     const q = req.query as unknown as { arrays: boolean; share?: string }
     const sweep = await getSweep(deps, req.auth, String(req.params.id), shareTokenOf(req))
     await streamSweepZip(res, deps.db, sweep, q.arrays, req.log)
+  })
+
+  r.get('/:id/sensing-map', validate({ query: SensingMapQuery }), async (req, res) => {
+    const q = req.query as unknown as SensingMapQuery
+    const id = String(req.params.id)
+    sendSensingMap(res, await sensingMapFor(deps, req.auth, id, q.noiseRms, shareTokenOf(req)), q.format, id)
   })
 
   return r

@@ -1,5 +1,6 @@
 // Parameter sweeps: estimate, submit, list, follow, download.
 import { SweepCreate, SweepDefinition, SweepDetail, SweepDownloadQuery, SweepEstimateResponse, SweepList, SweepListQuery } from '@shared/api/sweeps'
+import { SensingMapQuery, SensingMapResponse } from '@shared/api/sensing-map'
 import type { ApiOperation } from '../registry'
 
 const sweep = (status: number, description: string) => ({ status, description, schema: SweepDetail })
@@ -19,5 +20,14 @@ export const sweepsOperations: ApiOperation[] = [
     summary: "A sweep's figures as CSV in a ZIP, with every point's arrays when arrays=1",
     query: SweepDownloadQuery,
     response: { status: 200, description: 'The ZIP archive', contentType: 'application/zip' },
+  },
+  {
+    method: 'GET',
+    path: '/api/sweeps/:id/sensing-map',
+    tag: 'Sweeps',
+    auth: 'shareable',
+    summary: 'Gain against position and frequency of a detuning sweep with a pulsed pump and a CW probe, with the fitted shift profile, resolution, range and hot spots (format=csv or npy for files)',
+    query: SensingMapQuery,
+    response: { status: 200, description: 'The map and its fits', schema: SensingMapResponse },
   },
 ]
