@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import type { ApiErrorBody } from '@shared/api/api-error'
+import { describeIssuePath } from '@shared/api/issue-path-labels'
 import { AppError, type FieldError } from '../errors'
 import { pathParamName } from './path-param-name'
 
@@ -41,6 +42,25 @@ function badPathEncoding(err: unknown, req: Parameters<ErrorRequestHandler>[1]):
   }
 }
 
+/** Fields named in words in the message (the first three), so a person reading it needs no JSON path. */
+const WORDED_FIELDS = 3
+
+function invalidInputMessage(err: ZodError, body: unknown): string {
+  // A run names its config `config`, a sweep `baseConfig`: channel numbers are named only when there are several.
+  const b = body as { config?: { channels?: unknown }; baseConfig?: { channels?: unknown } } | null
+  const channels = (b?.config ?? b?.baseConfig)?.channels
+  const channelCount = Array.isArray(channels) ? channels.length : 1
+  const named = err.issues.slice(0, WORDED_FIELDS).map((i) => {
+    const where = describeIssuePath(i.path, channelCount)
+    // The validator's own words for a missing or mistyped value ("Invalid input: expected number, received
+    // undefined") say it in its terms; these say it in the reader's.
+    const typed = i.code === 'invalid_type' ? (/received undefined/.test(i.message) ? 'missing' : `must be a ${i.expected}`) : i.message
+    return where ? `${where}: ${typed}` : typed
+  })
+  const more = err.issues.length > WORDED_FIELDS ? `; and ${err.issues.length - WORDED_FIELDS} more` : ''
+  return `Some fields are not valid. ${named.join('; ')}${more}`
+}
+
 /** Details as the client will read them: dates as ISO strings, nothing that does not survive JSON. */
 function jsonSafe(details: Record<string, unknown>): Record<string, unknown> {
   return JSON.parse(JSON.stringify(details)) as Record<string, unknown>
@@ -56,7 +76,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
 
   if (err instanceof ZodError) {
     status = 400
-    body = { code: 'invalid_input', message: 'Some fields are not valid', fields: zodFields(err) }
+    body = { code: 'invalid_input', message: invalidInputMessage(err, req.body), fields: zodFields(err) }
   } else if (err instanceof AppError) {
     status = err.httpStatus
     const { fields, ...details } = err.details ?? {}

@@ -45,7 +45,33 @@ const FIELD_NAMES: Record<string, string> = {
   shiftOffsetMHz: 'shift change',
   temperatureOffsetK: 'temperature change',
   strainMicro: 'strain',
+  shiftGHz: 'shift',
+  frequencyMHz: 'frequency',
+  antiStokesMismatchPerM: 'anti-Stokes mismatch',
+  label: 'label',
+  stokesOrders: 'Stokes orders',
+  seedPowerW: 'seed power of the higher Stokes orders',
+  forwardAntiStokes: 'forward anti-Stokes wave',
+  enabled: 'thermal noise',
+  kerr: 'Kerr effect',
+  higherOrderAcoustic: 'higher-order acoustic term',
+  acousticAdvection: 'acoustic advection',
+  additionalResonances: 'further backward resonances',
+  forwardResonances: 'forward resonances',
+  forwardInputs: 'forward inputs',
+  groupId: 'group',
+  title: 'title',
+  notes: 'notes',
 }
+
+/** Lists of the waveguide and the channel whose entries are named by their number. */
+const NUMBERED: Record<string, string> = {
+  additionalResonances: 'further backward resonance',
+  forwardResonances: 'forward resonance',
+  forwardInputs: 'forward inputs of resonance',
+}
+const WAVE_NAMES: Record<string, string> = { pump: 'pump', stokes: 'Stokes', coProbe: 'co-propagating probe', antiStokes: 'anti-Stokes' }
+const own = (table: Record<string, string>, key: string): string | undefined => (Object.hasOwn(table, key) ? table[key] : undefined)
 
 export function describeIssuePath(path: readonly PropertyKey[], channelCount: number): string {
   const parts: string[] = []
@@ -54,21 +80,32 @@ export function describeIssuePath(path: readonly PropertyKey[], channelCount: nu
     if (k === 'channels' && typeof path[i + 1] === 'number') {
       if (channelCount > 1) parts.push(`channel ${(path[i + 1] as number) + 1}`)
       i++
-    } else if ((k === 'pump' || k === 'stokes') && path[i + 1] === 'pulses' && typeof path[i + 2] === 'number') {
-      parts.push(`${k === 'pump' ? 'pump' : 'Stokes'} pulse ${(path[i + 2] as number) + 1}`)
+    } else if (k === 'forwardInputs' && typeof path[i + 1] === 'number' && (path[i + 2] === 'stokes' || path[i + 2] === 'antiStokes')) {
+      // channels.0.forwardInputs.1.stokes.pulses.0 → "forward Stokes of resonance 2, pulse 1"
+      parts.push(`forward ${path[i + 2] === 'stokes' ? 'Stokes' : 'anti-Stokes'} of resonance ${(path[i + 1] as number) + 1}`)
       i += 2
-    } else if (k === 'pump' || k === 'stokes') {
-      parts.push(k === 'pump' ? 'pump' : 'Stokes')
+      if (path[i + 1] === 'pulses' && typeof path[i + 2] === 'number') {
+        parts.push(`pulse ${(path[i + 2] as number) + 1}`)
+        i += 2
+      }
+    } else if (typeof k === 'string' && own(NUMBERED, k) && typeof path[i + 1] === 'number') {
+      parts.push(`${NUMBERED[k]} ${(path[i + 1] as number) + 1}`)
+      i++
+    } else if (typeof k === 'string' && own(WAVE_NAMES, k) && path[i + 1] === 'pulses' && typeof path[i + 2] === 'number') {
+      parts.push(`${WAVE_NAMES[k]} pulse ${(path[i + 2] as number) + 1}`)
+      i += 2
+    } else if (typeof k === 'string' && own(WAVE_NAMES, k)) {
+      parts.push(WAVE_NAMES[k])
     } else if (k === 'profile' && path[i + 1] === 'segments' && typeof path[i + 2] === 'number') {
       parts.push(`profile segment ${(path[i + 2] as number) + 1}`)
       i += 2
     } else if (k === 'energyWindows' && typeof path[i + 1] === 'number') {
       parts.push(`energy window ${(path[i + 1] as number) + 1}`)
       i++
-    } else if (k === 'options' || k === 'grid' || k === 'noise' || k === 'anchor') {
+    } else if (k === 'options' || k === 'grid' || k === 'noise' || k === 'anchor' || k === 'cascade' || k === 'config') {
       continue
     } else {
-      parts.push(FIELD_NAMES[String(k)] ?? String(k))
+      parts.push(own(FIELD_NAMES, String(k)) ?? String(k))
     }
   }
   const s = parts.join(', ')
