@@ -63,8 +63,16 @@ export function buildSpectrumOptions(s: PortSpectrum, colour?: string) {
       axisPointer: { label: { formatter: (p: { value: number }) => `${Number(p.value.toPrecision(4))} ${fu.unit}` } },
     },
     grid: { left: 64, right: 20, top: 16, bottom: 64 },
-    // The zoomed ends fall anywhere: round their labels to three digits.
-    xAxis: { type: 'value', name: axisName, nameLocation: 'middle', nameGap: 26, min: data[0][0], max: data[n - 1][0], axisLabel: { formatter: (v: number) => `${Number(v.toPrecision(3))}` } },
+    // The zoomed ends fall anywhere: no labels there (they crowd the round ticks on a phone), the rest rounded.
+    xAxis: {
+      type: 'value',
+      name: axisName,
+      nameLocation: 'middle',
+      nameGap: 26,
+      min: data[0][0],
+      max: data[n - 1][0],
+      axisLabel: { showMinLabel: false, showMaxLabel: false, hideOverlap: true, formatter: (v: number) => `${Number(v.toPrecision(3))}` },
+    },
     yAxis: { type: 'value', name: 'PSD (dBm/GHz)', nameLocation: 'middle', nameGap: 44, min: yMin, max: yMax },
     dataZoom: [
       { type: 'inside', xAxisIndex: 0, ...zoom },
