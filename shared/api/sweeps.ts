@@ -176,6 +176,8 @@ export const SweepDetail = SweepSummary.extend({
   notes: z.string(),
   baseConfig: SimulationConfig,
   axes: z.array(SweepAxis),
+  /** Whether points' windows were lengthened to hold their pulses. */
+  extendWindow: z.boolean().default(true),
   /** axisValues of each axis. Point index = i0 · n1 + i1 for two axes. */
   axisValues: z.array(z.array(z.number())),
   metrics: z.array(MetricColumn),

@@ -92,6 +92,19 @@ describe('POST /api/sweeps', () => {
     expect((await post(`/sweeps/${sweep.id}/cancel`, m)).status).toBe(200)
   })
 
+  it('lengthens the window of the points whose pulse would leave it, and keeps the choice with the sweep', async () => {
+    // The tiny base run has a 4 ns window; its write pulse (FWHM 0.4995 ns) centred at 3.9 ns would lose energy after
+    // the end. 10⁻³ of a Gaussian's energy lies beyond c + erfc⁻¹(2·10⁻³)·F/(2√ln2) = c + 1.3123 F = 4.5555 ns.
+    const res = await post('/sweeps', editor, { ...powerSweep(editor.groupId, 'Late write', 2), axes: [{ field: 'pulseCentreNs', pulseLabel: 'write', values: { kind: 'list', values: [1, 3.9] } }] })
+    expect(res.status).toBe(202)
+    const sweep = SweepDetail.parse(res.body)
+    expect(sweep.extendWindow).toBe(true)
+    const { rows } = await pool.query(`select sweep_point, config from runs where sweep_id = $1 order by sweep_point`, [sweep.id])
+    expect(rows[0].config.windowNs).toBe(4)
+    expect(rows[1].config.windowNs).toBe(4.56)
+    await post(`/sweeps/${sweep.id}/cancel`, editor)
+  })
+
   it('builds a 2-D sweep with axis 0 varying slowest', async () => {
     const body = {
       ...powerSweep(editor.groupId, '2-D', 2),

@@ -43,5 +43,5 @@ export function toSweepDetail(s: SweepRow, runs: PointRunRow[]): SweepDetail {
     finishedAt: iso(r.finishedAt),
     metrics: reduceFigures(r.status === 'succeeded' ? r.figures : null, metrics),
   }))
-  return { ...toSweepSummary(s), notes: s.notes, baseConfig: s.baseConfig, axes: s.axes, axisValues: values, metrics, points }
+  return { ...toSweepSummary(s), notes: s.notes, baseConfig: s.baseConfig, axes: s.axes, extendWindow: s.extendWindow, axisValues: values, metrics, points }
 }

@@ -20,6 +20,7 @@ export interface SweepRow {
   notes: string
   baseConfig: SimulationConfig
   axes: SweepAxis[]
+  extendWindow: boolean
   pointCount: number
   estimate: SweepEstimate
   status: SweepState
@@ -56,7 +57,7 @@ const COUNTS = `(select json_build_object(
     'cancelled', count(*) filter (where c.status = 'cancelled'))
   from (select distinct on (r.sweep_point) r.status from runs r where r.sweep_id = s.id order by r.sweep_point, r.created_at desc, r.id desc) c) as counts`
 
-const SELECT = `select s.id, s.group_id, s.author_id, u.name as author_name, s.title, s.notes, s.base_config, s.axes, s.point_count,
+const SELECT = `select s.id, s.group_id, s.author_id, u.name as author_name, s.title, s.notes, s.base_config, s.axes, s.extend_window, s.point_count,
     s.estimate, s.status, s.created_at, s.finished_at, ${COUNTS}
   from sweeps s left join users u on u.id = s.author_id`
 
@@ -70,6 +71,7 @@ function toRow(r: any): SweepRow {
     notes: r.notes,
     baseConfig: r.base_config,
     axes: r.axes,
+    extendWindow: r.extend_window,
     pointCount: r.point_count,
     estimate: r.estimate,
     status: r.status,
@@ -133,6 +135,7 @@ export interface NewSweep {
   notes: string
   baseConfig: SimulationConfig
   axes: SweepAxis[]
+  extendWindow: boolean
   estimate: SweepEstimate
 }
 
@@ -140,8 +143,8 @@ export interface NewSweep {
 export async function insertSweep(pool: Pool, s: NewSweep, points: NewPointRun[]): Promise<string> {
   return inTransaction(pool, async (c) => {
     const { rows } = await c.query(
-      `insert into sweeps (group_id, author_id, title, notes, base_config, axes, point_count, estimate) values ($1, $2, $3, $4, $5, $6, $7, $8) returning id`,
-      [s.groupId, s.authorId, s.title, s.notes, JSON.stringify(s.baseConfig), JSON.stringify(s.axes), points.length, JSON.stringify(s.estimate)],
+      `insert into sweeps (group_id, author_id, title, notes, base_config, axes, extend_window, point_count, estimate) values ($1, $2, $3, $4, $5, $6, $7, $8, $9) returning id`,
+      [s.groupId, s.authorId, s.title, s.notes, JSON.stringify(s.baseConfig), JSON.stringify(s.axes), s.extendWindow, points.length, JSON.stringify(s.estimate)],
     )
     const sweepId: string = rows[0].id
     await insertPointRuns(c, { sweepId, groupId: s.groupId, authorId: s.authorId }, points)

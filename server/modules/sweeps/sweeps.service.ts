@@ -82,7 +82,7 @@ export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefine
   if (quotas) await inTransaction(deps.pool, (c) => enforceQuotas(c, quotas, auth!.userId, input.groupId, { what: 'sweep', inFlight: 1, cellUpdates: total.cellUpdates }))
   const id = await insertSweep(
     deps.pool,
-    { groupId: input.groupId, authorId: auth!.userId, title: input.title, notes: input.notes, baseConfig: input.baseConfig, axes: input.axes, estimate: total },
+    { groupId: input.groupId, authorId: auth!.userId, title: input.title, notes: input.notes, baseConfig: input.baseConfig, axes: input.axes, extendWindow: input.extendWindow ?? true, estimate: total },
     points.map((p) => newPointRun(input.title, input, p)),
   )
   deps.feeder.poke()
@@ -115,12 +115,12 @@ export async function rerunFailed(deps: SweepsDeps, auth: AuthContext | undefine
   // A finished sweep starts again and takes a place in flight; its re-run points are charged as they are stored.
   const quotas = deps.quotas
   if (quotas) await inTransaction(deps.pool, (c) => enforceQuotas(c, quotas, auth!.userId, sweep.groupId, { what: 'sweep', inFlight: sweep.status === 'running' ? 0 : 1, cellUpdates: 0 }))
-  const def = { baseConfig: sweep.baseConfig, axes: sweep.axes }
+  const def = { baseConfig: sweep.baseConfig, axes: sweep.axes, extendWindow: sweep.extendWindow }
   const values = def.axes.map((a) => axisValues(a.values))
   const n = await rerunFailedPoints(deps.pool, sweep, auth!.userId, (index) => {
     const at = pointValues(values, index)
     const built = buildSweepPoints({ ...def, axes: def.axes.map((a, i) => ({ ...a, values: { kind: 'list' as const, values: [at[i]] } })) })
-    if (!built.ok) throw new AppError('invalid_input', 400, `Point ${index} is no longer a valid run: ${built.issues[0].message}`)
+    if (!built.ok) throw new AppError('invalid_input', 400, `Point ${index + 1} is no longer a valid run: ${built.issues[0].message}`)
     return newPointRun(sweep.title, def, { ...built.points[0], index })
   })
   if (n === 0) throw conflict('No point of this sweep has failed')
