@@ -5,6 +5,7 @@ import { errorShaped } from '../physics/figure-error'
 import type { Port, SimulationConfig } from '../physics/simulation-config'
 import { channelScheme, type RunScheme } from '../physics/pulse-roles'
 import type { MetricColumn } from '../api/sweeps'
+import { SETTLED_STOKES_IN, SETTLED_STOKES_OUT } from '../physics/gain-scan'
 
 interface ChannelMetric {
   key: string
@@ -39,6 +40,16 @@ export const CHANNEL_METRICS: readonly ChannelMetric[] = [
 ]
 
 const WINDOW_PREFIX = 'window:'
+
+/** A gain scan's CW Stokes gain: 10·log10(E_out/E_in) of channel 1 over the two settled-tail windows (gain-scan.ts). */
+export const SETTLED_GAIN_COLUMN: MetricColumn = { key: 'settledStokesGainDb', label: 'Stokes gain, settled', unit: 'dB' }
+
+function settledGainDb(figures: FiguresOfMerit): number | null {
+  const energy = (label: string) => figures.windows.find((w) => w.label === label)?.energyJPerChannel[0]
+  const out = energy(SETTLED_STOKES_OUT)
+  const inJ = energy(SETTLED_STOKES_IN)
+  return out !== undefined && inJ !== undefined && out > 0 && inJ > 0 ? 10 * Math.log10(out / inJ) : null
+}
 const PORT_WORDS: Record<Port, string> = { pumpIn: 'pump in', pumpOut: 'pump out', stokesIn: 'Stokes in', stokesOut: 'Stokes out' }
 
 /**
@@ -55,6 +66,8 @@ export function metricColumns(config: Pick<SimulationConfig, 'channels' | 'energ
       cols.push({ key: many ? `ch${ci + 1}.${m.key}` : m.key, label: many ? `${m.label} (channel ${ci + 1})` : m.label, unit: m.unit })
     }
   })
+  const labels = config.energyWindows.map((w) => w.label)
+  if (labels.includes(SETTLED_STOKES_IN) && labels.includes(SETTLED_STOKES_OUT)) cols.push(SETTLED_GAIN_COLUMN)
   for (const w of config.energyWindows) cols.push({ key: `${WINDOW_PREFIX}${w.label}`, label: `Energy in “${w.label}” (${PORT_WORDS[w.port]})`, unit: 'J' })
   return cols
 }
@@ -73,6 +86,8 @@ export function reduceFigures(figures: FiguresOfMerit | null, columns: MetricCol
   const e = figures?.errorEstimate
   const errors = e?.status === 'estimated' ? pickColumns(errorShaped(figures!, e.figures), columns) : {}
   for (const col of columns) out[errorKey(col.key)] = errors[col.key] ?? null
+  // A ratio of two window energies has no error figure of its own (the errors map holds energy errors).
+  if (columns.some((c) => c.key === SETTLED_GAIN_COLUMN.key)) out[errorKey(SETTLED_GAIN_COLUMN.key)] = null
   return out
 }
 
@@ -81,6 +96,10 @@ function pickColumns(figures: FiguresOfMerit | null, columns: MetricColumn[]): R
   for (const col of columns) {
     if (!figures) {
       out[col.key] = null
+      continue
+    }
+    if (col.key === SETTLED_GAIN_COLUMN.key) {
+      out[col.key] = finiteOrNull(settledGainDb(figures))
       continue
     }
     if (col.key.startsWith(WINDOW_PREFIX)) {

@@ -5,6 +5,7 @@ import type { SweepAxis } from '../api/sweeps'
 import { MAX_AXIS_VALUES } from '../api/sweeps'
 import { gainLines } from './gain-spectrum'
 import type { Waveguide } from './waveguide'
+import type { EnergyWindow, SimulationConfig } from './simulation-config'
 
 /** How far past each line the scan reaches, in that line's FWHM. */
 export const SCAN_LINEWIDTHS = 3
@@ -42,4 +43,28 @@ export function gainScanPlan(w: Pick<Waveguide, 'brillouinShiftGHz' | 'linewidth
     lines: lines.length,
     axis: { field: 'detuningMHz', values: { kind: 'linear', start, stop, count } },
   }
+}
+
+/**
+ * A CW scan reads the Stokes gain from the settled end of each run, not from its peak: switching a CW pump on
+ * away from line centre makes the Stokes output ring above its steady value before it settles. Two windows over
+ * the same tail of the run, one at each Stokes facet, give P_s,out/P_s,in = E_out/E_in there (sweep-metrics.ts).
+ */
+export const SETTLED_STOKES_IN = 'Stokes in, settled tail'
+export const SETTLED_STOKES_OUT = 'Stokes out, settled tail'
+/** The tail: the last tenth of the simulated time. */
+export const SETTLED_TAIL_FRACTION = 0.1
+
+export function settledWindows(windowNs: number): EnergyWindow[] {
+  const startNs = Number((windowNs * (1 - SETTLED_TAIL_FRACTION)).toPrecision(6))
+  return [
+    { label: SETTLED_STOKES_IN, port: 'stokesIn', startNs, endNs: windowNs },
+    { label: SETTLED_STOKES_OUT, port: 'stokesOut', startNs, endNs: windowNs },
+  ]
+}
+
+/** The configuration with the two tail windows (replacing earlier ones of the same names). */
+export function withSettledWindows(config: SimulationConfig): SimulationConfig {
+  const others = config.energyWindows.filter((w) => w.label !== SETTLED_STOKES_IN && w.label !== SETTLED_STOKES_OUT)
+  return { ...config, energyWindows: [...others, ...settledWindows(config.windowNs)] }
 }

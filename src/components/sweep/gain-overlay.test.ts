@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { axisValues, type SweepDetail } from '@shared/api/sweeps'
 import { SimulationConfig, type SimulationConfigInput } from '@shared/physics/simulation-config'
 import { metricColumns } from '@shared/analysis/sweep-metrics'
+import { withSettledWindows } from '@shared/physics/gain-scan'
 import { CLOSED_FORM_NAME, EFFECTIVE_GAIN_NAME, gainOverlay, withGainOverlay } from './gain-overlay'
 import { lineOption } from './sweep-chart-options'
 
@@ -23,7 +24,7 @@ function sweepOf(config: SimulationConfig, field: 'detuningMHz' | 'pumpPowerW' =
     axisValues: [xs],
     baseConfig: config,
     metrics,
-    points: xs.map((x, index) => ({ index, values: [x], metrics: { peakStokesGainDb: 1 } })),
+    points: xs.map((x, index) => ({ index, values: [x], metrics: { peakStokesGainDb: 1, settledStokesGainDb: 1 } })),
     title: 'scan',
     id: '00000000-0000-4000-8000-000000000000',
   } as unknown as SweepDetail
@@ -31,7 +32,7 @@ function sweepOf(config: SimulationConfig, field: 'detuningMHz' | 'pumpPowerW' =
 
 describe('gain-spectrum overlay', () => {
   it('draws the CW closed form through 4.343·0.75 dB at line centre and half of it half a FWHM away', () => {
-    const o = gainOverlay(sweepOf(chipConfig({ pulses: [], backgroundPowerW: 0.05 })))!
+    const o = gainOverlay(sweepOf(withSettledWindows(chipConfig({ pulses: [], backgroundPowerW: 0.05 }))))!
     expect(o.kind).toBe('cw')
     const at = (x: number) => o.curve.find((p) => Math.abs(p[0] - x) < 1e-9)![1]
     const dbPerNeper = 10 / Math.LN10
@@ -41,12 +42,21 @@ describe('gain-spectrum overlay', () => {
     expect(o.curve).toHaveLength(401)
   })
 
-  it('adds a solid closed-form line on the gain axis of a CW scan', () => {
+  it('adds a solid closed-form line on the gain axis of a CW scan read over the settled tail', () => {
+    const s = sweepOf(withSettledWindows(chipConfig({ pulses: [], backgroundPowerW: 0.05 })))
+    expect(gainOverlay(s)!.metricKey).toBe('settledStokesGainDb')
+    const cols = s.metrics.filter((m) => m.key === 'settledStokesGainDb')
+    const opt = withGainOverlay(lineOption(s, cols, 'png'), s, cols)
+    expect(opt.series.map((x) => x.name)).toEqual(['Stokes gain, settled (dB)', CLOSED_FORM_NAME.cw])
+    expect((opt.series[1].lineStyle as { type: string }).type).toBe('solid')
+  })
+
+  it('draws the closed form dashed, as a reference, over the peak gain of a CW scan without the tail windows', () => {
     const s = sweepOf(chipConfig({ pulses: [], backgroundPowerW: 0.05 }))
     const cols = s.metrics.filter((m) => m.key === 'peakStokesGainDb')
     const opt = withGainOverlay(lineOption(s, cols, 'png'), s, cols)
-    expect(opt.series.map((x) => x.name)).toEqual(['Peak Stokes gain (dB)', CLOSED_FORM_NAME.cw])
-    expect((opt.series[1].lineStyle as { type: string }).type).toBe('solid')
+    expect(opt.series.map((x) => x.name)).toEqual(['Peak Stokes gain (dB)', CLOSED_FORM_NAME.cwPeak])
+    expect((opt.series[1].lineStyle as { type: string }).type).toBe('dashed')
   })
 
   it('calls a pulsed scan the effective gain and draws the CW curve dashed, at the peak pump power', () => {

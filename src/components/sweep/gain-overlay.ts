@@ -1,14 +1,18 @@
 // A sweep of the detuning plotting the Stokes gain is a gain-spectrum scan: its points are drawn against the
-// closed-form Lorentzian sum of shared/physics/gain-spectrum.ts (solid for CW pump and Stokes; dashed and
-// called a reference when the pump or Stokes is pulsed, whose points are then the "effective gain").
+// closed-form Lorentzian sum of shared/physics/gain-spectrum.ts. Solid for CW pump and Stokes read over the
+// settled tail of each run (gain-scan.ts); dashed and called a reference when the pump or Stokes is pulsed (the
+// points are then the "effective gain") or when a CW scan has only the peak gain, which includes the
+// switch-on ringing.
 import type { MetricColumn, SweepDetail } from '@shared/api/sweeps'
+import { SETTLED_GAIN_COLUMN } from '@shared/analysis/sweep-metrics'
 import { cwStokesGainDb, gainDrive, gainLines } from '@shared/physics/gain-spectrum'
 
 /** Samples of the closed-form curve across the axis: smooth at a few hundred pixels. */
 const CURVE_SAMPLES = 401
 
 export interface GainOverlay {
-  kind: 'cw' | 'pulsed'
+  /** cw: settled CW gain against the closed form; cwPeak: a CW scan without the tail windows; pulsed: effective gain. */
+  kind: 'cw' | 'cwPeak' | 'pulsed'
   /** Key of the swept gain column (channel 1's peak Stokes gain). */
   metricKey: string
   pumpPowerW: number
@@ -22,7 +26,8 @@ const GAIN_KEYS = ['peakStokesGainDb', 'ch1.peakStokesGainDb']
 /** The overlay of a one-axis detuning sweep with a gain column, or null for any other sweep. */
 export function gainOverlay(s: Pick<SweepDetail, 'axes' | 'axisValues' | 'baseConfig' | 'metrics'>): GainOverlay | null {
   if (s.axes.length !== 1 || s.axes[0].field !== 'detuningMHz') return null
-  const metric = s.metrics.find((m) => GAIN_KEYS.includes(m.key))
+  const settled = s.metrics.find((m) => m.key === SETTLED_GAIN_COLUMN.key)
+  const metric = settled ?? s.metrics.find((m) => GAIN_KEYS.includes(m.key))
   const xs = s.axisValues[0] ?? []
   if (!metric || xs.length < 2) return null
   const drive = gainDrive(s.baseConfig)
@@ -36,7 +41,8 @@ export function gainOverlay(s: Pick<SweepDetail, 'axes' | 'axisValues' | 'baseCo
     const x = lo + ((hi - lo) * i) / (CURVE_SAMPLES - 1)
     curve.push([x, cwStokesGainDb(w, pumpPowerW, x)])
   }
-  return { kind: drive.kind, metricKey: metric.key, pumpPowerW, lines: gainLines(w).length, curve }
+  const kind = drive.kind === 'pulsed' ? 'pulsed' : settled ? 'cw' : 'cwPeak'
+  return { kind, metricKey: metric.key, pumpPowerW, lines: gainLines(w).length, curve }
 }
 
 /** The metric a gain scan opens with: the gain alone, so the overlay is drawn on its own axis. */
@@ -45,12 +51,17 @@ export function gainScanMetrics(s: Pick<SweepDetail, 'axes' | 'axisValues' | 'ba
   return o ? [o.metricKey] : null
 }
 
-export const CLOSED_FORM_NAME = { cw: 'Closed form, CW small-signal gain (dB)', pulsed: 'CW closed form at the peak pump power, reference (dB)' } as const
+export const CLOSED_FORM_NAME = {
+  cw: 'Closed form, CW small-signal gain (dB)',
+  cwPeak: 'Closed form, CW small-signal gain, reference (dB)',
+  pulsed: 'CW closed form at the peak pump power, reference (dB)',
+} as const
 export const EFFECTIVE_GAIN_NAME = 'Effective gain: peak Stokes gain (dB)'
 
 interface LineSeries {
   name: string
   yAxisIndex?: number
+  data: unknown[]
   [k: string]: unknown
 }
 interface LineChartOption {

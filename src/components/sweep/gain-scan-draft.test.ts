@@ -15,7 +15,8 @@ describe('gain-scan start of the sweep form', () => {
     const s = gainScanStart(config({}))
     expect(toAxis(s.draft)).toEqual({ field: 'detuningMHz', values: { kind: 'linear', start: -102, stop: 102, count: 41 } })
     expect(s.range).toBe('Detuning from -102 to 102 MHz in 41 points, 5.1 MHz apart: ±3 linewidths around the Brillouin resonance.')
-    expect(s.chart).toMatch(/closed-form small-signal gain/)
+    expect(s.chart).toMatch(/closed-form small-signal gain.*last 2 ns of each run/)
+    expect(s.config.energyWindows.map((w) => [w.port, w.startNs, w.endNs])).toEqual([['stokesIn', 18, 20], ['stokesOut', 18, 20]])
     // 1/Γ_B = 1/(2π·34 MHz) = 4.68 ns: a 20 ns window is 4.3 lifetimes; 25 lifetimes are 117.03 ns, rounded up to 118.
     expect(s.settle).toMatch(/spans 4\.3 phonon lifetimes.*A window of 118 ns or more/)
     expect(gainScanStart(SimulationConfig.parse({ ...config({}), windowNs: 150 })).settle).toBeNull()
@@ -26,5 +27,6 @@ describe('gain-scan start of the sweep form', () => {
     const s = gainScanStart(config({ additionalResonances: [{ shiftGHz: 7.8, linewidthMHz: 34, gainCoefficientMPerW: 3e-10 }] }, { pulses: [pulse], backgroundPowerW: 0 }))
     expect(s.range).toMatch(/^Detuning from -102 to 202 MHz .*all 2 backward resonances/)
     expect(s.chart).toMatch(/effective gain .* dashed reference/)
+    expect(s.config.energyWindows).toEqual([])
   })
 })
