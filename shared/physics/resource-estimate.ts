@@ -43,9 +43,10 @@ export const PLAIN_FIELDS = 1
 /**
  * Relative speed of the multi-wave solver (solver/network/) per cell-update at the plain scheme's three
  * envelopes; its throughput then falls as 3/(waves + fields), each envelope adding one propagation and its
- * couplings. 1 until the benchmark of that solver gives a measured value.
+ * couplings. Measured (benchmarks/README.md, "Multi-wave solver", machine loaded): 0.25–0.99 of the plain
+ * TypeScript path per envelope, lowest with several processes per field; the low end, so estimates err long.
  */
-export const SPEED_FACTOR_WAVE_NETWORK = 1
+export const SPEED_FACTOR_WAVE_NETWORK = 0.3
 
 /** Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no Kerr, no noise (solver fastPathApplies). */
 export function wasmEngineCovers(config: SimulationConfig): boolean {
