@@ -6,6 +6,7 @@ import type { SimulationConfig } from './simulation-config'
 import { planCoarseRun } from './error-estimate-plan'
 import { MIN_TIME_STEP_PS } from './grid-limits'
 import { usesWaveNetwork, waveSet } from './wave-set'
+import { profileIsActive } from './longitudinal-profile'
 
 /** Grid counts as chosen by shared/physics/grid-step.ts. */
 export interface GridCounts {
@@ -30,6 +31,12 @@ export const CELL_UPDATES_PER_S_SVEA = 40e6
  * errs short by that much.
  */
 export const SPEED_FACTOR_WASM_ENGINE = 2
+/**
+ * Relative speed of the profile kernel (per-node constants, solver/steppers/profile-kernel.ts) against the
+ * TypeScript fast path; benchmark 2026-12-03, interleaved on one 1 km grid, machine loaded: 0.80. Profile runs
+ * never use the WebAssembly engine.
+ */
+export const SPEED_FACTOR_PROFILE = 0.8
 /** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.20–0.31. */
 export const SPEED_FACTOR_HIGHER_ORDER = 0.25
 /** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark idle: 0.10–0.12. */
@@ -125,7 +132,7 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr ? SPEED_FACTOR_KERR : 1) *
-    (wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1)
+    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1)
   return {
     channels,
     waves,

@@ -4,6 +4,7 @@ import type { Pulse } from './pulse'
 import type { FrequencyModulation } from './source-modulation'
 import type { SimulationConfig } from './simulation-config'
 import { criticalPowerOf, energyPerPeakNs, setStorageDelay, storageDelayNs } from './sweep-derived'
+import { WAVE_SWEEP_FIELD_IDS, WAVE_SWEEP_FIELDS, applyWaveSweepValue, isWaveSweepField, readWaveSweepValue, waveFieldProblem } from './sweep-fields-waves'
 
 export const SWEEP_FIELD_IDS = [
   'pulseFwhmNs',
@@ -22,6 +23,7 @@ export const SWEEP_FIELD_IDS = [
   'modulationRateMHz',
   'modulationExcursionMHz',
   'modulationDelayNs',
+  ...WAVE_SWEEP_FIELD_IDS,
 ] as const
 export type SweepFieldId = (typeof SWEEP_FIELD_IDS)[number]
 
@@ -56,9 +58,11 @@ export const SWEEP_FIELDS: readonly SweepField[] = [
   { id: 'modulationRateMHz', label: 'Modulation rate', unit: 'MHz', path: 'channels[*].{pump,stokes}.modulation.rateMHz', needsPulseLabel: false, positive: true, help: 'Rate f_m of every frequency-modulated input; sets the spacing of correlation peaks' },
   { id: 'modulationExcursionMHz', label: 'Frequency excursion', unit: 'MHz', path: 'channels[*].{pump,stokes}.modulation.excursionMHz', needsPulseLabel: false, positive: false, help: 'Excursion Δf of every frequency-modulated input; sets the width of correlation peaks' },
   { id: 'modulationDelayNs', label: 'Stokes modulation delay', unit: 'ns', path: 'channels[*].stokes.modulation.delayNs', needsPulseLabel: false, positive: false, signed: true, help: 'Delay of the Stokes input’s modulation; moves the correlation peaks along the guide' },
+  ...WAVE_SWEEP_FIELDS,
 ]
 
 export function sweepField(id: SweepFieldId): SweepField {
+  if (isWaveSweepField(id)) return WAVE_SWEEP_FIELDS.find((f) => f.id === id)!
   return SWEEP_FIELDS.find((f) => f.id === id)!
 }
 
@@ -87,6 +91,7 @@ function modulations(config: SimulationConfig, stokesOnly = false): FrequencyMod
 /** Why the field cannot be swept on this config, or null when it can. */
 export function fieldProblem(config: SimulationConfig, id: SweepFieldId, pulseLabel?: string): string | null {
   const f = sweepField(id)
+  if (isWaveSweepField(id)) return waveFieldProblem(config, id)
   if (id === 'modulationDelayNs' && modulations(config, true).length === 0) return 'The base configuration has no frequency-modulated Stokes input'
   if ((id === 'modulationRateMHz' || id === 'modulationExcursionMHz') && modulations(config).length === 0) return 'The base configuration has no frequency-modulated input'
   if (id === 'storageDelayNs' && storageDelayNs(config) === null) return 'The base configuration has no storage pulses: label a pump pulse “data”, and Stokes pulses “write” and “read”'
@@ -164,6 +169,8 @@ export function applySweepValue(config: SimulationConfig, id: SweepFieldId, valu
     case 'modulationDelayNs':
       for (const m of modulations(c, true)) m.delayNs = value
       break
+    default:
+      applyWaveSweepValue(c, id, value)
   }
   return c
 }
@@ -204,5 +211,7 @@ export function readSweepValue(config: SimulationConfig, id: SweepFieldId, pulse
       return modulations(config)[0]?.excursionMHz ?? null
     case 'modulationDelayNs':
       return modulations(config, true)[0]?.delayNs ?? null
+    default:
+      return readWaveSweepValue(config, id)
   }
 }
