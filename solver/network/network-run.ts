@@ -9,6 +9,7 @@ import { computeFigures, type ChannelTraces } from '../observers/figures-of-meri
 import { MapRecorder, mapLayout } from '../observers/map-recorder'
 import { preRunWarnings } from '../observers/warnings'
 import { buildModel, type Model } from '../problem/coupled-modes'
+import { planStorageReference, type ReferencePlan } from '../storage-reference'
 import type { FieldState } from '../steppers/interaction-kernel'
 import { allocateNetworkState, interactNetwork, type NetworkState } from './network-kernel'
 import { buildNetworkModel, type NetworkModel } from './network-model'
@@ -34,9 +35,13 @@ export class NetworkRun {
   readonly warnings: SolverWarning[]
   readonly timeNs: Float64Array
   readonly zM: Float64Array
-  readonly referenceTraces = null
   readonly engine = 'ts' as const
   n = 0
+  /** Storage runs: the same run without the read pulses, forked at plan.forkN (solver/storage-reference.ts). */
+  private referencePlan: ReferencePlan | null = null
+  private reference: NetworkRun | null = null
+  /** A companion keeps no maps: only its port traces are read. */
+  private keepMaps = true
   /** What the maps read: pump, first Stokes and the phonon density of all fields together. */
   private readonly mapView: FieldState
 
@@ -60,6 +65,12 @@ export class NetworkRun {
     this.zM = new Float64Array(m.nodes)
     for (let j = 0; j < m.nodes; j++) this.zM[j] = j * m.dzM
     this.inject(0)
+    this.referencePlan = planStorageReference(config, m.dtS)
+  }
+
+  /** The reference's port traces (storage runs only, once forked). */
+  get referenceTraces(): ChannelTraces[] | null {
+    return this.reference?.traces ?? null
   }
 
   /** The first acoustic field (the main backward resonance), as the plain run's state exposes b. */
@@ -71,16 +82,43 @@ export class NetworkRun {
     return this.n > this.net.nt
   }
 
-  /** Node-steps done (each advances every wave and field of the node). */
+  /** Node-steps done (each advances every wave and field of the node), the storage reference's included. */
   get cellUpdates(): number {
-    return this.n * this.net.nodes
+    const extra = this.reference ? this.reference.n - (this.referencePlan?.forkN ?? this.reference.n) : 0
+    return (this.n + extra) * this.net.nodes
   }
 
+  /** Integrate up to `count` time indices (and the storage reference alongside); returns how many were done. */
   advance(count: number): number {
+    const start = this.n
+    const end = Math.min(this.net.nt + 1, this.n + count)
+    const plan = this.referencePlan
+    if (plan && !this.reference && end > plan.forkN) {
+      this.integrate(plan.forkN)
+      this.reference = this.fork(plan.config)
+    }
+    this.integrate(end)
+    this.reference?.integrate(end)
+    return end - start
+  }
+
+  /** A companion run with other inputs, continuing from this run's present state. */
+  private fork(config: SimulationConfig): NetworkRun {
+    const c = new NetworkRun(config, this.grid)
+    c.referencePlan = null
+    c.keepMaps = false
+    const copy = (from: Float64Array[], to: Float64Array[]) => from.forEach((a, k) => to[k].set(a))
+    copy(this.wave.aRe, c.wave.aRe), copy(this.wave.aIm, c.wave.aIm), copy(this.wave.bRe, c.wave.bRe), copy(this.wave.bIm, c.wave.bIm)
+    this.waveOut.forEach((t, k) => c.waveOut[k].set(t.subarray(0, 2 * this.n)))
+    c.n = this.n
+    return c
+  }
+
+  private integrate(endN: number): void {
     const m = this.net
     const s = this.wave
     const start = this.n
-    const end = Math.min(m.nt + 1, this.n + count)
+    const end = Math.min(m.nt + 1, endN)
     const nz = m.nz
     for (let n = start; n < end; n++) {
       interactNetwork(m, s, 0, 0, 0.5)
@@ -91,14 +129,13 @@ export class NetworkRun {
         this.waveOut[k][2 * n] = w.sqrtPowerPerFlux * s.aRe[k][j]
         this.waveOut[k][2 * n + 1] = w.sqrtPowerPerFlux * s.aIm[k][j]
       })
-      this.recordMaps(n)
+      if (this.keepMaps) this.recordMaps(n)
       if (n < m.nt) {
         this.transport()
         this.inject(n + 1)
       }
     }
-    this.n = end
-    return end - start
+    this.n = Math.max(this.n, end)
   }
 
   private recordMaps(n: number): void {
@@ -162,7 +199,7 @@ export class NetworkRun {
 
   figures(wallTimeS: number): FiguresOfMerit {
     const left = this.leftInsideJ()
-    const f = computeFigures(this.config, this.model, this.traces, [{ pump: left[0], stokes: left[1] }], wallTimeS, this.cellUpdates, null)
+    const f = computeFigures(this.config, this.model, this.traces, [{ pump: left[0], stokes: left[1] }], wallTimeS, this.cellUpdates, this.referenceTraces)
     const note = pairResidualNote(this.net)
     if (note) {
       f.channels[0].manleyRoweResidual = null

@@ -40,4 +40,22 @@ describe('multi-wave solver on a plain configuration', () => {
     const lossOnly = Math.pow(10, -(waveguide.lossDbPerM * 0.05) / 10)
     expect(f.stokesOut / f.stokesIn).toBeGreaterThan(1.05 * lossOnly)
   })
+
+  it('storage (V7 of docs/validation.md) with a dark co-propagating probe: retrieval figures and the reference run without the read pulse equal the plain run', () => {
+    const channel = { pump: { pulses: [gaussian(0.01, 1, 0.1, 'data')] }, stokes: { pulses: [gaussian(10, 1, 0.1, 'write'), gaussian(10, 3, 0.1, 'read')] } }
+    const config = (ch: object) => chipConfig({ windowNs: 5.5, options: { errorEstimate: false }, channels: [ch] })
+    const plainConfig = config(channel)
+    const grid = planGrid(plainConfig)
+    const plain = new SimulationRun(plainConfig, grid, { engine: 'ts' })
+    const net = new NetworkRun(config({ ...channel, coProbe: { pulses: [], backgroundPowerW: 0 } }), grid)
+    plain.advance(grid.nt + 1)
+    net.advance(grid.nt + 1)
+    expect(net.referenceTraces).not.toBeNull()
+    expect(maxRelDiff(plain.referenceTraces![0].pumpOut, net.referenceTraces![0].pumpOut)).toBeLessThan(1e-12)
+    expect(net.cellUpdates).toBe(plain.cellUpdates)
+    const a = plain.figures(0).channels[0], b = net.figures(0).channels[0]
+    expect(a.retrievalEfficiency!).toBeGreaterThan(0.05)
+    for (const key of ['retrievalEfficiency', 'retrievedPhaseRad'] as const) expect(Math.abs(b[key]! / a[key]! - 1)).toBeLessThan(1e-10)
+    expect(b.leakThrough).toBe(a.leakThrough)
+  })
 })
