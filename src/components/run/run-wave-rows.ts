@@ -20,7 +20,7 @@ export interface WaveRow {
 const signed = (v: number, text: string) => (v > 0 ? `+${text}` : text.replace(/^-/, '−'))
 
 export function offsetText(offsetGHz: number): string {
-  if (offsetGHz === 0) return '0 (pump carrier)'
+  if (offsetGHz === 0) return '0'
   // MHz below 1 GHz (forward resonances sit at a few hundred MHz in fibre).
   return Math.abs(offsetGHz) < 1 ? signed(offsetGHz, `${formatNumber(offsetGHz * 1000, 4)} MHz`) : signed(offsetGHz, `${formatNumber(offsetGHz, 5)} GHz`)
 }
@@ -31,8 +31,8 @@ export function waveRow(w: WaveFigure): WaveRow {
   return {
     key: w.key,
     label: w.label,
-    direction: forward ? '→ +z, with the pump' : '← −z, against the pump',
-    facets: forward ? 'in at z = 0, out at z = L' : 'in at z = L, out at z = 0',
+    direction: forward ? '→ +z' : '← −z',
+    facets: forward ? 'with the pump: in at z = 0, out at z = L' : 'against the pump: in at z = L, out at z = 0',
     offset: offsetText(w.offsetGHz),
     energyIn: launched ? formatQuantity(w.energyInJ, 'J') : 'none launched',
     energyOut: formatQuantity(w.energyOutJ, 'J'),

@@ -49,6 +49,8 @@ describe('gain-spectrum overlay', () => {
     const opt = withGainOverlay(lineOption(s, cols, 'png'), s, cols)
     expect(opt.series.map((x) => x.name)).toEqual(['Stokes gain, settled (dB)', CLOSED_FORM_NAME.cw])
     expect((opt.series[1].lineStyle as { type: string }).type).toBe('solid')
+    // Points unjoined, so the curve shows between them.
+    expect(opt.series[0].lineStyle).toEqual({ opacity: 0 })
   })
 
   it('draws the closed form dashed, as a reference, over the peak gain of a CW scan without the tail windows', () => {

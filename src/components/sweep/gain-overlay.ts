@@ -79,7 +79,8 @@ export function withGainOverlay<T extends LineChartOption>(option: T, s: SweepDe
   const at = o ? plotted.findIndex((m) => m.key === o.metricKey) : -1
   if (!o || at < 0) return option
   const points = option.series[at]
-  const series: LineSeries[] = option.series.map((x, i) => (i === at && o.kind === 'pulsed' ? { ...x, name: EFFECTIVE_GAIN_NAME } : x))
+  // The gain's points stand alone over the curve (no joining line), so the curve shows between and under them.
+  const series: LineSeries[] = option.series.map((x, i) => (i === at ? { ...x, ...(o.kind === 'pulsed' ? { name: EFFECTIVE_GAIN_NAME } : {}), lineStyle: { opacity: 0 }, z: 3 } : x))
   series.push({
     name: CLOSED_FORM_NAME[o.kind],
     type: 'line',
