@@ -21,7 +21,7 @@ interface Measured {
   peakHeapMiB: number
 }
 
-function measure(config: SimulationConfig, engine: EngineChoice = 'auto'): Measured {
+function measure(config: SimulationConfig, engine: EngineChoice = 'auto', forceGeneralKernel = false): Measured {
   let peakRss = 0
   let peakHeap = 0
   const sample = () => {
@@ -32,7 +32,7 @@ function measure(config: SimulationConfig, engine: EngineChoice = 'auto'): Measu
   sample()
   const t0 = performance.now()
   // Throughput of the scheme itself: the error estimate's companion run would add a quarter of untimed work.
-  const result = simulateSync({ ...config, options: { ...config.options, errorEstimate: false } }, { onProgress: sample, engine })
+  const result = simulateSync({ ...config, options: { ...config.options, errorEstimate: false } }, { onProgress: sample, engine, forceGeneralKernel })
   const seconds = (performance.now() - t0) / 1000
   sample()
   if (result.status !== 'finished') throw new Error(`benchmark run ${result.status}: ${result.message}`)
@@ -65,25 +65,38 @@ function throughputTable(): void {
   }
 }
 
-/** Both step engines on the same runs, interleaved (ts, wasm, ts, wasm, …) so a change of machine load hits both; best of 3. */
+/**
+ * Both step engines on the same runs, interleaved (ts, wasm, ts, wasm, …) so a change of machine load hits
+ * both; best of 3. Kerr rows also time the general kernel, which computed Kerr runs before the flat Kerr path.
+ */
 function engineTable(): void {
-  console.log('\n## Step engines side by side (plain SVEA, one channel; best of 3, interleaved)')
-  console.log(`${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('cell-upd', 9)} ${pad('ts Mcell/s', 11)} ${pad('wasm Mcell/s', 13)} ${pad('wasm/ts', 8)}`)
+  console.log('\n## Step engines side by side (one channel, SVEA; best of 3, interleaved; Mcell/s)')
+  console.log(`${pad('case', 6)} ${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('cell-upd', 9)} ${pad('ts general', 11)} ${pad('ts', 7)} ${pad('wasm', 7)} ${pad('wasm/ts', 8)} ${pad('wasm/plain wasm', 16)}`)
   const sizes: [number, number][] = [[2000, 20000], [8000, 40000]]
   for (const [nz, nt] of sizes) {
     if (quick && nz * nt > QUICK_CAP) continue
-    const config = gridCase(nz, nt)
-    const best = { ts: Infinity, wasm: Infinity }
-    let cells = 0
-    for (let rep = 0; rep < 3; rep++) {
-      for (const engine of ['ts', 'wasm'] as const) {
-        const m = measure(config, engine)
-        cells = m.result.manifest.counters.cellUpdates
-        best[engine] = Math.min(best[engine], m.seconds)
+    const plain = gridCase(nz, nt)
+    const kerr = { ...plain, waveguide: { ...plain.waveguide, kerrN2M2PerW: 1e-17 }, options: { ...plain.options, kerr: true } }
+    let plainWasm = 0
+    for (const [label, config] of [['plain', plain], ['Kerr', kerr]] as const) {
+      const best = { general: Infinity, ts: Infinity, wasm: Infinity }
+      let cells = 0
+      for (let rep = 0; rep < 3; rep++) {
+        for (const engine of ['ts', 'wasm'] as const) {
+          const m = measure(config, engine)
+          cells = m.result.manifest.counters.cellUpdates
+          best[engine] = Math.min(best[engine], m.seconds)
+        }
+        if (label === 'Kerr') best.general = Math.min(best.general, measure(config, 'ts', true).seconds)
       }
+      const rate = (s: number) => cells / s / 1e6
+      if (label === 'plain') plainWasm = rate(best.wasm)
+      const general = Number.isFinite(best.general) ? fmt(rate(best.general)) : ''
+      console.log(
+        `${pad(label, 6)} ${pad(nz, 6)} ${pad(nt, 7)} ${pad(fmt(cells), 9)} ${pad(general, 11)} ${pad(fmt(rate(best.ts)), 7)} ${pad(fmt(rate(best.wasm)), 7)} ` +
+          `${pad((best.ts / best.wasm).toFixed(2), 8)} ${pad((rate(best.wasm) / plainWasm).toFixed(2), 16)}`,
+      )
     }
-    const rate = (s: number) => cells / s / 1e6
-    console.log(`${pad(nz, 6)} ${pad(nt, 7)} ${pad(fmt(cells), 9)} ${pad(fmt(rate(best.ts)), 11)} ${pad(fmt(rate(best.wasm)), 13)} ${pad((best.ts / best.wasm).toFixed(2), 8)}`)
   }
 }
 

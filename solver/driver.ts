@@ -13,6 +13,7 @@ import { buildModel, type Model } from './problem/coupled-modes'
 import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, noiseWeight, type FieldState } from './steppers/interaction-kernel'
 import { planStorageReference, type ReferencePlan } from './storage-reference'
 import { resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
+import { interactSveaKerr, kerrFastPathApplies } from './steppers/svea-kerr-kernel'
 import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
 import { interactProfile, transportProfile } from './steppers/profile-kernel'
 
@@ -37,6 +38,8 @@ export class SimulationRun {
   n = 0
   private readonly rng: NormalSource | null
   private readonly fast: boolean
+  /** One channel, SVEA, Kerr, no noise: the flat Kerr kernel (same bits as the general one). */
+  private readonly kerrFast: boolean
   /** Per-node constants of a waveguide with a longitudinal profile (its own kernel), else null. */
   readonly profile: ProfileArrays | null
   private readonly forceGeneral: boolean
@@ -76,6 +79,7 @@ export class SimulationRun {
     // unit draws through it to read off the scheme's noise input map).
     this.rng = config.options.noise.enabled ? (options.normalSource ?? new SeededRandom(config.options.noise.seed)) : null
     this.fast = !this.profile && !this.forceGeneral && fastPathApplies(m)
+    this.kerrFast = !this.profile && !this.forceGeneral && kerrFastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
@@ -146,6 +150,10 @@ export class SimulationRun {
         interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, 1, nz - 1, K, 0.5 * c, Er, Ei, h)
         interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, 0, 0, K, 0.25 * c, Er, Ei, h)
         interactSvea(s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm, nz, nz, K, 0.25 * c, Er, Ei, h)
+      } else if (this.kerrFast) {
+        interactSveaKerr(m, s, 0, 0, 0.5)
+        interactSveaKerr(m, s, 1, nz - 1, 1)
+        interactSveaKerr(m, s, nz, nz, 0.5)
       } else {
         // Node order 0, 1..nz−1, nz: the order of the random draws.
         interactGeneral(m, s, 0, 0, 0.5, this.rng)

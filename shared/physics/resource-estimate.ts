@@ -41,8 +41,12 @@ export const SPEED_FACTOR_PROFILE = 0.8
 export const SPEED_FACTOR_HIGHER_ORDER = 0.25
 /** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark idle: 0.10–0.12. */
 export const SPEED_FACTOR_NOISE = 0.11
-/** Relative speed with Kerr phases (two complex rotations per cell); estimate. */
-export const SPEED_FACTOR_KERR = 0.8
+/**
+ * Relative speed with Kerr phases (four Cayley rotations per cell), on the WebAssembly engine's Kerr path against
+ * its plain one: benchmark 2026-12-03, 0.48–0.70 (machine loaded). Runs that need the general kernel (several
+ * channels, noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
+ */
+export const SPEED_FACTOR_KERR = 0.6
 
 /** Optical waves and acoustic fields of the plain pump–Stokes scheme: pump, Stokes and one acoustic field. */
 export const PLAIN_WAVES = 2
@@ -55,10 +59,10 @@ export const PLAIN_FIELDS = 1
  */
 export const SPEED_FACTOR_WAVE_NETWORK = 0.3
 
-/** Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no Kerr, no noise (solver fastPathApplies). */
+/** Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or off (solver/engine/wasm-engine.ts). */
 export function wasmEngineCovers(config: SimulationConfig): boolean {
   const o = config.options
-  return config.channels.length === 1 && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.kerr && !o.noise.enabled
+  return config.channels.length === 1 && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.noise.enabled
 }
 
 /** Optical waves and acoustic fields a run integrates per cell (shared/physics/wave-set.ts). */

@@ -5,28 +5,32 @@
  * the observers and the maps read the same numbers the engine writes. One memory and instance per run
  * (a fork gets its own); the compiled module is shared by every run of the thread.
  *
- * Its interaction step is `interactSvea` two nodes at a time (f64x2), giving the same bits; its transport is
+ * Its interaction step is `interactSvea` (or, with Kerr, `interactSveaKerr`) two nodes at a time (f64x2), giving the same bits; its transport is
  * the driver's shift as a memory move, with the same loss multiply.
  */
 import type { Model } from '../problem/coupled-modes'
 import { fastPathApplies, type FieldState } from '../steppers/interaction-kernel'
+import { kerrFastPathApplies } from '../steppers/svea-kerr-kernel'
 import { SVEA_STEP_WASM_BASE64 } from './svea-step-binary'
 
 /** Which code advances the run: the TypeScript kernels, the WebAssembly engine, or the engine where it applies. */
 export type EngineChoice = 'ts' | 'wasm' | 'auto'
 export const ENGINE_CHOICES = ['ts', 'wasm', 'auto'] as const
 
-/** What the WebAssembly engine covers today; `engineProblem` names the rest. */
-export const wasmEngineApplies = fastPathApplies
+/** What the WebAssembly engine covers today (one channel, SVEA, no noise; Kerr on or off); `engineProblem` names the rest. */
+export function wasmEngineApplies(m: Model): boolean {
+  return fastPathApplies(m) || kerrFastPathApplies(m)
+}
 
 /** Why a forced 'wasm' cannot run this model (a sentence for the user), or null when it can. */
 export function engineProblem(choice: EngineChoice, m: Model): string | null {
   if (choice !== 'wasm' || wasmEngineApplies(m)) return null
-  return 'The WebAssembly engine covers one channel with the slowly varying acoustic envelope, no Kerr effect and no thermal noise'
+  return 'The WebAssembly engine covers one channel with the slowly varying acoustic envelope and no thermal noise'
 }
 
 interface Exports {
   sveaStep(uRe: number, uIm: number, vRe: number, vIm: number, bRe: number, bIm: number, nz: number, K: number, c: number, Er: number, Ei: number, h: number): void
+  sveaKerrStep(uRe: number, uIm: number, vRe: number, vIm: number, bRe: number, bIm: number, nz: number, K: number, exchangePerB: number, Er: number, Ei: number, h: number, kp: number, ks: number, kerrHalfPump: number, kerrHalfStokes: number, scratch: number): void
   transport(uRe: number, uIm: number, vRe: number, vIm: number, nz: number, loss: number): void
 }
 
@@ -46,17 +50,20 @@ function engineModule(): object {
 }
 
 const PAGE_BYTES = 65536
-/** The first page is left to the module (its stack and static data, none today). */
+/** The first page is left to the module (its stack and static data, none today), but for 16 bytes of scratch at its end. */
 const BASE_BYTES = PAGE_BYTES
+const SCRATCH_AT = PAGE_BYTES - 16
 
 export class WasmSveaEngine {
   readonly state: FieldState
   private readonly fn: Exports
   /** Byte addresses of uRe, uIm, vRe, vIm, bRe, bIm. */
   private readonly at: number[]
+  private readonly kerr: boolean
 
   constructor(private readonly m: Model) {
     if (!wasmEngineApplies(m)) throw new Error('WasmSveaEngine: model outside the engine (engineProblem says why)')
+    this.kerr = kerrFastPathApplies(m)
     const n = m.nodes
     // 16-byte aligned arrays, so the f64x2 loads of even nodes never straddle a cache line needlessly.
     const stride = Math.ceil((8 * n) / 16) * 16
@@ -69,10 +76,14 @@ export class WasmSveaEngine {
     this.state = { uRe: view(0), uIm: view(1), vRe: view(2), vIm: view(3), bRe: view(4), bIm: view(5), wRe: none, wIm: none, scratch: none }
   }
 
-  /** The interaction step at every node (interior, then the two facets). */
+  /** The interaction step at every node (interior, then the two facets; with Kerr: the general kernel's order). */
   step(): void {
     const m = this.m
     const a = this.at
+    if (this.kerr) {
+      this.fn.sveaKerrStep(a[0], a[1], a[2], a[3], a[4], a[5], m.nz, m.driveK, m.exchangePerB, m.svea.eRe, m.svea.eIm, m.dtS, m.kappaP, m.rates.kappa, m.kerrHalfPump, m.kerrHalfStokes, SCRATCH_AT)
+      return
+    }
     this.fn.sveaStep(a[0], a[1], a[2], a[3], a[4], a[5], m.nz, m.driveK, m.exchangePerB, m.svea.eRe, m.svea.eIm, m.dtS)
   }
 

@@ -42,15 +42,14 @@ describe('--engine', () => {
     expect(figures(dirs.wasm)).toEqual(figures(dirs.ts))
   })
 
-  it('a forced wasm for a Kerr run is refused (exit 2) with the reason and the remedy', async () => {
+  it('a forced wasm for a run with thermal noise is refused (exit 2) with the reason and the remedy', async () => {
     const config = JSON.parse(readFileSync(EXAMPLE, 'utf8'))
-    config.options = { ...config.options, kerr: true }
-    config.waveguide = { ...config.waveguide, kerrN2M2PerW: 1e-17 }
-    const path = join(tmp, 'kerr.json')
+    config.options = { ...config.options, noise: { enabled: true, temperatureK: 300, seed: 3 } }
+    const path = join(tmp, 'noise.json')
     writeFileSync(path, JSON.stringify(config))
-    const r = await runCli([path, '--out', join(tmp, 'kerr-out'), '--engine', 'wasm'])
+    const r = await runCli([path, '--out', join(tmp, 'noise-out'), '--engine', 'wasm'])
     expect(r.code).toBe(2)
-    expect(r.stderr).toMatch(/The WebAssembly engine covers one channel .* no Kerr effect/)
+    expect(r.stderr).toMatch(/The WebAssembly engine covers one channel .* no thermal noise/)
     expect(r.stderr).toMatch(/engine: choose the TypeScript engine \(ts\) or the automatic choice \(auto\)/)
   })
 })

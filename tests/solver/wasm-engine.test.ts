@@ -17,6 +17,8 @@ const cells = (n: number) => ({ timeStepPs: (0.05 / (VG * n)) * 1e12, mapRows: 3
 const crossing = { pump: { pulses: [gaussian(1, 1.5, 0.3)] }, stokes: { pulses: [gaussian(0.05, 1.5, 0.3)], backgroundPowerW: 1e-3 } }
 const example = (name: string) => SimulationConfig.parse(JSON.parse(readFileSync(new URL(`../../solver/examples/${name}.json`, import.meta.url), 'utf8')))
 
+const withKerr = (c: SimulationConfig): SimulationConfig => ({ ...c, waveguide: { ...c.waveguide, kerrN2M2PerW: 1e-17 }, options: { ...c.options, kerr: true } })
+
 const CASES: Record<string, SimulationConfig> = {
   'storage 150 ps, SVEA (with its reference run)': example('storage-150ps-svea'),
   'store and retrieve': example('store-and-retrieve-chalcogenide-rib'),
@@ -27,6 +29,9 @@ const CASES: Record<string, SimulationConfig> = {
   'storage 150 ps, detuned by 20 MHz': { ...example('storage-150ps-svea'), detuningMHz: 20 },
   'chip, 41 cells (odd), lossy, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30 }, channels: [crossing] }),
   'chip, 40 cells (even), CW depletion, lossless, detuned': chipConfig({ windowNs: 4, grid: cells(40), detuningMHz: 25, channels: [{ pump: { backgroundPowerW: 0.5 }, stokes: { backgroundPowerW: 1e-3 } }] }),
+  // Kerr phases (n₂ of a chalcogenide glass, order of magnitude from memory; large enough to turn the phases).
+  'chip, 41 cells, Kerr, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: 10, waveguide: { kerrN2M2PerW: 1e-17, lossDbPerM: 10 }, channels: [crossing], options: { kerr: true } }),
+  'store and retrieve with Kerr': withKerr(example('store-and-retrieve-chalcogenide-rib')),
   'chip, 5 cells, CW, acoustic advection': chipConfig({ windowNs: 2, grid: cells(5), channels: [{ pump: { backgroundPowerW: 0.5 }, stokes: { backgroundPowerW: 1e-3 } }], options: { acousticAdvection: true } }),
 }
 
@@ -60,6 +65,15 @@ describe('WebAssembly engine: bit-identical to the TypeScript kernel', () => {
     })
   }
 
+  it('with Kerr, the flat TypeScript kernel and the engine give the bits of the general kernel', () => {
+    for (const name of ['chip, 41 cells, Kerr, crossing pulses, detuned', 'store and retrieve with Kerr']) {
+      const general = simulateSync(CASES[name], { forceGeneralKernel: true })
+      expect(general.status).toBe('finished')
+      expect(firstDifference(general, simulateSync(CASES[name], { engine: 'ts' })), name).toBeNull()
+      expect(firstDifference(general, simulateSync(CASES[name], { engine: 'wasm' })), name).toBeNull()
+    }
+  })
+
   it('the engine in one pass equals the TypeScript kernel stepped in uneven chunks, state included', () => {
     const config = CASES['chip, 41 cells (odd), lossy, crossing pulses, detuned']
     const whole = new SimulationRun(config, planGrid(config), { engine: 'wasm' })
@@ -80,10 +94,11 @@ describe('engine choice', () => {
   const higherOrder = chipConfig({ windowNs: 3, grid: cells(41), waveguide: { brillouinShiftGHz: 1 }, channels: [crossing], options: { higherOrderAcoustic: true } })
   const twoChannels = chipConfig({ windowNs: 3, grid: cells(41), channels: [crossing, { offsetGHz: 0.6, pump: { backgroundPowerW: 0.3 } }] })
 
-  it('automatic: the engine where it covers the options (one channel, SVEA, no Kerr, no noise)', () => {
+  it('automatic: the engine where it covers the options (one channel, SVEA, no noise; Kerr on or off)', () => {
     expect(run(plain).engine).toBe('wasm')
     expect(run(plain, { engine: 'auto' }).engine).toBe('wasm')
-    for (const c of [kerr, noise, higherOrder, twoChannels]) expect(run(c).engine).toBe('ts')
+    expect(run(kerr).engine).toBe('wasm')
+    for (const c of [noise, higherOrder, twoChannels]) expect(run(c).engine).toBe('ts')
   })
 
   it('the resource estimate counts the engine exactly for the runs the solver gives it', () => {
@@ -98,7 +113,7 @@ describe('engine choice', () => {
   })
 
   it("a forced 'wasm' the engine cannot run fails with a sentence naming the remedy, never silently falls back", () => {
-    for (const c of [kerr, noise, higherOrder, twoChannels]) {
+    for (const c of [noise, higherOrder, twoChannels]) {
       const r = simulateSync(c, { engine: 'wasm' })
       expect(r.status).toBe('failed')
       expect(r.message).toMatch(/^The WebAssembly engine covers one channel/)

@@ -132,3 +132,172 @@ export function transport(uRe: usize, uIm: usize, vRe: usize, vIm: usize, nz: i3
     }
   }
 }
+
+// @ts-ignore: decorator
+@inline
+function cayley2(phi: v128, re: v128, im: v128, quarter: v128, one: v128, outIm: usize): v128 {
+  // Multiply (re, im) by (1 − q + iφ)/(1 + q), q = φ²/4, in the reference's order; returns re, stores im.
+  const q = f64x2.mul(f64x2.mul(quarter, phi), phi)
+  const den = f64x2.add(one, q)
+  const cr = f64x2.div(f64x2.sub(one, q), den)
+  const ci = f64x2.div(phi, den)
+  v128.store(outIm, f64x2.add(f64x2.mul(cr, im), f64x2.mul(ci, re)))
+  return f64x2.sub(f64x2.mul(cr, re), f64x2.mul(ci, im))
+}
+
+/*
+ * The single-channel SVEA step with Kerr phases: `interactSveaKerr` of solver/steppers/svea-kerr-kernel.ts
+ * (the general kernel's order, equations there), two nodes at a time. `scratch` is 16 bytes of this memory.
+ */
+// @ts-ignore: decorator
+@inline
+function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, j0: i32, j1: i32, weight: f64, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64, scratch: usize): void {
+  const hh = 0.5 * h
+  const c = exchangePerB * weight
+  const fp = kerrHalfPump * weight
+  const fs = kerrHalfStokes * weight
+  const vNegK = f64x2.splat(-K)
+  const vK = f64x2.splat(K)
+  const vH = f64x2.splat(h)
+  const vHh = f64x2.splat(hh)
+  const vEr = f64x2.splat(Er)
+  const vEi = f64x2.splat(Ei)
+  const vC = f64x2.splat(c)
+  const vKp = f64x2.splat(kp)
+  const vKs = f64x2.splat(ks)
+  const vFp = f64x2.splat(fp)
+  const vFs = f64x2.splat(fs)
+  const vHalf = f64x2.splat(0.5)
+  const vTwo = f64x2.splat(2.0)
+  const vQuarter = f64x2.splat(0.25)
+  const vOne = f64x2.splat(1.0)
+  let j = j0
+  for (; j < j1; j += 2) {
+    const o = <usize>j << 3
+    let ur = v128.load(uRe + o)
+    let ui = v128.load(uIm + o)
+    let vr = v128.load(vRe + o)
+    let vi = v128.load(vIm + o)
+    const br = v128.load(bRe + o)
+    const bi = v128.load(bIm + o)
+    const d0r = f64x2.mul(vNegK, f64x2.sub(f64x2.mul(ui, vr), f64x2.mul(ur, vi)))
+    const d0i = f64x2.mul(vK, f64x2.add(f64x2.mul(ur, vr), f64x2.mul(ui, vi)))
+    const tr = f64x2.add(br, f64x2.mul(vH, d0r))
+    const ti = f64x2.add(bi, f64x2.mul(vH, d0i))
+    const bbr = f64x2.mul(vHalf, f64x2.add(br, f64x2.sub(f64x2.mul(vEr, tr), f64x2.mul(vEi, ti))))
+    const bbi = f64x2.mul(vHalf, f64x2.add(bi, f64x2.add(f64x2.mul(vEr, ti), f64x2.mul(vEi, tr))))
+    // Kerr half step before the exchange.
+    let pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)))
+    let ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(vr, vr), f64x2.mul(vi, vi)))
+    let total = f64x2.add(pp, ps)
+    ur = cayley2(f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp)), ur, ui, vQuarter, vOne, scratch)
+    ui = v128.load(scratch)
+    vr = cayley2(f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps)), vr, vi, vQuarter, vOne, scratch)
+    vi = v128.load(scratch)
+    // Exchange with b̄ frozen.
+    const betaR = f64x2.mul(vC, bbr)
+    const betaI = f64x2.mul(vC, bbi)
+    const qe = f64x2.mul(vQuarter, f64x2.add(f64x2.mul(betaR, betaR), f64x2.mul(betaI, betaI)))
+    const den = f64x2.div(vOne, f64x2.add(vOne, qe))
+    const a = f64x2.sub(vOne, qe)
+    const eur = f64x2.mul(f64x2.sub(f64x2.sub(f64x2.mul(a, ur), f64x2.mul(betaR, vi)), f64x2.mul(betaI, vr)), den)
+    const eui = f64x2.mul(f64x2.sub(f64x2.add(f64x2.mul(a, ui), f64x2.mul(betaR, vr)), f64x2.mul(betaI, vi)), den)
+    const evr = f64x2.mul(f64x2.add(f64x2.sub(f64x2.mul(a, vr), f64x2.mul(betaR, ui)), f64x2.mul(betaI, ur)), den)
+    const evi = f64x2.mul(f64x2.add(f64x2.add(f64x2.mul(a, vi), f64x2.mul(betaR, ur)), f64x2.mul(betaI, ui)), den)
+    // Kerr half step after the exchange.
+    pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(eur, eur), f64x2.mul(eui, eui)))
+    ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(evr, evr), f64x2.mul(evi, evi)))
+    total = f64x2.add(pp, ps)
+    const nur = cayley2(f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp)), eur, eui, vQuarter, vOne, uIm + o)
+    v128.store(uRe + o, nur)
+    const nui = v128.load(uIm + o)
+    const nvr = cayley2(f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps)), evr, evi, vQuarter, vOne, vIm + o)
+    v128.store(vRe + o, nvr)
+    const nvi = v128.load(vIm + o)
+    // Corrector: b ← E(b + h/2·D0) + h/2·D1.
+    const d1r = f64x2.mul(vNegK, f64x2.sub(f64x2.mul(nui, nvr), f64x2.mul(nur, nvi)))
+    const d1i = f64x2.mul(vK, f64x2.add(f64x2.mul(nur, nvr), f64x2.mul(nui, nvi)))
+    const sr = f64x2.add(br, f64x2.mul(vHh, d0r))
+    const si = f64x2.add(bi, f64x2.mul(vHh, d0i))
+    v128.store(bRe + o, f64x2.add(f64x2.sub(f64x2.mul(vEr, sr), f64x2.mul(vEi, si)), f64x2.mul(vHh, d1r)))
+    v128.store(bIm + o, f64x2.add(f64x2.add(f64x2.mul(vEr, si), f64x2.mul(vEi, sr)), f64x2.mul(vHh, d1i)))
+  }
+  for (; j <= j1; j++) {
+    const o = <usize>j << 3
+    let ur = load<f64>(uRe + o)
+    let ui = load<f64>(uIm + o)
+    let vr = load<f64>(vRe + o)
+    let vi = load<f64>(vIm + o)
+    const br = load<f64>(bRe + o)
+    const bi = load<f64>(bIm + o)
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const tr = br + h * d0r
+    const ti = bi + h * d0i
+    const bbr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bbi = 0.5 * (bi + (Er * ti + Ei * tr))
+    let pp = kp * (ur * ur + ui * ui)
+    let ps = ks * (vr * vr + vi * vi)
+    let total = pp + ps
+    let phi = fp * (2.0 * total - pp)
+    let q = 0.25 * phi * phi
+    let cr = (1.0 - q) / (1.0 + q)
+    let ci = phi / (1.0 + q)
+    let xr = cr * ur - ci * ui
+    let xi = cr * ui + ci * ur
+    ur = xr
+    ui = xi
+    phi = fs * (2.0 * total - ps)
+    q = 0.25 * phi * phi
+    cr = (1.0 - q) / (1.0 + q)
+    ci = phi / (1.0 + q)
+    xr = cr * vr - ci * vi
+    xi = cr * vi + ci * vr
+    vr = xr
+    vi = xi
+    const betaR = c * bbr
+    const betaI = c * bbi
+    const qe = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1.0 / (1.0 + qe)
+    const a = 1.0 - qe
+    const eur = (a * ur - betaR * vi - betaI * vr) * den
+    const eui = (a * ui + betaR * vr - betaI * vi) * den
+    const evr = (a * vr - betaR * ui + betaI * ur) * den
+    const evi = (a * vi + betaR * ur + betaI * ui) * den
+    pp = kp * (eur * eur + eui * eui)
+    ps = ks * (evr * evr + evi * evi)
+    total = pp + ps
+    phi = fp * (2.0 * total - pp)
+    q = 0.25 * phi * phi
+    cr = (1.0 - q) / (1.0 + q)
+    ci = phi / (1.0 + q)
+    const nur = cr * eur - ci * eui
+    const nui = cr * eui + ci * eur
+    phi = fs * (2.0 * total - ps)
+    q = 0.25 * phi * phi
+    cr = (1.0 - q) / (1.0 + q)
+    ci = phi / (1.0 + q)
+    const nvr = cr * evr - ci * evi
+    const nvi = cr * evi + ci * evr
+    store<f64>(uRe + o, nur)
+    store<f64>(uIm + o, nui)
+    store<f64>(vRe + o, nvr)
+    store<f64>(vIm + o, nvi)
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const sr = br + hh * d0r
+    const si = bi + hh * d0i
+    store<f64>(bRe + o, Er * sr - Ei * si + hh * d1r)
+    store<f64>(bIm + o, Er * si + Ei * sr + hh * d1i)
+  }
+}
+
+/**
+ * One interaction step of a single-channel SVEA grid with Kerr phases, nodes 0..nz (facets weight ½).
+ * `scratch` is the byte address of 16 free bytes (the driver's first page).
+ */
+export function sveaKerrStep(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, nz: i32, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64, scratch: usize): void {
+  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 0, 0, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes, scratch)
+  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 1, nz - 1, 1.0, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes, scratch)
+  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, nz, nz, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes, scratch)
+}

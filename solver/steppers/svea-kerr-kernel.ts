@@ -1,0 +1,101 @@
+/*
+ * Fast path with Kerr phases: one channel, SVEA, no noise. The steps of the contract in
+ * interaction-kernel.ts, as `interactGeneral` computes them for that case, written flat per node (no
+ * scratch, no calls) and with the general kernel's own rounding order, so the results are the same bits:
+ *   D₀ = iK·u·v*,  b̃ = E(b + h·D₀),  b̄ = ½(b + b̃)
+ *   Kerr half step:  φ_p = κ_p,Kerr·w·(2P − P_p),  φ_s = κ_s,Kerr·w·(2P − P_s),  P = P_p + P_s,
+ *                    P_p = κ_p|u|²,  P_s = κ|v|²,  A ← A·(1 − φ²/4 + iφ)/(1 + φ²/4)   (Cayley, unit modulus)
+ *   exchange with β = c·w·b̄ (Cayley, unitary), Kerr half step again with the exchanged fields,
+ *   b ← E(b + h/2·D₀) + h/2·D₁.
+ * tests/solver/kernel-bits.test.ts holds the general kernel's recorded hash of a Kerr run, which this path
+ * must reproduce.
+ */
+import type { Model } from '../problem/coupled-modes'
+import type { FieldState } from './interaction-kernel'
+
+/** True when the single-channel SVEA path with Kerr phases applies (Kerr on, no noise, no higher-order term). */
+export function kerrFastPathApplies(m: Model): boolean {
+  return m.nCh === 1 && m.higherOrder === null && (m.kerrHalfPump !== 0 || m.kerrHalfStokes !== 0) && m.noiseKickRms === 0
+}
+
+/** The interaction step at nodes j0..j1 of trapezoid weight `weight`. */
+export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm } = s
+  const K = m.driveK
+  const h = m.dtS
+  const hh = 0.5 * h
+  const Er = m.svea.eRe
+  const Ei = m.svea.eIm
+  const c = m.exchangePerB * weight
+  const kp = m.kappaP
+  const ks = m.rates.kappa
+  const fp = m.kerrHalfPump * weight
+  const fs = m.kerrHalfStokes * weight
+  for (let j = j0; j <= j1; j++) {
+    let ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j]
+    const br = bRe[j], bi = bIm[j]
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const tr = br + h * d0r
+    const ti = bi + h * d0i
+    const bbr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bbi = 0.5 * (bi + (Er * ti + Ei * tr))
+    // Kerr half step before the exchange.
+    let pp = kp * (ur * ur + ui * ui)
+    let ps = ks * (vr * vr + vi * vi)
+    let total = pp + ps
+    let phi = fp * (2 * total - pp)
+    let q = 0.25 * phi * phi
+    let cr = (1 - q) / (1 + q)
+    let ci = phi / (1 + q)
+    let xr = cr * ur - ci * ui
+    let xi = cr * ui + ci * ur
+    ur = xr
+    ui = xi
+    phi = fs * (2 * total - ps)
+    q = 0.25 * phi * phi
+    cr = (1 - q) / (1 + q)
+    ci = phi / (1 + q)
+    xr = cr * vr - ci * vi
+    xi = cr * vi + ci * vr
+    vr = xr
+    vi = xi
+    // Exchange with b̄ frozen.
+    const betaR = c * bbr
+    const betaI = c * bbi
+    const qe = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + qe)
+    const a = 1 - qe
+    const eur = (a * ur - betaR * vi - betaI * vr) * den
+    const eui = (a * ui + betaR * vr - betaI * vi) * den
+    const evr = (a * vr - betaR * ui + betaI * ur) * den
+    const evi = (a * vi + betaR * ur + betaI * ui) * den
+    // Kerr half step after the exchange.
+    pp = kp * (eur * eur + eui * eui)
+    ps = ks * (evr * evr + evi * evi)
+    total = pp + ps
+    phi = fp * (2 * total - pp)
+    q = 0.25 * phi * phi
+    cr = (1 - q) / (1 + q)
+    ci = phi / (1 + q)
+    const nur = cr * eur - ci * eui
+    const nui = cr * eui + ci * eur
+    phi = fs * (2 * total - ps)
+    q = 0.25 * phi * phi
+    cr = (1 - q) / (1 + q)
+    ci = phi / (1 + q)
+    const nvr = cr * evr - ci * evi
+    const nvi = cr * evi + ci * evr
+    uRe[j] = nur
+    uIm[j] = nui
+    vRe[j] = nvr
+    vIm[j] = nvi
+    // Corrector.
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const sr = br + hh * d0r
+    const si = bi + hh * d0i
+    bRe[j] = Er * sr - Ei * si + hh * d1r
+    bIm[j] = Er * si + Ei * sr + hh * d1i
+  }
+}
