@@ -6,7 +6,7 @@ import { truncationMessage } from './pulse-truncation'
 import { MIN_TIME_STEP_PS, MIN_WINDOW_NS, MIN_WINDOW_STEPS } from './grid-limits'
 import { safeText } from '../api/text'
 import { sourceStepProblem } from './source-grid-rules'
-import { sourceSpectrumIssues } from './source-spectrum-rules'
+import { sourceLimitIssues } from './source-limits'
 import { profileIssues } from './profile-grid-rules'
 import { CascadeSettings } from './resonances'
 
@@ -202,7 +202,7 @@ export const SimulationConfig = SimulationConfigBase.superRefine((c, ctx) => {
       ctx.addIssue({ code: 'custom', path: ['grid', 'timeStepPs'], message: `With the higher-order acoustic term the step must be ≤ ${maxPs.toPrecision(3)} ps (1/(20 ν_B))` })
     }
   }
-  for (const issue of sourceSpectrumIssues(c)) ctx.addIssue({ code: 'custom', ...issue })
+  for (const issue of sourceLimitIssues(c)) ctx.addIssue({ code: 'custom', ...issue })
   if (c.grid.timeStepPs !== undefined) {
     const coarse = sourceStepProblem(c, c.grid.timeStepPs)
     if (coarse) ctx.addIssue({ code: 'custom', path: ['grid', 'timeStepPs'], message: coarse })

@@ -61,6 +61,14 @@ describe('sweeping the modulation', () => {
     channels: [{ pump: { backgroundPowerW: 0.01, modulation: { rateMHz: 10, excursionMHz: 500 } }, stokes: { backgroundPowerW: 0.001, modulation: { rateMHz: 10, excursionMHz: 500, delayNs: 2 } } }],
   })
 
+  it('sets the delay of a broadband Stokes input', () => {
+    const bb = SimulationConfig.parse({ ...config({}), channels: [{ pump: { backgroundPowerW: 0.01, broadband: { linewidthMHz: 50, seed: 3 } }, stokes: { backgroundPowerW: 0.001, broadband: { linewidthMHz: 50, seed: 3 } } }] })
+    const c = applySweepValue(bb, 'modulationDelayNs', 12)
+    expect(c.channels[0].stokes.broadband?.delayNs).toBe(12)
+    expect(c.channels[0].pump.broadband?.delayNs).toBe(0)
+    expect(fieldProblem(bb, 'modulationDelayNs')).toBeNull()
+  })
+
   it('sets rate and excursion on every modulated input and the delay on the Stokes inputs only', () => {
     const c = applySweepValue(applySweepValue(applySweepValue(base, 'modulationRateMHz', 12), 'modulationExcursionMHz', 700), 'modulationDelayNs', 9)
     expect(c.channels[0].pump.modulation).toEqual({ rateMHz: 12, excursionMHz: 700, delayNs: 0 })
@@ -72,7 +80,7 @@ describe('sweeping the modulation', () => {
   it('explains why a configuration without modulation cannot sweep it', () => {
     const plain = SimulationConfig.parse(config({}))
     expect(fieldProblem(plain, 'modulationRateMHz')).toMatch(/no frequency-modulated input/)
-    expect(fieldProblem(plain, 'modulationDelayNs')).toMatch(/no frequency-modulated Stokes input/)
+    expect(fieldProblem(plain, 'modulationDelayNs')).toMatch(/no modulated or broadband Stokes input/)
     expect(fieldProblem(base, 'modulationDelayNs')).toBeNull()
   })
 })
@@ -94,13 +102,15 @@ describe('correlation figures shown in the form', () => {
   })
 })
 
-describe('how wide a source spectrum may be', () => {
-  it('refuses Δf + f_m ≥ ν_B/2 and a linewidth above ν_B/10, on the field at fault', () => {
+describe('limits of a source', () => {
+  it('refuses Δf + f_m ≥ ν_B/2, a linewidth above ν_B/10 and a broadband delay longer than the window, on the field at fault', () => {
     // ν_B = 10.85 GHz: Δf + f_m < 5425 MHz, Δν ≤ 1085 MHz
     expect(SimulationConfig.safeParse(config({ modulation: { rateMHz: 10, excursionMHz: 5400 } })).success).toBe(true)
     const wide = SimulationConfig.safeParse(config({ modulation: { rateMHz: 30, excursionMHz: 5400 } }))
     expect(wide.error!.issues.map((i) => i.path.join('.'))).toEqual(['channels.0.pump.modulation.excursionMHz'])
     expect(SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 1085 } })).success).toBe(true)
+    const late = SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 100, delayNs: 301 } }))
+    expect(late.error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['channels.0.pump.broadband.delayNs', 'The delay must lie within ±300 ns, the simulated window']])
     const broad = SimulationConfig.safeParse(config({ broadband: { linewidthMHz: 1100 } }))
     expect(broad.error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['channels.0.pump.broadband.linewidthMHz', expect.stringMatching(/a tenth of the Brillouin shift \(1085 MHz\)/)]])
   })

@@ -1,11 +1,17 @@
 /*
- * How wide a source's spectrum may be. The model carries pump and Stokes as two envelopes on carriers ν_B
+ * Limits of a source that are not step rules: how wide its spectrum may be, and how long a broadband delay.
+ *
+ * Spectral width. The model carries pump and Stokes as two envelopes on carriers ν_B
  * apart (docs/model.md, equations); a modulated or broadband field whose spectrum reaches halfway to the other
  * carrier would be light the model assigns to the wrong wave.
  *
  * Frequency modulation: by Carson's rule (common practice) the spectrum spans ν ± (Δf + f_m); refuse
  * Δf + f_m ≥ ν_B/2. Broadband: a Lorentzian of FWHM Δν has 1 − (2/π)·atan(ν_B/Δν) of its power beyond ±ν_B/2;
  * refuse Δν > ν_B/10, where that reaches 6 %.
+ *
+ * Broadband delay: a port delayed by t_d reads its source's random walk from t = −t_d, one walk step per
+ * 10⁻³ rad² of diffusion (source-phase.ts); |t_d| is held to the simulated window so that costs no more than
+ * the window itself.
  */
 import type { SimulationConfig } from './simulation-config'
 
@@ -16,7 +22,7 @@ export interface SourceSpectrumIssue {
   message: string
 }
 
-export function sourceSpectrumIssues(config: SimulationConfig): SourceSpectrumIssue[] {
+export function sourceLimitIssues(config: SimulationConfig): SourceSpectrumIssue[] {
   const halfShiftMHz = (config.waveguide.brillouinShiftGHz * 1000) / 2
   const out: SourceSpectrumIssue[] = []
   config.channels.forEach((ch, ci) => {
@@ -33,6 +39,9 @@ export function sourceSpectrumIssues(config: SimulationConfig): SourceSpectrumIs
           path: ['channels', ci, port, 'broadband', 'linewidthMHz'],
           message: `The linewidth must be at most a tenth of the Brillouin shift (${(MAX_LINEWIDTH_PER_SHIFT * 2 * halfShiftMHz).toPrecision(4)} MHz): a broader source puts light at the other wave's carrier, which this model of two separate waves does not describe`,
         })
+      }
+      if (broadband && Math.abs(broadband.delayNs) > config.windowNs) {
+        out.push({ path: ['channels', ci, port, 'broadband', 'delayNs'], message: `The delay must lie within ±${config.windowNs} ns, the simulated window` })
       }
     }
   })

@@ -18,11 +18,13 @@ export type FrequencyModulation = z.infer<typeof FrequencyModulation>
 
 /**
  * A source of Lorentzian linewidth Δν: its phase performs a random walk with diffusion 2πΔν,
- * ⟨[φ(t+τ) − φ(t)]²⟩ = 2πΔν|τ|. The seed fixes the realisation.
+ * ⟨[φ(t+τ) − φ(t)]²⟩ = 2πΔν|τ|. The seed fixes the realisation: pump and Stokes with the same seed and
+ * linewidth carry one source's phase, φ(t − t_d) with their own delays, as in a correlation scheme.
  */
 export const BroadbandSource = z.object({
   linewidthMHz: finite().positive('must be above 0').max(2e4).describe('Source linewidth Δν, FWHM of its Lorentzian spectrum (MHz)'),
   seed: z.number().int().min(0).max(2 ** 31 - 1).default(1).describe('Seed of the random phase; the same seed gives the same field'),
+  delayNs: finite().min(-1e7).max(1e7).default(0).describe('Delay of the random phase at the input facet (ns)'),
 })
 export type BroadbandSource = z.infer<typeof BroadbandSource>
 

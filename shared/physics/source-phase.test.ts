@@ -1,8 +1,10 @@
 import { describe, expect, it } from 'vitest'
 import FFT from 'fft.js'
+import type { z } from 'zod'
 import { sampleInput } from './pulse-envelope'
 import { PortInput } from './pulse'
-import { PhaseWalk, walkStepNs } from './source-phase'
+import { sourcePhaseWalk, walkStepNs } from './source-phase'
+import { BroadbandSource } from './source-modulation'
 
 /** J_n(x) from its power series Σ_k (−1)^k (x/2)^{2k+n} / (k!(n+k)!) (Abramowitz & Stegun 9.1.10). */
 function besselJ(n: number, x: number): number {
@@ -26,7 +28,7 @@ function dft(trace: Float64Array, n: number): number[] {
   return out.map((v) => v / n)
 }
 
-const cw = (extra: Partial<PortInput>): PortInput => PortInput.parse({ backgroundPowerW: 1, ...extra })
+const cw = (extra: Partial<z.input<typeof PortInput>>): PortInput => PortInput.parse({ backgroundPowerW: 1, ...extra })
 
 describe('frequency-modulated source', () => {
   it('series Bessel values agree with the handbook table (Abramowitz & Stegun table 9.1)', () => {
@@ -118,7 +120,8 @@ describe('broadband (random-phase) source', () => {
     const sums = lags.map(() => 0)
     const counts = lags.map(() => 0)
     for (const seed of [1, 2, 3]) {
-      const phi = unwrappedPhase(sampleInput(cw({ broadband: { linewidthMHz, seed } }), n, dtNs * 1e-9))
+      // Half of the record before s = 0: the backward walk must diffuse like the forward one.
+      const phi = unwrappedPhase(sampleInput(cw({ broadband: { linewidthMHz, seed, delayNs: (n / 2) * dtNs } }), n, dtNs * 1e-9))
       lags.forEach((lag, li) => {
         // Overlapping lags: every start sample, the estimator with the least scatter for a given record.
         for (let i = 0; i + lag <= n; i++) {
@@ -164,12 +167,35 @@ describe('broadband (random-phase) source', () => {
   })
 
   it('starts its walk at φ(0) = 0 and interpolates between walk nodes', () => {
-    const w = new PhaseWalk({ linewidthMHz: 100, seed: 5 })
-    const h = walkStepNs({ linewidthMHz: 100, seed: 5 })
+    const b = BroadbandSource.parse({ linewidthMHz: 100, seed: 5 })
+    const h = walkStepNs(b)
+    const w = sourcePhaseWalk(b)
     expect(w.at(0)).toBe(0)
     const next = w.at(h)
     expect(w.at(h)).toBe(next)
-    const w2 = new PhaseWalk({ linewidthMHz: 100, seed: 5 })
-    expect(w2.at(h / 4)).toBeCloseTo(next / 4, 14)
+    expect(sourcePhaseWalk(b).at(h / 4)).toBeCloseTo(next / 4, 14)
+  })
+
+  it('gives a port delayed by t_d the same phase t_d later: one source shared by two ports', () => {
+    const pump = sampleInput(cw({ broadband: { linewidthMHz, seed: 21 } }), 4000, dtNs * 1e-9)
+    const probe = sampleInput(cw({ broadband: { linewidthMHz, seed: 21, delayNs: 300 * dtNs } }), 4000, dtNs * 1e-9)
+    for (let i = 300; i <= 4000; i++) {
+      expect(probe[2 * i]).toBeCloseTo(pump[2 * (i - 300)], 10)
+      expect(probe[2 * i + 1]).toBeCloseTo(pump[2 * (i - 300) + 1], 10)
+    }
+    // Before its delay has passed the probe reads the walk at s < 0, which is random too, not a constant phase.
+    expect(Math.abs(probe[2 * 100 + 1])).toBeGreaterThan(1e-3)
+  })
+
+  it('has ⟨φ(s)²⟩ = 2πΔν|s| before s = 0 as well (Brownian bridge back to φ(0) = 0), within 10 % over 2000 seeds', () => {
+    // The walk read from s = −10 ns: at s = −5 ns the variance is 2π · 10 MHz · 5 ns = 0.3142 rad².
+    let sum = 0
+    const seeds = 2000
+    for (let seed = 1; seed <= seeds; seed++) {
+      const w = sourcePhaseWalk(BroadbandSource.parse({ linewidthMHz, seed, delayNs: 10 }))
+      sum += w.at(-5) ** 2
+      expect(w.at(0)).toBe(0)
+    }
+    expect(Math.abs(sum / seeds / (2 * Math.PI * linewidthMHz * 1e-3 * 5) - 1)).toBeLessThan(0.1)
   })
 })

@@ -6,13 +6,14 @@
  * the first factor a sinusoidal frequency modulation (its spectrum is the Jacobi–Anger series
  * Σ J_n(β) e^{i n 2π f_m t}, Abramowitz & Stegun 9.1.41), the second the phase of a source of Lorentzian
  * linewidth Δν: a random walk φ_{k+1} = φ_k + √(2πΔν·h)·N(0,1), so ⟨[φ(t+τ) − φ(t)]²⟩ = 2πΔν|τ| and the
- * field's power spectrum is a Lorentzian of FWHM Δν (common practice: the Wiener phase-noise model of a laser).
+ * field's power spectrum is a Lorentzian of FWHM Δν (common practice: the Wiener phase-noise model of a laser),
+ * read with the source's delay, φ(t) = W(t − t_d) (phase-walk.ts).
  *
  * The walk runs on its own step h = WALK_PHASE_VARIANCE/(2πΔν), fixed by the linewidth alone, and is read at
  * the sample times by linear interpolation: every grid (the solver's, its error-estimate companion at 2Δt, the
  * form's preview) sees the same realisation of the seed, bit for bit.
  */
-import { SeededNormal } from './seeded-normal'
+import { PhaseWalk } from './phase-walk'
 import type { BroadbandSource, FrequencyModulation } from './source-modulation'
 
 /**
@@ -33,46 +34,20 @@ export function walkStepNs(b: BroadbandSource): number {
   return WALK_PHASE_VARIANCE / (2 * Math.PI * b.linewidthMHz * 1e-3)
 }
 
-/**
- * The random phase φ(t) of a broadband source, read at non-decreasing times from t = 0 (φ(0) = 0).
- * Holds only the two walk nodes around the last time asked for, so a long window costs no memory.
- */
-export class PhaseWalk {
-  private readonly rng: SeededNormal
-  private readonly hNs: number
-  private readonly sigma: number
-  private k = 0
-  private phiK = 0
-  private phiNext: number
-
-  constructor(b: BroadbandSource) {
-    this.rng = new SeededNormal(b.seed)
-    this.hNs = walkStepNs(b)
-    this.sigma = Math.sqrt(WALK_PHASE_VARIANCE)
-    this.phiNext = this.sigma * this.rng.normal()
-  }
-
-  /** φ at tNs ≥ the previous call's time (rad). */
-  at(tNs: number): number {
-    const pos = tNs / this.hNs
-    while (pos >= this.k + 1) {
-      this.k++
-      this.phiK = this.phiNext
-      this.phiNext = this.phiK + this.sigma * this.rng.normal()
-    }
-    return this.phiK + (pos - this.k) * (this.phiNext - this.phiK)
-  }
+/** The walk W of a broadband source, started where its port first reads it: φ(t) = W(t − t_d) from t = 0 on. */
+export function sourcePhaseWalk(b: BroadbandSource): PhaseWalk {
+  return new PhaseWalk(b.seed, walkStepNs(b), WALK_PHASE_VARIANCE, -b.delayNs)
 }
 
 /** Multiply an interleaved complex trace sampled at t_n = n·Δt by the source's phase factor, in place. */
 export function applySourcePhase(trace: Float64Array, dtNs: number, modulation?: FrequencyModulation, broadband?: BroadbandSource): void {
   if (!modulation && !broadband) return
-  const walk = broadband ? new PhaseWalk(broadband) : null
+  const walk = broadband ? sourcePhaseWalk(broadband) : null
   const n = trace.length / 2
   for (let i = 0; i < n; i++) {
     const tNs = i * dtNs
     // The walk advances even where the field is zero, so a sample's phase does not depend on the pulses.
-    const ph = (modulation ? modulationPhase(modulation, tNs) : 0) + (walk ? walk.at(tNs) : 0)
+    const ph = (modulation ? modulationPhase(modulation, tNs) : 0) + (walk && broadband ? walk.at(tNs - broadband.delayNs) : 0)
     const re = trace[2 * i]
     const im = trace[2 * i + 1]
     if (re === 0 && im === 0) continue

@@ -1,7 +1,7 @@
 // The configuration fields a sweep may vary: label, unit, where in SimulationConfig the value goes, and how
 // to set and read it. One list for the sweep form, the API and the CSV header.
 import type { Pulse } from './pulse'
-import type { FrequencyModulation } from './source-modulation'
+import type { BroadbandSource, FrequencyModulation } from './source-modulation'
 import type { SimulationConfig } from './simulation-config'
 import { criticalPowerOf, energyPerPeakNs, setStorageDelay, storageDelayNs } from './sweep-derived'
 import { WAVE_SWEEP_FIELD_IDS, WAVE_SWEEP_FIELDS, applyWaveSweepValue, isWaveSweepField, readWaveSweepValue, waveFieldProblem } from './sweep-fields-waves'
@@ -57,7 +57,7 @@ export const SWEEP_FIELDS: readonly SweepField[] = [
   { id: 'lossDbPerM', label: 'Optical loss', unit: 'dB/m', path: 'waveguide.lossDbPerM', needsPulseLabel: false, positive: false, help: 'Propagation loss of both optical waves' },
   { id: 'modulationRateMHz', label: 'Modulation rate', unit: 'MHz', path: 'channels[*].{pump,stokes}.modulation.rateMHz', needsPulseLabel: false, positive: true, help: 'Rate f_m of every frequency-modulated input; sets the spacing of correlation peaks' },
   { id: 'modulationExcursionMHz', label: 'Frequency excursion', unit: 'MHz', path: 'channels[*].{pump,stokes}.modulation.excursionMHz', needsPulseLabel: false, positive: false, help: 'Excursion Δf of every frequency-modulated input; sets the width of correlation peaks' },
-  { id: 'modulationDelayNs', label: 'Stokes modulation delay', unit: 'ns', path: 'channels[*].stokes.modulation.delayNs', needsPulseLabel: false, positive: false, signed: true, help: 'Delay of the Stokes input’s modulation; moves the correlation peaks along the guide' },
+  { id: 'modulationDelayNs', label: 'Stokes source delay', unit: 'ns', path: 'channels[*].stokes.{modulation,broadband}.delayNs', needsPulseLabel: false, positive: false, signed: true, help: 'Delay of the Stokes input’s modulation or random phase; moves the correlation peaks along the guide' },
   ...WAVE_SWEEP_FIELDS,
 ]
 
@@ -83,16 +83,21 @@ export function pulseLabels(config: SimulationConfig): string[] {
   return [...out]
 }
 
-/** Every frequency-modulated input (both ports of every channel, or the Stokes ports only). */
-function modulations(config: SimulationConfig, stokesOnly = false): FrequencyModulation[] {
-  return config.channels.flatMap((c) => (stokesOnly ? [c.stokes] : [c.pump, c.stokes])).flatMap((p) => (p.modulation ? [p.modulation] : []))
+/** Every frequency-modulated input (both ports of every channel). */
+function modulations(config: SimulationConfig): FrequencyModulation[] {
+  return config.channels.flatMap((c) => [c.pump, c.stokes]).flatMap((p) => (p.modulation ? [p.modulation] : []))
+}
+
+/** The modulation and broadband source of every Stokes input: what a delay sweep moves. */
+function stokesSources(config: SimulationConfig): { delayNs: number }[] {
+  return config.channels.flatMap((c) => [c.stokes.modulation, c.stokes.broadband]).filter((x): x is FrequencyModulation | BroadbandSource => x !== undefined)
 }
 
 /** Why the field cannot be swept on this config, or null when it can. */
 export function fieldProblem(config: SimulationConfig, id: SweepFieldId, pulseLabel?: string): string | null {
   const f = sweepField(id)
   if (isWaveSweepField(id)) return waveFieldProblem(config, id)
-  if (id === 'modulationDelayNs' && modulations(config, true).length === 0) return 'The base configuration has no frequency-modulated Stokes input'
+  if (id === 'modulationDelayNs' && stokesSources(config).length === 0) return 'The base configuration has no modulated or broadband Stokes input'
   if ((id === 'modulationRateMHz' || id === 'modulationExcursionMHz') && modulations(config).length === 0) return 'The base configuration has no frequency-modulated input'
   if (id === 'storageDelayNs' && storageDelayNs(config) === null) return 'The base configuration has no storage pulses: label a pump pulse “data”, and Stokes pulses “write” and “read”'
   if (!f.needsPulseLabel) return null
@@ -167,7 +172,7 @@ export function applySweepValue(config: SimulationConfig, id: SweepFieldId, valu
       for (const m of modulations(c)) m.excursionMHz = value
       break
     case 'modulationDelayNs':
-      for (const m of modulations(c, true)) m.delayNs = value
+      for (const m of stokesSources(c)) m.delayNs = value
       break
     default:
       applyWaveSweepValue(c, id, value)
@@ -210,7 +215,7 @@ export function readSweepValue(config: SimulationConfig, id: SweepFieldId, pulse
     case 'modulationExcursionMHz':
       return modulations(config)[0]?.excursionMHz ?? null
     case 'modulationDelayNs':
-      return modulations(config, true)[0]?.delayNs ?? null
+      return stokesSources(config)[0]?.delayNs ?? null
     default:
       return readWaveSweepValue(config, id)
   }

@@ -35,7 +35,7 @@ describe('runs with modulated and broadband inputs', () => {
     expect(res.status).toBe(202)
     const { rows } = await pool.query(`select config from runs where id = $1`, [RunDetail.parse(res.body).id])
     expect(rows[0].config.channels[0].pump.modulation).toEqual({ rateMHz: 100, excursionMHz: 3000, delayNs: 1 })
-    expect(rows[0].config.channels[0].stokes.broadband).toEqual({ linewidthMHz: 200, seed: 9 })
+    expect(rows[0].config.channels[0].stokes.broadband).toEqual({ linewidthMHz: 200, seed: 9, delayNs: 0 })
   })
 
   it('refuses a modulation rate of 0 with 400 on that field', async () => {

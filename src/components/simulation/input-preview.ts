@@ -21,7 +21,7 @@ export function samplePortPower(port: PortDraft, windowNs: number, samples = PRE
   const dtNs = windowNs / samples
   const modulation = FrequencyModulation.safeParse(port.modulation)
   const broadband = BroadbandSource.safeParse(port.broadband)
-  const walkFits = broadband.success && windowNs / walkStepNs(broadband.data) <= MAX_PREVIEW_WALK_STEPS
+  const walkFits = broadband.success && (windowNs + Math.abs(broadband.data.delayNs)) / walkStepNs(broadband.data) <= MAX_PREVIEW_WALK_STEPS
   const trace = sampleInput(
     { pulses, backgroundPowerW, modulation: modulation.success ? modulation.data : undefined, broadband: walkFits ? broadband.data : undefined },
     samples,
