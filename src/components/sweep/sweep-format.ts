@@ -17,7 +17,7 @@ export function metricsWithData(s: SweepDetail): MetricColumn[] {
 }
 
 /** The headline figures, picked first on the chart and in the table. */
-const PREFERRED = ['retrievalEfficiency', 'peakStokesGainDb', 'pumpOutFwhmNs', 'pumpDelayNs', 'reflectivity']
+const PREFERRED = ['retrievalEfficiency', 'settledStokesGainDb', 'peakStokesGainDb', 'pumpOutFwhmNs', 'pumpDelayNs', 'reflectivity']
 
 export function defaultMetrics(s: SweepDetail, n = 2): string[] {
   const have = metricsWithData(s)
