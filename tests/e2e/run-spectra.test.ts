@@ -45,6 +45,12 @@ describe('run spectra', () => {
 
     await page.goto(`/runs/${runId}`)
     await page.locator('[data-testid=run-status]', { hasText: 'Succeeded' }).first().waitFor({ timeout: 120_000 })
+    // The stored result carries the same spectra as arrays with units (they go into the ZIP as NPY files).
+    const detail = (await (await page.request.get(`/api/runs/${runId}`)).json()) as { arrays: { name: string; units: string }[] }
+    const units = Object.fromEntries(detail.arrays.map((d) => [d.name, d.units]))
+    expect(units).toMatchObject({ spectrum_offset_ghz: 'GHz', ch1_pump_in_psd_dbm_per_ghz: 'dBm/GHz', ch1_pump_out_psd_dbm_per_ghz: 'dBm/GHz' })
+    expect(units.ch1_stokes_in_psd_dbm_per_ghz).toBeUndefined()
+
     const rbw = page.getByTestId('spectrum-rbw')
     await rbw.waitFor({ timeout: 30_000 })
     expect(await rbw.textContent()).toMatch(/Hann window, \d+-sample segments overlapping 75 % \(\d+ averaged\); resolution bandwidth [\d.]+ [kMG]?Hz \(1\.5 × 1\/segment duration\), drawn every [\d.]+ [kMG]?Hz/)
