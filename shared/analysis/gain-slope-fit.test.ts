@@ -26,12 +26,12 @@ describe('fitSmallSignalGainSlope', () => {
     expect(r.fit.saturatedFromW).toBeNull()
   })
 
-  it('stops at the first point compressed by more than 1 dB and fits only the points below', () => {
-    // Linear to 0.3 W, then the gain flattens (pump depletion): the 0.35 W point sits 0.5 dB low (kept),
-    // the 0.4 W point 3 dB low (the compression criterion, common practice, ends the run there).
+  it('stops at the first point compressed by more than 0.5 dB and fits only the points below', () => {
+    // Linear to 0.3 W, then the gain flattens (pump depletion): the 0.35 W point sits 0.3 dB low (kept),
+    // the 0.4 W point 3 dB low (past the compression threshold: the run ends there).
     const p = [0.05, 0.1, 0.15, 0.2, 0.25, 0.3, 0.35, 0.4, 0.5]
     const g = p.map((x) => 100 * x)
-    g[6] -= 0.5
+    g[6] -= 0.3
     g[7] -= 3
     g[8] -= 12
     const r = fitSmallSignalGainSlope(p, g)
@@ -39,10 +39,21 @@ describe('fitSmallSignalGainSlope', () => {
     expect(r.fit.saturatedFromW).toBe(0.4)
     expect(r.fit.maxPowerUsedW).toBe(0.35)
     expect(r.fit.points).toBe(7)
-    expect(COMPRESSION_DB).toBe(1)
+    expect(COMPRESSION_DB).toBe(0.5)
     // Without the 0.35 W point the slope would be exactly 100; with it, a little lower.
     expect(r.fit.slope).toBeLessThan(100)
     expect(r.fit.slope).toBeGreaterThan(98)
+  })
+
+  it('measures compression from the line through the lowest three points, so a slow saturation cannot bend it', () => {
+    // Each point 0.4 dB below the one before's trend: a refitted line would follow and keep them all; the fixed
+    // reference sees the fifth point 0.8 dB low and stops.
+    const p = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6]
+    const g = [10, 20, 30, 39.6, 49.2, 58.8]
+    const r = fitSmallSignalGainSlope(p, g)
+    if (!r.ok) throw new Error(r.reason)
+    expect(r.fit.saturatedFromW).toBe(0.5)
+    expect(r.fit.points).toBe(4)
   })
 
   it('takes the points in order of power whatever order they come in', () => {

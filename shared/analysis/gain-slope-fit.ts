@@ -4,14 +4,16 @@
 //     G_dB(P) = 10·log10(e)·(η g_B P L_eff / A_eff − αL)        (Agrawal, Nonlinear Fiber Optics, ch. 9),
 // so a straight line G_dB = c + s·P through the unsaturated points gives the slope s in dB/W.
 //
-// Which points are unsaturated: sorted by power, the line through the lowest three is extended one point at
-// a time while the next point lies within 1 dB of the line extrapolated to it; the first point more than
-// 1 dB below ends the run (the 1 dB gain-compression point, common practice for amplifiers). Linear least
-// squares with the covariance s²(JᵀJ)⁻¹, s² = SSR/(N − 2) (least-squares.ts; common practice).
+// Which points are unsaturated: saturation sets in gradually as the Stokes takes power from the pump, and the
+// 1 dB gain-compression point is the usual mark of full saturation (common practice for amplifiers). A
+// small-signal slope needs the points well before it, so, sorted by power, points are taken while their gain
+// lies within COMPRESSION_DB of the straight line through the three lowest-power points; the first one
+// further below ends the run. Linear least squares over the points taken, with the covariance s²(JᵀJ)⁻¹,
+// s² = SSR/(N − 2) (least-squares.ts; common practice).
 import { parameterSigmas } from './least-squares'
 
-/** Gain compression that marks the onset of saturation (dB); common practice. */
-export const COMPRESSION_DB = 1
+/** Gain compression (dB) that ends the small-signal points: half the 1 dB compression mark; our choice. */
+export const COMPRESSION_DB = 0.5
 /** Points needed for a slope with an error (two parameters, one degree of freedom). */
 const MIN_POINTS = 3
 
@@ -45,7 +47,7 @@ export function fitLine(x: readonly number[], y: readonly number[]): LineFit {
 export interface GainSlopeFit extends LineFit {
   /** Highest pump power among the points used (W). */
   maxPowerUsedW: number
-  /** Lowest power whose gain fell more than COMPRESSION_DB below the line, or null when none did. */
+  /** Lowest power whose gain fell more than COMPRESSION_DB below the reference line, or null when none did. */
   saturatedFromW: number | null
 }
 
@@ -59,17 +61,17 @@ export function fitSmallSignalGainSlope(powerW: readonly number[], gainDb: reado
   if (pts.length < MIN_POINTS) return { ok: false, reason: `needs at least ${MIN_POINTS} points with a gain (has ${pts.length})` }
   if (pts[MIN_POINTS - 1].p <= pts[0].p) return { ok: false, reason: 'needs points at more than one pump power' }
 
+  // A fixed reference: refitting as points are added would let the line bend down with a slow saturation.
+  const ref = fitLine(pts.slice(0, MIN_POINTS).map((q) => q.p), pts.slice(0, MIN_POINTS).map((q) => q.g))
   let used = MIN_POINTS
-  let line = fitLine(pts.slice(0, used).map((q) => q.p), pts.slice(0, used).map((q) => q.g))
   let saturatedFromW: number | null = null
-  while (used < pts.length) {
+  for (; used < pts.length; used++) {
     const next = pts[used]
-    if (line.intercept + line.slope * next.p - next.g > COMPRESSION_DB) {
+    if (ref.intercept + ref.slope * next.p - next.g > COMPRESSION_DB) {
       saturatedFromW = next.p
       break
     }
-    used++
-    line = fitLine(pts.slice(0, used).map((q) => q.p), pts.slice(0, used).map((q) => q.g))
   }
+  const line = fitLine(pts.slice(0, used).map((q) => q.p), pts.slice(0, used).map((q) => q.g))
   return { ok: true, fit: { ...line, maxPowerUsedW: pts[used - 1].p, saturatedFromW } }
 }

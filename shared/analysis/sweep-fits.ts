@@ -5,12 +5,12 @@
 //   conventions: energy lifetime 1/Γ_B, amplitude lifetime 2/Γ_B; Agrawal, Nonlinear Fiber Optics, ch. 9).
 //   The waveguide's nominal energy lifetime is 1/Γ_B with Γ_B = 2π·Δν_B.
 // - pump power in an amplifier: the small-signal slope of the peak Stokes gain in dB (gain-slope-fit.ts). For
-//   a CW pump the closed-form slope is 10·log10(e)·η g_B L_eff/(A_eff (1 + (2Δ/Δν_B)²)) dB/W at detuning Δ
-//   (Lorentzian gain line; Agrawal, ch. 9).
+//   a CW pump the closed-form slope is 10·log10(e)·η g(ν) L_eff/A_eff dB/W, g(ν) the gain line(s) at the run's
+//   detuning (shared/physics/gain-spectrum.ts; Agrawal, ch. 9).
 import type { SweepDetail } from '../api/sweeps'
 import { channelScheme, storageRoles } from '../physics/pulse-roles'
-import { effectiveLengthM } from '../physics/derived-quantities'
-import { DB_PER_NEPER_POWER, dbPerMToPerM } from '../physics/units'
+import { smallSignalExponent } from '../physics/gain-spectrum'
+import { DB_PER_NEPER_POWER } from '../physics/units'
 import { fitExponentialDecay, type ExponentialDecayResult } from './exponential-decay-fit'
 import { fitSmallSignalGainSlope, type GainSlopeResult } from './gain-slope-fit'
 
@@ -21,6 +21,8 @@ export interface LifetimeAnalysis {
   metricKey: string
   /** τ = axis value − offsetNs: the delay after the write pulse (or the data pulse when none is labelled write). */
   offsetNs: number
+  /** Which pulse's centre offsetNs is. */
+  anchor: 'write' | 'data'
   result: ExponentialDecayResult
   /** 1/Γ_B of the waveguide (ns). */
   nominalEnergyLifetimeNs: number
@@ -66,11 +68,12 @@ export function sweepAnalyses(s: Sweep): SweepAnalysis[] {
       const roles = storageRoles(ch)!
       if (!sameLabel(roles.read.label, axis.pulseLabel)) return
       // A write pulse sharing the read's label would move with it; then τ is measured from the data pulse.
-      const anchor = roles.write && !sameLabel(roles.write.label, axis.pulseLabel) ? roles.write : roles.data
+      const byWrite = roles.write !== null && !sameLabel(roles.write.label, axis.pulseLabel)
+      const anchor = byWrite ? roles.write! : roles.data
       const key = metricKey(s, ci, 'retrievalEfficiency')
       const { x, y } = series(s, key)
       const offsetNs = anchor.centreNs
-      out.push({ kind: 'lifetime', metricKey: key, offsetNs, result: fitExponentialDecay(x.map((v) => v - offsetNs), y), nominalEnergyLifetimeNs: 1e3 / (2 * Math.PI * w.linewidthMHz) })
+      out.push({ kind: 'lifetime', metricKey: key, offsetNs, anchor: byWrite ? 'write' : 'data', result: fitExponentialDecay(x.map((v) => v - offsetNs), y), nominalEnergyLifetimeNs: 1e3 / (2 * Math.PI * w.linewidthMHz) })
     }
     const pumpPowerAxis =
       axis.field === 'pumpPowerW' ||
@@ -78,9 +81,10 @@ export function sweepAnalyses(s: Sweep): SweepAnalysis[] {
     if (scheme === 'amplifier' && pumpPowerAxis) {
       const key = metricKey(s, ci, 'peakStokesGainDb')
       const { x, y } = series(s, key)
-      const cw = axis.field === 'pumpPowerW' && ch.pump.pulses.length === 0
-      const lorentz = 1 + ((2 * cfg.detuningMHz) / w.linewidthMHz) ** 2
-      const nominal = cw ? (DB_PER_NEPER_POWER * w.polarisationFactor * w.gainCoefficientMPerW * effectiveLengthM(dbPerMToPerM(w.lossDbPerM), w.lengthM)) / (w.effectiveAreaUm2 * 1e-12 * lorentz) : null
+      // The closed form holds for CW pump and Stokes; pulses shorter than the phonon lifetime see less gain.
+      const cw = axis.field === 'pumpPowerW' && ch.pump.pulses.length === 0 && ch.stokes.pulses.length === 0
+      // The exponent is linear in P: its value at 1 W is the slope in nepers per watt.
+      const nominal = cw ? DB_PER_NEPER_POWER * smallSignalExponent(w, 1, cfg.detuningMHz) : null
       out.push({ kind: 'gainSlope', metricKey: key, result: fitSmallSignalGainSlope(x, y), nominalSlopeDbPerW: nominal })
     }
   })

@@ -5,8 +5,9 @@ import { formatValue, unitSuffix } from './sweep-format'
 
 export type ImageType = 'png' | 'svg'
 
-const toolbox = (name: string, type: ImageType) => ({
-  right: 8,
+// Line charts put it bottom right, clear of the legend's row (which needs the full width on a phone).
+const toolbox = (name: string, type: ImageType, place: Record<string, number> = { right: 4, bottom: 0 }) => ({
+  ...place,
   feature: { saveAsImage: { name, type, title: `Save as ${type.toUpperCase()}`, pixelRatio: 2 } },
 })
 
@@ -21,7 +22,7 @@ export function lineOption(s: SweepDetail, metrics: MetricColumn[], type: ImageT
     animation: false,
     toolbox: toolbox(fileName(s), type),
     tooltip: { trigger: 'axis', valueFormatter: (v: number | null) => formatValue(v) },
-    legend: { top: 0, left: 8, right: 60, type: 'scroll' },
+    legend: { top: 0, left: 8, right: 8, type: 'scroll' },
     grid: { left: 64, right: 40 + Math.max(0, units.length - 1) * 64, top: 48, bottom: 52 },
     xAxis: {
       type: axis.values.kind === 'log' ? 'log' : 'value',
@@ -66,7 +67,7 @@ export function heatmapOption(s: SweepDetail, metric: MetricColumn, type: ImageT
   const finite = data.map((d) => d[2]).filter((x): x is number => typeof x === 'number')
   return {
     animation: false,
-    toolbox: toolbox(fileName(s), type),
+    toolbox: toolbox(fileName(s), type, { right: 8 }),
     tooltip: {
       formatter: (p: { data: [number, number, number | string] }) =>
         `${axisLabel(s.axes[0])}: ${formatValue(v0[p.data[1]])}<br>${axisLabel(s.axes[1])}: ${formatValue(v1[p.data[0]])}<br>` +
