@@ -30,7 +30,7 @@ export function engineProblem(choice: EngineChoice, m: Model): string | null {
 
 interface Exports {
   sveaStep(uRe: number, uIm: number, vRe: number, vIm: number, bRe: number, bIm: number, nz: number, K: number, c: number, Er: number, Ei: number, h: number): void
-  sveaKerrStep(uRe: number, uIm: number, vRe: number, vIm: number, bRe: number, bIm: number, nz: number, K: number, exchangePerB: number, Er: number, Ei: number, h: number, kp: number, ks: number, kerrHalfPump: number, kerrHalfStokes: number, scratch: number): void
+  sveaKerrStep(uRe: number, uIm: number, vRe: number, vIm: number, bRe: number, bIm: number, nz: number, K: number, exchangePerB: number, Er: number, Ei: number, h: number, kp: number, ks: number, kerrHalfPump: number, kerrHalfStokes: number): void
   transport(uRe: number, uIm: number, vRe: number, vIm: number, nz: number, loss: number): void
 }
 
@@ -50,9 +50,8 @@ function engineModule(): object {
 }
 
 const PAGE_BYTES = 65536
-/** The first page is left to the module (its stack and static data, none today), but for 16 bytes of scratch at its end. */
+/** The first page is left to the module (its stack and static data, none today). */
 const BASE_BYTES = PAGE_BYTES
-const SCRATCH_AT = PAGE_BYTES - 16
 
 export class WasmSveaEngine {
   readonly state: FieldState
@@ -71,7 +70,7 @@ export class WasmSveaEngine {
     this.fn = new wasm.Instance(engineModule(), { env: { memory } }).exports as unknown as Exports
     this.at = [0, 1, 2, 3, 4, 5].map((i) => BASE_BYTES + i * stride)
     const view = (i: number) => new Float64Array(memory.buffer, this.at[i], n)
-    // wRe, wIm and the general kernel's scratch are not used on this path: the ordinary (small) arrays.
+    // wRe, wIm and the general kernel's scratch are not used on this path: empty.
     const none = new Float64Array(0)
     this.state = { uRe: view(0), uIm: view(1), vRe: view(2), vIm: view(3), bRe: view(4), bIm: view(5), wRe: none, wIm: none, scratch: none }
   }
@@ -81,7 +80,7 @@ export class WasmSveaEngine {
     const m = this.m
     const a = this.at
     if (this.kerr) {
-      this.fn.sveaKerrStep(a[0], a[1], a[2], a[3], a[4], a[5], m.nz, m.driveK, m.exchangePerB, m.svea.eRe, m.svea.eIm, m.dtS, m.kappaP, m.rates.kappa, m.kerrHalfPump, m.kerrHalfStokes, SCRATCH_AT)
+      this.fn.sveaKerrStep(a[0], a[1], a[2], a[3], a[4], a[5], m.nz, m.driveK, m.exchangePerB, m.svea.eRe, m.svea.eIm, m.dtS, m.kappaP, m.rates.kappa, m.kerrHalfPump, m.kerrHalfStokes)
       return
     }
     this.fn.sveaStep(a[0], a[1], a[2], a[3], a[4], a[5], m.nz, m.driveK, m.exchangePerB, m.svea.eRe, m.svea.eIm, m.dtS)

@@ -133,25 +133,13 @@ export function transport(uRe: usize, uIm: usize, vRe: usize, vIm: usize, nz: i3
   }
 }
 
-// @ts-ignore: decorator
-@inline
-function cayley2(phi: v128, re: v128, im: v128, quarter: v128, one: v128, outIm: usize): v128 {
-  // Multiply (re, im) by (1 − q + iφ)/(1 + q), q = φ²/4, in the reference's order; returns re, stores im.
-  const q = f64x2.mul(f64x2.mul(quarter, phi), phi)
-  const den = f64x2.add(one, q)
-  const cr = f64x2.div(f64x2.sub(one, q), den)
-  const ci = f64x2.div(phi, den)
-  v128.store(outIm, f64x2.add(f64x2.mul(cr, im), f64x2.mul(ci, re)))
-  return f64x2.sub(f64x2.mul(cr, re), f64x2.mul(ci, im))
-}
-
 /*
  * The single-channel SVEA step with Kerr phases: `interactSveaKerr` of solver/steppers/svea-kerr-kernel.ts
- * (the general kernel's order, equations there), two nodes at a time. `scratch` is 16 bytes of this memory.
+ * (the general kernel's order, equations there), two nodes at a time.
  */
 // @ts-ignore: decorator
 @inline
-function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, j0: i32, j1: i32, weight: f64, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64, scratch: usize): void {
+function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, j0: i32, j1: i32, weight: f64, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64): void {
   const hh = 0.5 * h
   const c = exchangePerB * weight
   const fp = kerrHalfPump * weight
@@ -190,10 +178,23 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     let pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)))
     let ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(vr, vr), f64x2.mul(vi, vi)))
     let total = f64x2.add(pp, ps)
-    ur = cayley2(f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp)), ur, ui, vQuarter, vOne, scratch)
-    ui = v128.load(scratch)
-    vr = cayley2(f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps)), vr, vi, vQuarter, vOne, scratch)
-    vi = v128.load(scratch)
+    // A ← A·(1 − q + iφ)/(1 + q), q = φ²/4: cr = (1 − q)/(1 + q), ci = φ/(1 + q), in the reference's order.
+    let phi = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
+    let q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
+    let cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
+    let ci = f64x2.div(phi, f64x2.add(vOne, q))
+    let xr = f64x2.sub(f64x2.mul(cr, ur), f64x2.mul(ci, ui))
+    let xi = f64x2.add(f64x2.mul(cr, ui), f64x2.mul(ci, ur))
+    ur = xr
+    ui = xi
+    phi = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
+    q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
+    cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
+    ci = f64x2.div(phi, f64x2.add(vOne, q))
+    xr = f64x2.sub(f64x2.mul(cr, vr), f64x2.mul(ci, vi))
+    xi = f64x2.add(f64x2.mul(cr, vi), f64x2.mul(ci, vr))
+    vr = xr
+    vi = xi
     // Exchange with b̄ frozen.
     const betaR = f64x2.mul(vC, bbr)
     const betaI = f64x2.mul(vC, bbi)
@@ -208,12 +209,22 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(eur, eur), f64x2.mul(eui, eui)))
     ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(evr, evr), f64x2.mul(evi, evi)))
     total = f64x2.add(pp, ps)
-    const nur = cayley2(f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp)), eur, eui, vQuarter, vOne, uIm + o)
+    phi = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
+    q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
+    cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
+    ci = f64x2.div(phi, f64x2.add(vOne, q))
+    const nur = f64x2.sub(f64x2.mul(cr, eur), f64x2.mul(ci, eui))
+    const nui = f64x2.add(f64x2.mul(cr, eui), f64x2.mul(ci, eur))
+    phi = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
+    q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
+    cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
+    ci = f64x2.div(phi, f64x2.add(vOne, q))
+    const nvr = f64x2.sub(f64x2.mul(cr, evr), f64x2.mul(ci, evi))
+    const nvi = f64x2.add(f64x2.mul(cr, evi), f64x2.mul(ci, evr))
     v128.store(uRe + o, nur)
-    const nui = v128.load(uIm + o)
-    const nvr = cayley2(f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps)), evr, evi, vQuarter, vOne, vIm + o)
+    v128.store(uIm + o, nui)
     v128.store(vRe + o, nvr)
-    const nvi = v128.load(vIm + o)
+    v128.store(vIm + o, nvi)
     // Corrector: b ← E(b + h/2·D0) + h/2·D1.
     const d1r = f64x2.mul(vNegK, f64x2.sub(f64x2.mul(nui, nvr), f64x2.mul(nur, nvi)))
     const d1i = f64x2.mul(vK, f64x2.add(f64x2.mul(nur, nvr), f64x2.mul(nui, nvi)))
@@ -292,12 +303,9 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
   }
 }
 
-/**
- * One interaction step of a single-channel SVEA grid with Kerr phases, nodes 0..nz (facets weight ½).
- * `scratch` is the byte address of 16 free bytes (the driver's first page).
- */
-export function sveaKerrStep(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, nz: i32, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64, scratch: usize): void {
-  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 0, 0, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes, scratch)
-  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 1, nz - 1, 1.0, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes, scratch)
-  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, nz, nz, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes, scratch)
+/** One interaction step of a single-channel SVEA grid with Kerr phases, nodes 0..nz (facets weight ½). */
+export function sveaKerrStep(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, nz: i32, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64): void {
+  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 0, 0, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes)
+  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 1, nz - 1, 1.0, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes)
+  exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, nz, nz, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes)
 }
