@@ -59,10 +59,14 @@ export const PLAIN_FIELDS = 1
  */
 export const SPEED_FACTOR_WAVE_NETWORK = 0.3
 
-/** Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or off (solver/engine/wasm-engine.ts). */
+/**
+ * Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or
+ * off, a uniform waveguide (a longitudinal profile has its own kernel) (solver/engine/wasm-engine.ts).
+ */
 export function wasmEngineCovers(config: SimulationConfig): boolean {
   const o = config.options
-  return config.channels.length === 1 && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.noise.enabled
+  const uniform = (config.waveguide.profile?.segments.length ?? 0) === 0
+  return config.channels.length === 1 && uniform && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.noise.enabled
 }
 
 /** Optical waves and acoustic fields a run integrates per cell (shared/physics/wave-set.ts). */

@@ -93,6 +93,7 @@ describe('engine choice', () => {
   const noise = chipConfig({ windowNs: 3, grid: cells(41), channels: [crossing], options: { noise: { enabled: true, temperatureK: 300, seed: 5 } } })
   const higherOrder = chipConfig({ windowNs: 3, grid: cells(41), waveguide: { brillouinShiftGHz: 1 }, channels: [crossing], options: { higherOrderAcoustic: true } })
   const twoChannels = chipConfig({ windowNs: 3, grid: cells(41), channels: [crossing, { offsetGHz: 0.6, pump: { backgroundPowerW: 0.3 } }] })
+  const profiled = chipConfig({ windowNs: 3, grid: cells(41), waveguide: { profile: { segments: [{ startM: 0.02, endM: 0.03, shiftOffsetMHz: 20 }] } }, channels: [crossing] })
 
   it('automatic: the engine where it covers the options (one channel, SVEA, no noise; Kerr on or off)', () => {
     expect(run(plain).engine).toBe('wasm')
@@ -102,7 +103,7 @@ describe('engine choice', () => {
   })
 
   it('the resource estimate counts the engine exactly for the runs the solver gives it', () => {
-    for (const c of [plain, kerr, noise, higherOrder, twoChannels, ...Object.values(CASES)]) expect(wasmEngineCovers(c), JSON.stringify(c.options)).toBe(run(c).engine === 'wasm')
+    for (const c of [plain, kerr, noise, higherOrder, twoChannels, profiled, ...Object.values(CASES)]) expect(wasmEngineCovers(c), JSON.stringify(c.options)).toBe(run(c).engine === 'wasm')
     expect(estimateResources(plain, planGrid(plain)).cellUpdatesPerS).toBe(CELL_UPDATES_PER_S_SVEA * SPEED_FACTOR_WASM_ENGINE)
     expect(estimateResources(twoChannels, planGrid(twoChannels)).cellUpdatesPerS).toBe(CELL_UPDATES_PER_S_SVEA)
   })
