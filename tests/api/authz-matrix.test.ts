@@ -9,10 +9,11 @@ import { TEST_JWT_SECRET } from './auth-helpers'
 import { accountRows } from './authz-matrix.accounts'
 import { waveguideRows } from './authz-matrix.waveguides'
 import { traceRows } from './authz-matrix.traces'
+import { sensingRows } from './authz-matrix.sensing'
 import { ACTORS, buildFixture, headersFor, type MatrixRowSet } from './authz-matrix.fixture'
 import { silentLog, useTestDb } from './helpers'
 
-const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows, traceRows]
+const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows, traceRows, sensingRows]
 
 const { db, pool } = useTestDb()
 const app = createApp({
