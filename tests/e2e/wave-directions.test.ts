@@ -53,6 +53,9 @@ describe('waves in both directions in the form', () => {
     // G = η g/A_eff = 2e-10/2.3e-12 = 86.96 1/(W m) on the chip preset (A_eff = 2.3 µm², η = 1): a figure, not a dash.
     expect(await derived.locator('tr[data-quantity="backwardResonance1GainParameter"] td').first().innerText()).toMatch(/^86\.9/)
     expect(await derived.locator('tr[data-quantity="isolationEstimateDb"]').isVisible()).toBe(true)
+    // The estimate counts pump, Stokes and probe, and one acoustic field per backward resonance.
+    const estimate = page.getByRole('table', { name: 'Resource estimate' })
+    expect(await estimate.locator('tr', { hasText: 'Optical waves and acoustic fields per cell' }).locator('td').innerText()).toBe('3 + 2')
     // The probe carries the Stokes input's two pulses.
     const probe = page.getByRole('region', { name: 'Co-propagating probe input' })
     expect(await probe.getByRole('list', { name: 'Co-propagating probe pulses' }).locator(':scope > li').count()).toBe(2)
