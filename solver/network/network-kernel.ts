@@ -15,6 +15,8 @@
  *     weight, P at full weight, then P−1 … 1 at half weight (Strang symmetric, so second order; one process is
  *     one rotation, the plain kernel's). Each rotation keeps |a_h|² + |a_l|²: total photon flux is kept to
  *     round-off (Manley–Rowe; Boyd, Nonlinear Optics).
+ *     With Kerr on, self- and cross-phase half steps before and after the exchange: wave w turns by
+ *     γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7), in Cayley form.
  *  3. Corrector from the exchanged waves: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  *  Node weight: 1 inside, ½ at the two facets (trapezoid along every characteristic).
  */
@@ -30,12 +32,14 @@ export interface NetworkState {
   dIm: Float64Array[]
   mRe: Float64Array[]
   mIm: Float64Array[]
+  /** Total power per node, for the Kerr phases. */
+  total: Float64Array
 }
 
 export function allocateNetworkState(m: NetworkModel): NetworkState {
   const arrays = (n: number) => Array.from({ length: n }, () => new Float64Array(m.nodes))
   const W = m.waves.length, F = m.fields.length
-  return { aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F) }
+  return { aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F), total: new Float64Array(m.nodes) }
 }
 
 /** Sets (outRe, outIm) of every field to Σ_processes i·K·a_h a_l*·e^{−iθ} over nodes j0..j1. */
@@ -87,6 +91,28 @@ function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number
   }
 }
 
+/** Self- and cross-phase over half a step at nodes j0..j1: multiply by (1 + iφ/2)/(1 − iφ/2) (unit modulus). */
+function kerrHalfStep(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
+  const total = s.total
+  total.fill(0, j0, j1 + 1)
+  m.waves.forEach((w, k) => {
+    const re = s.aRe[k], im = s.aIm[k], ppf = w.powerPerFlux
+    for (let j = j0; j <= j1; j++) total[j] += ppf * (re[j] * re[j] + im[j] * im[j])
+  })
+  m.waves.forEach((w, k) => {
+    const re = s.aRe[k], im = s.aIm[k], ppf = w.powerPerFlux, g = w.kerrHalf * weight
+    for (let j = j0; j <= j1; j++) {
+      const r = re[j], x = im[j]
+      const phi = g * (2 * total[j] - ppf * (r * r + x * x))
+      const q = 0.25 * phi * phi
+      const cr = (1 - q) / (1 + q)
+      const ci = phi / (1 + q)
+      re[j] = cr * r - ci * x
+      im[j] = cr * x + ci * r
+    }
+  })
+}
+
 /** One interaction step at nodes j0..j1 of equal weight (array-wise per field and process: tight loops). */
 export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
   const F = m.fields.length
@@ -104,11 +130,13 @@ export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1
       mIm[j] = 0.5 * (bi + Er * ti + Ei * tr)
     }
   }
+  if (m.kerr) kerrHalfStep(m, s, j0, j1, weight)
   for (let k = 0; k < 2 * P - 1; k++) {
     const pi = k < P ? k : 2 * P - 2 - k
     const p = m.processes[pi]
     rotate(s, p, (pi === P - 1 ? 1 : 0.5) * weight * p.c, j0, j1)
   }
+  if (m.kerr) kerrHalfStep(m, s, j0, j1, weight)
   // b ← E(b + h/2·D₀) + h/2·D₁, with D₁ written over b̄ (no longer needed).
   sources(m, s, j0, j1, s.mRe, s.mIm)
   for (let f = 0; f < F; f++) {

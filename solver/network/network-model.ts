@@ -26,6 +26,8 @@ export interface NetworkWave {
   /** P = |a|²·powerPerFlux, with powerPerFlux = ω_w/ω_ref. */
   powerPerFlux: number
   sqrtPowerPerFlux: number
+  /** Kerr phase per unit power for a half step at a full-weight node, γ_w·v_g·Δt/2 (0 with Kerr off). */
+  kerrHalf: number
 }
 
 export interface NetworkField {
@@ -63,6 +65,7 @@ export interface NetworkModel {
   rates: BrillouinRates
   /** Amplitude loss per cell traversed, e^{−αΔz/2}. */
   lossPerCell: number
+  kerr: boolean
 }
 
 export function buildNetworkModel(config: SimulationConfig, grid: GridChoice): NetworkModel {
@@ -77,7 +80,10 @@ export function buildNetworkModel(config: SimulationConfig, grid: GridChoice): N
     // The first Stokes follows the ratio the plain model uses (its override is a bookkeeping test aid).
     const omega = w.key === 'stokes' ? omegaRef / rates.frequencyRatio : omegaRef + 2 * Math.PI * ghzToHz(w.offsetGHz)
     const powerPerFlux = omega / omegaRef
-    return { direction: w.direction, omegaRadPerS: omega, powerPerFlux, sqrtPowerPerFlux: Math.sqrt(powerPerFlux) }
+    // γ_w = n₂ω_w/(c A_eff); the first Stokes takes the plain model's value.
+    const gamma = w.key === 'stokes' ? rates.kerrStokesPerWM : rates.kerrPumpPerWM * (omega / omegaRef)
+    const kerrHalf = config.options.kerr ? 0.5 * gamma * vg * dtS : 0
+    return { direction: w.direction, omegaRadPerS: omega, powerPerFlux, sqrtPowerPerFlux: Math.sqrt(powerPerFlux), kerrHalf }
   })
   const aEff = um2ToM2(wg.effectiveAreaUm2)
   const fields: NetworkField[] = set.fields.map((f, fi) => {
@@ -105,5 +111,5 @@ export function buildNetworkModel(config: SimulationConfig, grid: GridChoice): N
     }
     return { higher: p.higher, lower: p.lower, field: p.field, c: kappa * Math.sqrt(wh / wl) * vg * dtS, K: (kappa * Math.sqrt(wh * wl)) / omegaRef, phaseRe, phaseIm }
   })
-  return { set, waves, fields, processes, nz, nodes, nt, dtS, dzM, rates, lossPerCell: Math.exp(-0.5 * rates.alphaPerM * dzM) }
+  return { set, waves, fields, processes, nz, nodes, nt, dtS, dzM, rates, lossPerCell: Math.exp(-0.5 * rates.alphaPerM * dzM), kerr: config.options.kerr }
 }

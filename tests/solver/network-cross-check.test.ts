@@ -58,4 +58,37 @@ describe('multi-wave solver on a plain configuration', () => {
     for (const key of ['retrievalEfficiency', 'retrievedPhaseRad'] as const) expect(Math.abs(b[key]! / a[key]! - 1)).toBeLessThan(1e-10)
     expect(b.leakThrough).toBe(a.leakThrough)
   })
+
+  it('with Kerr on: port traces equal the plain general kernel to 1e-12', () => {
+    const config = chipConfig({
+      windowNs: 4,
+      waveguide: { kerrN2M2PerW: 5e-18, lossDbPerM: 10 },
+      options: { kerr: true, errorEstimate: false },
+      channels: [{ pump: { pulses: [gaussian(2, 1.2, 0.2)], backgroundPowerW: 0.02 }, stokes: { pulses: [gaussian(0.5, 1.5, 0.2)], backgroundPowerW: 1e-3 } }],
+    })
+    const grid = planGrid(config)
+    const plain = new SimulationRun(config, grid, { engine: 'ts', forceGeneralKernel: true })
+    const net = new NetworkRun(config, grid)
+    plain.advance(grid.nt + 1)
+    net.advance(grid.nt + 1)
+    expect(maxRelDiff(plain.traces[0].pumpOut, net.traces[0].pumpOut)).toBeLessThan(1e-12)
+    expect(maxRelDiff(plain.traces[0].stokesOut, net.traces[0].stokesOut)).toBeLessThan(1e-12)
+  })
+
+  it('cross-phase of a co-propagating probe: 2γ_probe·P_p·L plus its own γ_probe·P_probe·L (Agrawal, Nonlinear Fiber Optics, ch. 7), to 1e-5', () => {
+    const config = chipConfig({
+      windowNs: 3,
+      waveguide: { kerrN2M2PerW: 5e-18, lossDbPerM: 0 },
+      options: { kerr: true, errorEstimate: false },
+      channels: [{ pump: { pulses: [], backgroundPowerW: 1 }, coProbe: { pulses: [], backgroundPowerW: 1e-3 } }],
+    })
+    const net = new NetworkRun(config, planGrid(config))
+    net.advance(net.net.nt + 1)
+    const k = net.net.set.waves.findIndex((w) => w.key === 'co_probe')
+    const out = net.waveOut[k], n = out.length / 2 - 1
+    const gammaProbe = (5e-18 * net.net.waves[k].omegaRadPerS) / (299_792_458 * 1e-12)
+    const expected = gammaProbe * (2 * 1 + 1e-3) * 0.05
+    expect(expected).toBeGreaterThan(1)
+    expect(Math.abs(Math.atan2(out[2 * n + 1], out[2 * n]) / expected - 1)).toBeLessThan(1e-5)
+  })
 })
