@@ -6,7 +6,9 @@
  * IEICE Trans. Electron. E83-C, 405). The width holds while the sound follows the beat's frequency swing,
  * f_m well below Δν_B: the solver's peaks are 0.87 of it for f_m ≤ 0.4 Δν_B and broaden past it above
  * (1.13 at f_m = 0.8 Δν_B, 1.53 at 1.2 Δν_B; tests/solver/correlation-peaks.test.ts and docs/model.md).
- * A broadband source of linewidth Δν localises the interaction over its correlation length v_g/(πΔν).
+ * A broadband source of linewidth Δν localises the interaction over its correlation length v_g/(πΔν): shared by
+ * pump and Stokes it gives one peak whose excess over a floor Δν_B/(Δν_B + 2Δν) has FWHM
+ * v_g ln 2/(π(Δν_B + 2Δν)) (the Wiener phase model, derived in docs/model.md).
  */
 import { SPEED_OF_LIGHT_M_PER_S } from './physical-constants'
 
@@ -34,4 +36,19 @@ export function correlationFigures(groupIndex: number, linewidthMHz: number, rat
 /** Correlation length v_g/(πΔν) of a broadband source (m). */
 export function broadbandCorrelationLengthM(groupIndex: number, linewidthMHz: number): number {
   return SPEED_OF_LIGHT_M_PER_S / groupIndex / (Math.PI * linewidthMHz * 1e6)
+}
+
+export interface BroadbandPeak {
+  /** FWHM of the peak's excess over the floor (m). */
+  widthM: number
+  /** Gain far from the peak over gain at the peak. */
+  floor: number
+}
+
+export function broadbandPeak(groupIndex: number, linewidthMHz: number, sourceLinewidthMHz: number): BroadbandPeak {
+  const vg = SPEED_OF_LIGHT_M_PER_S / groupIndex
+  return {
+    widthM: (vg * Math.LN2) / (Math.PI * (linewidthMHz + 2 * sourceLinewidthMHz) * 1e6),
+    floor: linewidthMHz / (linewidthMHz + 2 * sourceLinewidthMHz),
+  }
 }

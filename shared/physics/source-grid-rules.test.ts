@@ -3,7 +3,7 @@ import { chooseGrid } from './grid-step'
 import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
 import { describeIssuePath } from '../api/issue-path-labels'
 import { applySweepValue, fieldProblem, readSweepValue } from './sweep-fields'
-import { broadbandCorrelationLengthM, correlationFigures } from './correlation-figures'
+import { broadbandCorrelationLengthM, broadbandPeak, correlationFigures } from './correlation-figures'
 
 const waveguide = { name: 'test fibre', lengthM: 20, groupIndex: 1.468, effectiveAreaUm2: 80, gainCoefficientMPerW: 5e-11, brillouinShiftGHz: 10.85, linewidthMHz: 25, wavelengthNm: 1550 }
 const config = (port: Record<string, unknown>, extra: Partial<SimulationConfigInput> = {}): SimulationConfigInput => ({
@@ -99,6 +99,13 @@ describe('correlation figures shown in the form', () => {
   it('gives a broadband correlation length v_g/(πΔν)', () => {
     // v_g = c/1.5, Δν = 100 MHz: 199 861 638.7/(π · 10⁸) = 0.636179 m
     expect(broadbandCorrelationLengthM(1.5, 100)).toBeCloseTo(0.636179, 5)
+  })
+
+  it('gives the shared broadband source\'s peak: FWHM v_g ln 2/(π(Δν_B + 2Δν)) over a floor Δν_B/(Δν_B + 2Δν)', () => {
+    // v_g = c/1.5, Δν_B = 30 MHz, Δν = 135 MHz: 199 861 638.7 · 0.693147/(π · 300 MHz) = 0.146989 m; floor 0.1
+    const p = broadbandPeak(1.5, 30, 135)
+    expect(p.widthM).toBeCloseTo(0.146989, 5)
+    expect(p.floor).toBeCloseTo(0.1, 12)
   })
 })
 

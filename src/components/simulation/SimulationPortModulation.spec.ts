@@ -70,5 +70,8 @@ describe('SimulationPortModulation', () => {
     expect(port.value.broadband).toEqual({ linewidthMHz: 100, seed: 1 })
     // v_g/(π·100 MHz) = 0.650 m
     expect(wrapper.text()).toContain('Correlation length v_g/(πΔν) = 650 mm')
+    // v_g ln 2/(π(25 + 200) MHz) = 200.3 mm; floor 25/225 = 11 %
+    expect(wrapper.text()).toContain('one correlation peak about 200 mm wide')
+    expect(wrapper.text()).toContain('gain floor of 11 % of the peak')
   })
 })

@@ -1,7 +1,7 @@
 // Editing helpers for a port's source: which kind of modulation it has, switching kinds, and the derived figures
 // the form shows beside the fields.
 import { modulationIndex } from '@shared/physics/source-modulation'
-import { broadbandCorrelationLengthM, correlationFigures } from '@shared/physics/correlation-figures'
+import { broadbandCorrelationLengthM, broadbandPeak, correlationFigures } from '@shared/physics/correlation-figures'
 import { formatLengthM, formatNumber } from './format'
 import type { PortDraft } from './pulse-drafts'
 
@@ -55,8 +55,12 @@ export function modulationFigures(port: PortDraft, waveguide: { groupIndex?: num
   if (port.broadband) {
     const { linewidthMHz } = port.broadband
     if (!usable(linewidthMHz)) return ['Enter a linewidth above 0 to see the derived figures.']
-    if (!usable(waveguide.groupIndex)) return ['Complete the waveguide (group index) to see the correlation length.']
-    return [`Correlation length v_g/(πΔν) = ${formatLengthM(broadbandCorrelationLengthM(waveguide.groupIndex, linewidthMHz))}.`]
+    if (!haveGuide) return ['Complete the waveguide (group index, linewidth) to see the correlation length.']
+    const peak = broadbandPeak(waveguide.groupIndex!, waveguide.linewidthMHz!, linewidthMHz)
+    return [
+      `Correlation length v_g/(πΔν) = ${formatLengthM(broadbandCorrelationLengthM(waveguide.groupIndex!, linewidthMHz))}.`,
+      `With the same source (seed and linewidth) on the other input: one correlation peak about ${formatLengthM(peak.widthM)} wide (v_g ln 2/(π(Δν_B + 2Δν))), over a gain floor of ${formatNumber(peak.floor * 100, 2)} % of the peak.`,
+    ]
   }
   return []
 }
