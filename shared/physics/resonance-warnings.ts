@@ -36,14 +36,14 @@ export function resonanceAdvisories(q: ResonanceQuantities, cfg: SimulationConfi
       })
     }
     // Stokes and anti-Stokes share one acoustic field; while |Δk| is below the gain rate the anti-Stokes
-    // process takes back what the Stokes process gives, and the forward Stokes grows far less than
+    // process takes back what the Stokes process gives, and the forward Stokes grows less than
     // exp(G_F P L_eff) (Bloembergen & Shen, Phys. Rev. Lett. 12, 504, 1964, for Raman; cited from memory).
     const rate = fig ? fig.gainParameterPerWM * pumpPowerW : 0
     if (cfg.options.forwardAntiStokes && rate > 0 && Math.abs(f.antiStokesMismatchPerM) < rate) {
       out.push({
         code: 'forward-gain-suppression',
         severity: 'info',
-        message: `Forward resonance ${i + 1}: the anti-Stokes mismatch |Δk| = ${sig(Math.abs(f.antiStokesMismatchPerM))} 1/m is below the gain rate G_F P = ${sig(rate)} 1/m, so Stokes and anti-Stokes draw on one acoustic field and the forward Stokes grows much less than the small-signal estimate.`,
+        message: `Forward resonance ${i + 1}: the anti-Stokes mismatch |Δk| = ${sig(Math.abs(f.antiStokesMismatchPerM))} 1/m is below the gain rate G_F P = ${sig(rate)} 1/m, so Stokes and anti-Stokes draw on one acoustic field and the forward Stokes grows less than the small-signal estimate (least at Δk = 0).`,
       })
     }
   })
