@@ -23,7 +23,6 @@ export function waveSetIssues(c: SimulationConfig): ConfigIssue[] {
   if (!usesWaveNetwork(c)) return issues
   if (c.channels.length > 1) issues.push({ path: ['channels', 1], message: `${WHAT} work with one channel: remove the other channels or these options` })
   if (c.options.higherOrderAcoustic) issues.push({ path: ['options', 'higherOrderAcoustic'], message: `${WHAT} use the slowly-varying acoustic equation: turn the higher-order acoustic term off` })
-  if (c.options.noise.enabled) issues.push({ path: ['options', 'noise', 'enabled'], message: `${WHAT} are computed without thermal noise: turn noise off (seed the further waves with a small input instead)` })
   if (c.options.acousticAdvection) issues.push({ path: ['options', 'acousticAdvection'], message: `${WHAT} do not include acoustic advection: turn it off` })
   return issues
 }

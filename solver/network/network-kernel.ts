@@ -18,8 +18,13 @@
  *     With Kerr on, self- and cross-phase half steps before and after the exchange: wave w turns by
  *     γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7), in Cayley form.
  *  3. Corrector from the exchanged waves: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
+ *  Thermal noise (when on), per field as the plain kernel (steppers/general-kernel.ts): the exact
+ *  Ornstein–Uhlenbeck kick x enters b̃ and the corrected b, and an independent draw gives b̄ its full variance;
+ *  facet nodes get twice the variance (half cells). Draws in field order, then node order.
  *  Node weight: 1 inside, ½ at the two facets (trapezoid along every characteristic).
  */
+import type { NormalSource } from '../steppers/seeded-random'
+import { noiseWeight } from '../steppers/general-kernel'
 import type { NetworkModel } from './network-model'
 
 export interface NetworkState {
@@ -34,12 +39,15 @@ export interface NetworkState {
   mIm: Float64Array[]
   /** Total power per node, for the Kerr phases. */
   total: Float64Array
+  /** Per field and node: the step's noise kick (empty with noise off). */
+  xRe: Float64Array[]
+  xIm: Float64Array[]
 }
 
 export function allocateNetworkState(m: NetworkModel): NetworkState {
   const arrays = (n: number) => Array.from({ length: n }, () => new Float64Array(m.nodes))
   const W = m.waves.length, F = m.fields.length
-  return { aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F), total: new Float64Array(m.nodes) }
+  return { aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F), total: new Float64Array(m.nodes), xRe: m.noise ? arrays(F) : [], xIm: m.noise ? arrays(F) : [] }
 }
 
 /** Sets (outRe, outIm) of every field to Σ_processes i·K·a_h a_l*·e^{−iθ} over nodes j0..j1. */
@@ -114,7 +122,7 @@ function kerrHalfStep(m: NetworkModel, s: NetworkState, j0: number, j1: number, 
 }
 
 /** One interaction step at nodes j0..j1 of equal weight (array-wise per field and process: tight loops). */
-export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
+export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number, rng: NormalSource | null = null): void {
   const F = m.fields.length
   const P = m.processes.length
   const h = m.dtS
@@ -128,6 +136,20 @@ export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1
       const tr = br + h * dRe[j], ti = bi + h * dIm[j]
       mRe[j] = 0.5 * (br + Er * tr - Ei * ti)
       mIm[j] = 0.5 * (bi + Er * ti + Ei * tr)
+    }
+    if (rng !== null) {
+      // b̃ += x, so b̄ += x/2, plus the mean's own draw.
+      const sd = m.fields[f].noiseKickRms * Math.SQRT1_2 * noiseWeight(weight)
+      const sdMean = m.fields[f].noiseMeanRms * Math.SQRT1_2 * noiseWeight(weight)
+      const xRe = s.xRe[f], xIm = s.xIm[f]
+      for (let j = j0; j <= j1; j++) {
+        const xr = sd * rng.normal(), xi = sd * rng.normal()
+        xRe[j] = xr
+        xIm[j] = xi
+        const yr = sdMean * rng.normal(), yi = sdMean * rng.normal()
+        mRe[j] = 0.5 * (bRe[j] + (Er * (bRe[j] + h * dRe[j]) - Ei * (bIm[j] + h * dIm[j]) + xr)) + yr
+        mIm[j] = 0.5 * (bIm[j] + (Er * (bIm[j] + h * dIm[j]) + Ei * (bRe[j] + h * dRe[j]) + xi)) + yi
+      }
     }
   }
   if (m.kerr) kerrHalfStep(m, s, j0, j1, weight)
@@ -146,6 +168,10 @@ export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1
       const sr = bRe[j] + hh * dRe[j], si = bIm[j] + hh * dIm[j]
       bRe[j] = Er * sr - Ei * si + hh * mRe[j]
       bIm[j] = Er * si + Ei * sr + hh * mIm[j]
+    }
+    if (rng !== null) {
+      const xRe = s.xRe[f], xIm = s.xIm[f]
+      for (let j = j0; j <= j1; j++) (bRe[j] += xRe[j]), (bIm[j] += xIm[j])
     }
   }
 }

@@ -13,7 +13,7 @@
  * polarisation A_p b carries e^{i(2β_p − β_s)z} against the anti-Stokes carrier e^{iβ_as z}, which leaves
  * e^{−iΔk z} on the higher (anti-Stokes) row. Every other process is phase matched (θ = 0).
  */
-import { REDUCED_PLANCK_J_S } from '@shared/physics/physical-constants'
+import { BOLTZMANN_J_PER_K, REDUCED_PLANCK_J_S } from '@shared/physics/physical-constants'
 import { brillouinRates, type BrillouinRates, type GridChoice } from '@shared/physics/grid-step'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { ghzToHz, mhzToHz, um2ToM2 } from '@shared/physics/units'
@@ -37,6 +37,12 @@ export interface NetworkField {
   svea: SveaPropagator
   /** ħω of the lower wave of the field's first process: |b|²/phononJ is phonons per metre. */
   phononJ: number
+  /** Thermal noise (0 when off), as the plain model (problem/coupled-modes.ts) with this field's own Ω, Γ, ħω:
+   *  rms of b per node √(ħω n/Δz), of the Ornstein–Uhlenbeck kick √(ħω n/Δz·(1 − e^{−ΓΔt})), and of the
+   *  extra draw that gives the step mean b̄ its full variance √(ħω n/Δz·(1 − Re E)/2). */
+  thermalRms: number
+  noiseKickRms: number
+  noiseMeanRms: number
 }
 
 export interface NetworkProcess {
@@ -66,6 +72,7 @@ export interface NetworkModel {
   /** Amplitude loss per cell traversed, e^{−αΔz/2}. */
   lossPerCell: number
   kerr: boolean
+  noise: boolean
 }
 
 export function buildNetworkModel(config: SimulationConfig, grid: GridChoice): NetworkModel {
@@ -92,7 +99,22 @@ export function buildNetworkModel(config: SimulationConfig, grid: GridChoice): N
     const detuning = 2 * Math.PI * mhzToHz(f.detuningMHz)
     const first = set.processes.find((p) => p.field === fi)
     const lower = first ? waves[first.lower].omegaRadPerS : rates.omegaStokesRadPerS
-    return { gammaPerS: gamma, detuningRadPerS: detuning, kappa: 0.5 * Math.sqrt(gain * gamma), svea: sveaPropagator(gamma, detuning, dtS), phononJ: REDUCED_PLANCK_J_S * lower }
+    const phononJ = REDUCED_PLANCK_J_S * lower
+    const svea = sveaPropagator(gamma, detuning, dtS)
+    const noise = config.options.noise
+    // Bose occupation of the field's own resonance; n_th + 1 with the zero-point term.
+    const nTh = noise.enabled ? 1 / Math.expm1((REDUCED_PLANCK_J_S * 2 * Math.PI * ghzToHz(f.resonanceGHz)) / (BOLTZMANN_J_PER_K * noise.temperatureK)) : 0
+    const variance = (phononJ * (noise.enabled && noise.zeroPoint ? nTh + 1 : nTh)) / dzM
+    return {
+      gammaPerS: gamma,
+      detuningRadPerS: detuning,
+      kappa: 0.5 * Math.sqrt(gain * gamma),
+      svea,
+      phononJ,
+      thermalRms: Math.sqrt(variance),
+      noiseKickRms: Math.sqrt(variance * -Math.expm1(-gamma * dtS)),
+      noiseMeanRms: Math.sqrt((variance * (1 - svea.eRe)) / 2),
+    }
   })
   const processes: NetworkProcess[] = set.processes.map((p) => {
     const wh = waves[p.higher].omegaRadPerS
@@ -111,5 +133,5 @@ export function buildNetworkModel(config: SimulationConfig, grid: GridChoice): N
     }
     return { higher: p.higher, lower: p.lower, field: p.field, c: kappa * Math.sqrt(wh / wl) * vg * dtS, K: (kappa * Math.sqrt(wh * wl)) / omegaRef, phaseRe, phaseIm }
   })
-  return { set, waves, fields, processes, nz, nodes, nt, dtS, dzM, rates, lossPerCell: Math.exp(-0.5 * rates.alphaPerM * dzM), kerr: config.options.kerr }
+  return { set, waves, fields, processes, nz, nodes, nt, dtS, dzM, rates, lossPerCell: Math.exp(-0.5 * rates.alphaPerM * dzM), kerr: config.options.kerr, noise: config.options.noise.enabled }
 }

@@ -11,6 +11,8 @@ import { preRunWarnings } from '../observers/warnings'
 import { buildModel, type Model } from '../problem/coupled-modes'
 import { planStorageReference, type ReferencePlan } from '../storage-reference'
 import type { FieldState } from '../steppers/interaction-kernel'
+import { noiseWeight } from '../steppers/general-kernel'
+import { SeededRandom } from '../steppers/seeded-random'
 import { allocateNetworkState, interactNetwork, type NetworkState } from './network-kernel'
 import { buildNetworkModel, type NetworkModel } from './network-model'
 import { pairResidualNote, waveFigures } from './wave-figures-observer'
@@ -42,6 +44,7 @@ export class NetworkRun {
   private reference: NetworkRun | null = null
   /** A companion keeps no maps: only its port traces are read. */
   private keepMaps = true
+  private readonly rng: SeededRandom | null
   /** What the maps read: pump, first Stokes and the phonon density of all fields together. */
   private readonly mapView: FieldState
 
@@ -64,6 +67,8 @@ export class NetworkRun {
     for (let n = 0; n <= m.nt; n++) this.timeNs[n] = n * m.dtS * 1e9
     this.zM = new Float64Array(m.nodes)
     for (let j = 0; j < m.nodes; j++) this.zM[j] = j * m.dzM
+    this.rng = config.options.noise.enabled ? new SeededRandom(config.options.noise.seed) : null
+    if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
   }
@@ -110,6 +115,8 @@ export class NetworkRun {
     const copy = (from: Float64Array[], to: Float64Array[]) => from.forEach((a, k) => to[k].set(a))
     copy(this.wave.aRe, c.wave.aRe), copy(this.wave.aIm, c.wave.aIm), copy(this.wave.bRe, c.wave.bRe), copy(this.wave.bIm, c.wave.bIm)
     this.waveOut.forEach((t, k) => c.waveOut[k].set(t.subarray(0, 2 * this.n)))
+    // Same draws from here on, so the thermal noise cancels in the difference of the two runs.
+    if (this.rng && c.rng) c.rng.copyFrom(this.rng)
     c.n = this.n
     return c
   }
@@ -121,9 +128,10 @@ export class NetworkRun {
     const end = Math.min(m.nt + 1, endN)
     const nz = m.nz
     for (let n = start; n < end; n++) {
-      interactNetwork(m, s, 0, 0, 0.5)
-      interactNetwork(m, s, 1, nz - 1, 1)
-      interactNetwork(m, s, nz, nz, 0.5)
+      // Node order 0, 1..nz−1, nz: the order of the random draws, as in the plain run.
+      interactNetwork(m, s, 0, 0, 0.5, this.rng)
+      interactNetwork(m, s, 1, nz - 1, 1, this.rng)
+      interactNetwork(m, s, nz, nz, 0.5, this.rng)
       m.waves.forEach((w, k) => {
         const j = w.direction === 1 ? nz : 0
         this.waveOut[k][2 * n] = w.sqrtPowerPerFlux * s.aRe[k][j]
@@ -136,6 +144,18 @@ export class NetworkRun {
       }
     }
     this.n = Math.max(this.n, end)
+  }
+
+  /** Thermal initial state of every field, ⟨|b|²⟩ = ħω n/(wΔz) with w = ½ at the facets (as the plain run). */
+  private thermalStart(rng: SeededRandom): void {
+    const m = this.net
+    m.fields.forEach((f, k) => {
+      for (let j = 0; j < m.nodes; j++) {
+        const sd = f.thermalRms * Math.SQRT1_2 * noiseWeight(j === 0 || j === m.nz ? 0.5 : 1)
+        this.wave.bRe[k][j] = sd * rng.normal()
+        this.wave.bIm[k][j] = sd * rng.normal()
+      }
+    })
   }
 
   private recordMaps(n: number): void {

@@ -91,4 +91,23 @@ describe('multi-wave solver on a plain configuration', () => {
     expect(expected).toBeGreaterThan(1)
     expect(Math.abs(Math.atan2(out[2 * n + 1], out[2 * n]) / expected - 1)).toBeLessThan(1e-5)
   })
+
+  it('with thermal noise on: the same draws give port traces and final b equal to the plain general kernel to 1e-12', () => {
+    const config = chipConfig({
+      windowNs: 3,
+      options: { noise: { enabled: true, temperatureK: 300, seed: 11 }, errorEstimate: false },
+      channels: [{ pump: { pulses: [], backgroundPowerW: 0.5 } }],
+    })
+    const grid = planGrid(config)
+    const plain = new SimulationRun(config, grid, { engine: 'ts' })
+    const net = new NetworkRun(config, grid)
+    plain.advance(grid.nt + 1)
+    net.advance(grid.nt + 1)
+    // Spontaneous Stokes light from the thermal grating: a non-trivial output to compare.
+    expect(Math.max(...plain.traces[0].stokesOut.map(Math.abs))).toBeGreaterThan(0)
+    expect(maxRelDiff(plain.traces[0].stokesOut, net.traces[0].stokesOut)).toBeLessThan(1e-12)
+    expect(maxRelDiff(plain.traces[0].pumpOut, net.traces[0].pumpOut)).toBeLessThan(1e-12)
+    const joined = (re: Float64Array, im: Float64Array) => Float64Array.from([...re, ...im])
+    expect(maxRelDiff(joined(plain.state.bRe, plain.state.bIm), joined(net.state.bRe, net.state.bIm))).toBeLessThan(1e-12)
+  })
 })
