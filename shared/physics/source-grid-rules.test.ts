@@ -122,3 +122,13 @@ describe('limits of a source', () => {
     expect(broad.error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['channels.0.pump.broadband.linewidthMHz', expect.stringMatching(/a tenth of the Brillouin shift \(1085 MHz\)/)]])
   })
 })
+
+describe('sources on the further inputs of a channel', () => {
+  it('takes a co-propagating probe’s modulation into the grid and its limits', () => {
+    const withProbe = (modulation: Record<string, number>) => ({ ...config({}), channels: [{ pump: { backgroundPowerW: 0.01 }, stokes: { backgroundPowerW: 0.001 }, coProbe: { backgroundPowerW: 0.001, modulation } }] })
+    const g = chooseGrid(SimulationConfig.parse(withProbe({ rateMHz: 10, excursionMHz: 990 })))
+    expect(g.binding.field).toBe('channels.0.coProbe.modulation.excursionMHz')
+    const wide = SimulationConfig.safeParse(withProbe({ rateMHz: 30, excursionMHz: 5400 }))
+    expect(wide.error!.issues.map((i) => i.path.join('.'))).toEqual(['channels.0.coProbe.modulation.excursionMHz'])
+  })
+})

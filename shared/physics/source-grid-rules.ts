@@ -13,7 +13,8 @@
  * 1/(2Δt) (the tail fraction ≈ 2ΔνΔt/π) and folds back.
  */
 import type { BroadbandSource, FrequencyModulation } from './source-modulation'
-import type { SimulationConfig } from './simulation-config'
+import type { Channel, SimulationConfig } from './simulation-config'
+import type { PortInput } from './pulse'
 
 export const SOURCE_GRID_RULES = {
   /** Automatic grid: samples per Carson bandwidth. */
@@ -35,6 +36,17 @@ export const modulationStepS = (m: FrequencyModulation, samples: number): number
 /** Largest step (s) with at most `variance` rad² of phase diffusion per step. */
 export const broadbandStepS = (b: BroadbandSource, variance: number): number => variance / (2 * Math.PI * b.linewidthMHz * 1e6)
 
+/** Every input of a channel with its path below the channel: pump, Stokes, co-propagating probe, forward waves. */
+export function channelInputs(ch: Channel): [(string | number)[], PortInput][] {
+  const out: [(string | number)[], PortInput][] = [
+    [['pump'], ch.pump],
+    [['stokes'], ch.stokes],
+  ]
+  if (ch.coProbe) out.push([['coProbe'], ch.coProbe])
+  ch.forwardInputs.forEach((f, fi) => out.push([['forwardInputs', fi, 'stokes'], f.stokes], [['forwardInputs', fi, 'antiStokes'], f.antiStokes]))
+  return out
+}
+
 export interface SourceStepBound {
   /** Largest step the source allows (s). */
   dtS: number
@@ -49,15 +61,14 @@ export function sourceStepBound(config: SimulationConfig, strict = false): Sourc
   const variance = strict ? SOURCE_GRID_RULES.maxPhaseVariancePerStep : SOURCE_GRID_RULES.phaseVariancePerStep
   let best: SourceStepBound | null = null
   config.channels.forEach((ch, ci) => {
-    for (const port of ['pump', 'stokes'] as const) {
-      const { modulation, broadband } = ch[port]
+    for (const [at, { modulation, broadband }] of channelInputs(ch)) {
       if (modulation) {
         const dtS = modulationStepS(modulation, samples)
-        if (!best || dtS < best.dtS) best = { dtS, path: ['channels', ci, port, 'modulation', 'excursionMHz'], kind: 'modulation' }
+        if (!best || dtS < best.dtS) best = { dtS, path: ['channels', ci, ...at, 'modulation', 'excursionMHz'], kind: 'modulation' }
       }
       if (broadband) {
         const dtS = broadbandStepS(broadband, variance)
-        if (!best || dtS < best.dtS) best = { dtS, path: ['channels', ci, port, 'broadband', 'linewidthMHz'], kind: 'broadband' }
+        if (!best || dtS < best.dtS) best = { dtS, path: ['channels', ci, ...at, 'broadband', 'linewidthMHz'], kind: 'broadband' }
       }
     }
   })

@@ -14,34 +14,37 @@
  * the window itself.
  */
 import type { SimulationConfig } from './simulation-config'
+import { channelInputs } from './source-grid-rules'
 
 export const MAX_LINEWIDTH_PER_SHIFT = 0.1
 
-export interface SourceSpectrumIssue {
+export interface SourceLimitIssue {
   path: (string | number)[]
   message: string
 }
 
-export function sourceLimitIssues(config: SimulationConfig): SourceSpectrumIssue[] {
+export function sourceLimitIssues(config: SimulationConfig): SourceLimitIssue[] {
   const halfShiftMHz = (config.waveguide.brillouinShiftGHz * 1000) / 2
-  const out: SourceSpectrumIssue[] = []
+  const out: SourceLimitIssue[] = []
   config.channels.forEach((ch, ci) => {
-    for (const port of ['pump', 'stokes'] as const) {
-      const { modulation, broadband } = ch[port]
-      if (modulation && modulation.excursionMHz + modulation.rateMHz >= halfShiftMHz) {
+    for (const [at, { modulation, broadband }] of channelInputs(ch)) {
+      const path = ['channels', ci, ...at]
+      // Forward waves sit ν_F, not ν_B, from the pump; their spacing is the forward resonance's to check.
+      const backwardPair = at[0] !== 'forwardInputs'
+      if (backwardPair && modulation && modulation.excursionMHz + modulation.rateMHz >= halfShiftMHz) {
         out.push({
-          path: ['channels', ci, port, 'modulation', 'excursionMHz'],
+          path: [...path, 'modulation', 'excursionMHz'],
           message: `Excursion plus rate must stay below half the Brillouin shift (${halfShiftMHz.toPrecision(4)} MHz): a wider modulation reaches the other wave's carrier, which this model of two separate waves does not describe`,
         })
       }
-      if (broadband && broadband.linewidthMHz > MAX_LINEWIDTH_PER_SHIFT * 2 * halfShiftMHz) {
+      if (backwardPair && broadband && broadband.linewidthMHz > MAX_LINEWIDTH_PER_SHIFT * 2 * halfShiftMHz) {
         out.push({
-          path: ['channels', ci, port, 'broadband', 'linewidthMHz'],
+          path: [...path, 'broadband', 'linewidthMHz'],
           message: `The linewidth must be at most a tenth of the Brillouin shift (${(MAX_LINEWIDTH_PER_SHIFT * 2 * halfShiftMHz).toPrecision(4)} MHz): a broader source puts light at the other wave's carrier, which this model of two separate waves does not describe`,
         })
       }
       if (broadband && Math.abs(broadband.delayNs) > config.windowNs) {
-        out.push({ path: ['channels', ci, port, 'broadband', 'delayNs'], message: `The delay must lie within ±${config.windowNs} ns, the simulated window` })
+        out.push({ path: [...path, 'broadband', 'delayNs'], message: `The delay must lie within ±${config.windowNs} ns, the simulated window` })
       }
     }
   })

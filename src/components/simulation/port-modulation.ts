@@ -35,13 +35,17 @@ export function withModulationKind(port: PortDraft, kind: ModulationKind): PortD
 
 const usable = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x) && x > 0
 
-/** Sentences of derived figures for the port's source on this waveguide; a figure that cannot be given says why. */
-export function modulationFigures(port: PortDraft, waveguide: { groupIndex?: number; linewidthMHz?: number }): string[] {
-  const haveGuide = usable(waveguide.groupIndex) && usable(waveguide.linewidthMHz)
+/**
+ * Sentences of derived figures for the port's source; a figure that cannot be given says why. Without a
+ * waveguide (an input with no counter-propagating partner) only the modulation index.
+ */
+export function modulationFigures(port: PortDraft, waveguide?: { groupIndex?: number; linewidthMHz?: number }): string[] {
+  const haveGuide = usable(waveguide?.groupIndex) && usable(waveguide?.linewidthMHz)
   if (port.modulation) {
     const { rateMHz, excursionMHz } = port.modulation
     if (!usable(rateMHz) || typeof excursionMHz !== 'number' || !(excursionMHz >= 0)) return ['Enter a rate above 0 and an excursion of at least 0 to see the derived figures.']
     const out = [`Modulation index β = Δf/f_m = ${formatNumber(modulationIndex({ rateMHz, excursionMHz }), 3)} rad.`]
+    if (!waveguide) return out
     if (!haveGuide) return [...out, 'Complete the waveguide (group index, linewidth) to see the correlation peaks.']
     const f = correlationFigures(waveguide.groupIndex!, waveguide.linewidthMHz!, rateMHz, excursionMHz)
     const width =
@@ -55,6 +59,7 @@ export function modulationFigures(port: PortDraft, waveguide: { groupIndex?: num
   if (port.broadband) {
     const { linewidthMHz } = port.broadband
     if (!usable(linewidthMHz)) return ['Enter a linewidth above 0 to see the derived figures.']
+    if (!waveguide) return []
     if (!haveGuide) return ['Complete the waveguide (group index, linewidth) to see the correlation length.']
     const peak = broadbandPeak(waveguide.groupIndex!, waveguide.linewidthMHz!, linewidthMHz)
     return [
