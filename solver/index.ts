@@ -284,7 +284,7 @@ function assemble(run: Run, status: RunStatus, message: string, wallTimeS: numbe
   add('map_z_m', mapZM, { dtype: 'f8', shape: [L.cols], units: 'm', description: 'Centre position of each map column' })
   add('map_pump_power_w', run.maps.pumpPowerW, { dtype: 'f4', shape: [L.rows, L.cols], units: 'W', description: `Pump power, ${mapNote}` })
   add('map_stokes_power_w', run.maps.stokesPowerW, { dtype: 'f4', shape: [L.rows, L.cols], units: 'W', description: `Stokes power, ${mapNote}` })
-  add('map_acoustic_phonons_per_m', run.maps.acousticPhononsPerM, { dtype: 'f4', shape: [L.rows, L.cols], units: 'phonons/m', description: `Phonon density |b|²/(ħω_s), ${mapNote}` })
+  add('map_acoustic_phonons_per_m', run.maps.acousticPhononsPerM, { dtype: 'f4', shape: [L.rows, L.cols], units: 'phonons/m', description: run instanceof NetworkRun ? `Phonon density Σ_fields |b|²/(ħω), every acoustic field together, ${mapNote}` : `Phonon density |b|²/(ħω_s), ${mapNote}` })
 
   const grid: ResultGrid = {
     dtS: m.dtS,
