@@ -94,7 +94,10 @@ function prepare(input: unknown, opts: SimulateOptions): Prepared {
   if (![grid.dtS, grid.dzM].every(Number.isFinite) || grid.dtS <= 0) problems.push({ path: 'grid', message: 'No valid grid could be chosen for this configuration' })
   if (problems.length > 0) return { run: null, failure: failed('The run exceeds the solver limits', problems) }
   try {
-    if (usesWaveNetwork(config)) return { run: new NetworkRun(config, grid), failure: null }
+    if (usesWaveNetwork(config)) {
+      if (opts.engine === 'wasm') throw new EngineUnavailableError('The WebAssembly engine computes the plain pump–Stokes pair only; co-propagating probes, further or forward resonances and cascades run in TypeScript')
+      return { run: new NetworkRun(config, grid), failure: null }
+    }
     return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine }), failure: null }
   } catch (err) {
     if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: 'choose the TypeScript engine (ts) or the automatic choice (auto) for this configuration' }]) }

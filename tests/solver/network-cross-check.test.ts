@@ -4,6 +4,7 @@
 // to round-off, sample by sample.
 import { describe, expect, it } from 'vitest'
 import { planGrid, SimulationRun } from '../../solver/driver'
+import { simulateSync } from '../../solver/index'
 import { NetworkRun } from '../../solver/network/network-run'
 import { chipConfig, gaussian } from './chip-fixtures'
 
@@ -109,5 +110,15 @@ describe('multi-wave solver on a plain configuration', () => {
     expect(maxRelDiff(plain.traces[0].pumpOut, net.traces[0].pumpOut)).toBeLessThan(1e-12)
     const joined = (re: Float64Array, im: Float64Array) => Float64Array.from([...re, ...im])
     expect(maxRelDiff(joined(plain.state.bRe, plain.state.bIm), joined(net.state.bRe, net.state.bIm))).toBeLessThan(1e-12)
+  })
+
+  it('dispatch: a co-propagating probe runs in the multi-wave solver; forcing the WebAssembly engine on it is refused, naming the engine', () => {
+    const config = chipConfig({ windowNs: 2, options: { errorEstimate: false }, channels: [{ pump: { pulses: [], backgroundPowerW: 0.01 }, coProbe: { pulses: [], backgroundPowerW: 1e-6 } }] })
+    const ok = simulateSync(config)
+    expect(ok.status).toBe('finished')
+    expect(ok.manifest.arrays.map((a) => a.name)).toContain('wave_co_probe_out')
+    const refused = simulateSync(config, { engine: 'wasm' })
+    expect(refused.status).toBe('failed')
+    expect(refused.manifest.issues.map((i) => i.path)).toEqual(['engine'])
   })
 })
