@@ -71,6 +71,19 @@ describe('POST /api/sweeps', () => {
     // A point's run says which sweep and point it belongs to, so its page can link back.
     const pointRun = RunDetail.parse((await get(`/runs/${sweep.points[3].runId}`, editor)).body)
     expect([pointRun.sweepId, pointRun.sweepPoint, pointRun.queuePosition]).toEqual([sweep.id, 3, null])
+    // Its title numbers points from 1, as the sweep page, the CSV and the mail do.
+    expect(pointRun.title).toBe('Write power scan · point 4 (Pulse peak power [write] = 2)')
+  })
+
+  it('titles point runs with axis values rounded to six significant digits, not the float noise of a sum', async () => {
+    const m = await newMember(db, 'editor')
+    // 0.1 + 0.2 is 0.30000000000000004 in binary floating point (IEEE 754 double; common practice).
+    const res = await post('/sweeps', m, { ...powerSweep(m.groupId, 'Rounded', 2), axes: [{ field: 'pulsePeakPowerW', pulseLabel: 'write', values: { kind: 'list', values: [0.1 + 0.2, 1 / 3] } }] })
+    const sweep = SweepDetail.parse(res.body)
+    const titles = await Promise.all(sweep.points.map(async (p) => RunDetail.parse((await get(`/runs/${p.runId}`, m)).body).title))
+    expect(titles).toEqual(['Rounded · point 1 (Pulse peak power [write] = 0.3)', 'Rounded · point 2 (Pulse peak power [write] = 0.333333)'])
+    // Leave nothing for the feeder tests below to find: they count what the feeder sends.
+    expect((await post(`/sweeps/${sweep.id}/cancel`, m)).status).toBe(200)
   })
 
   it('lists sweep points apart from single runs when asked, each marked with its sweep and point', async () => {

@@ -87,6 +87,14 @@ describe('sweep analysis', () => {
     expect((await fractionTicks(page)).length).toBeGreaterThan(0)
     expect(await chartTexts(page)).toContain('Fit η₀·exp(−Γτ)')
     await screenshot(page, 'sweep-lifetime-fit-log-y')
+
+    // The points table numbers from 1, like the run titles, the run page and the mail.
+    const rows = page.locator('.sweep-points tbody tr')
+    expect(await rows.first().locator('td').first().innerText()).toBe('1')
+    expect(await rows.last().locator('td').first().innerText()).toBe('5')
+    await page.getByRole('row', { name: 'Open the run of point 1' }).click()
+    await page.getByText('Point 1 of a sweep').waitFor()
+    expect(await page.locator('h1').innerText()).toBe('E2E storage time · point 1 (Pulse centre (e.g. write–read delay) [read] = 2)')
   })
 
   it('gives the small-signal gain slope of a CW pump-power sweep beside the closed form and switches the x-axis to log', async () => {

@@ -88,7 +88,8 @@ describe('a 1-D sweep of 8 short runs', () => {
       lines.forEach((line, i) => {
         const cell = line.split(',')
         const run = rows[i]
-        expect(Number(cell[at('point')])).toBe(run.sweep_point)
+        // Numbered from 1, as on the sweep page and in the mail; the stored index is 0-based.
+        expect(Number(cell[at('point')])).toBe(run.sweep_point + 1)
         expect(cell[at('run_id')]).toBe(run.id)
         expect(Number(cell[at('Pulse peak power [write] (W)')])).toBe(run.config.channels[0].pump.pulses[0].peakPowerW)
         const ch = run.figures.channels[0]
@@ -103,7 +104,7 @@ describe('a 1-D sweep of 8 short runs', () => {
       // Boyd, Nonlinear Optics, 3rd ed., §9.3): the gain column rises along the axis.
       const gains = rows.map((r) => r.figures.channels[0].peakStokesGainDb as number)
       for (let i = 1; i < gains.length; i++) expect(gains[i]).toBeGreaterThan(gains[i - 1])
-      const manifest = JSON.parse(readFileSync(join(dir, 'x', 'points', 'point-003', 'manifest.json'), 'utf8'))
+      const manifest = JSON.parse(readFileSync(join(dir, 'x', 'points', 'point-004', 'manifest.json'), 'utf8'))
       expect(manifest.figures).toEqual(rows[3].figures)
     } finally {
       rmSync(dir, { recursive: true, force: true })

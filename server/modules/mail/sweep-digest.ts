@@ -30,7 +30,7 @@ function axisRanges(s: SweepDetail): string[] {
 }
 
 const where = (s: SweepDetail, p: SweepDetail['points'][number]) =>
-  `point ${p.index + 1} (${s.axisLabels.map((l, a) => `${l.replace(/ \(.*\)$/, '')} = ${fmt(p.values[a])}`).join(', ')})`
+  `point ${p.index + 1} (${s.axisLabels.map((l, a) => `${l.replace(/ \([^()]*\)$/, '')} = ${fmt(p.values[a])}`).join(', ')})`
 
 export function sweepDigestNotice(s: SweepDetail): FinishedNotice {
   const c = s.counts

@@ -13,7 +13,7 @@ export function sweepCsv(s: SweepDetail): string {
   const header = ['point', ...s.axes.map(axisLabel), 'status', 'run_id', ...s.metrics.flatMap((m) => [`${m.label} (${m.unit})`, `${m.label} estimated error (${m.unit})`])]
   const lines = [header.map(cell).join(',')]
   for (const p of s.points) {
-    lines.push([String(p.index), ...p.values.map(num), p.status, p.runId, ...s.metrics.flatMap((m) => [num(p.metrics[m.key] ?? null), num(p.metrics[errorKey(m.key)] ?? null)])].map(cell).join(','))
+    lines.push([String(p.index + 1), ...p.values.map(num), p.status, p.runId, ...s.metrics.flatMap((m) => [num(p.metrics[m.key] ?? null), num(p.metrics[errorKey(m.key)] ?? null)])].map(cell).join(','))
   }
   return lines.join('\r\n') + '\r\n'
 }

@@ -10,17 +10,19 @@ import { arrayFileName, npyDescrOf, npyHeader, type RunManifest } from '../../..
 import { findArray, findRun } from '../runs/runs.repo'
 import { sweepCsv } from './sweep-csv'
 
-export const pointDir = (index: number) => `points/point-${String(index).padStart(3, '0')}`
+/** The folder of the point with 0-based `index`, numbered from 1 like the sweep page, the CSV and the mail. */
+export const pointDir = (index: number) => `points/point-${String(index + 1).padStart(3, '0')}`
 
 export function sweepReadme(s: SweepDetail, withArrays: boolean): string {
   return [
     `Sonoweave sweep "${s.title}"`,
     `Sweep id ${s.id}; ${s.pointCount} points over ${s.axes.map(axisLabel).join(' × ')}; status ${s.status}.`,
     '',
-    'figures.csv     One row per point: the point index, the axis values, the run status and id, then each figure',
-    '                of merit with its unit in the header ("1" = dimensionless), each followed by its estimated',
-    '                numerical error in the same unit (from a rerun with twice the time step). Empty cells: the run',
-    '                gives no such figure (e.g. no labelled data/read pulses) or no estimate, or has not succeeded.',
+    'figures.csv     One row per point: the point number (from 1, as on the sweep page), the axis values, the run',
+    '                status and id, then each figure of merit with its unit in the header ("1" = dimensionless),',
+    '                each followed by its estimated numerical error in the same unit (from a rerun with twice the',
+    '                time step). Empty cells: the run gives no such figure (e.g. no labelled data/read pulses) or no',
+    '                estimate, or has not succeeded.',
     'sweep.json      The base configuration, the axes, the values on each axis and the metric columns.',
     `${pointDir(0)}/manifest.json  (one folder per finished point) the run's manifest: configuration, grid,`,
     '                figures of merit, warnings and one entry per array.',

@@ -59,8 +59,12 @@ export function estimateSweepFor(deps: Pick<SweepsDeps, 'limits'>, def: SweepDef
   }
 }
 
+/** Six significant digits: what a user types, without the float noise of a range (0.15000000000000002). */
+const shown = (v: number) => String(Number(v.toPrecision(6)))
+
+// Points are numbered from 1 wherever people see them (titles, table, mail, CSV); the stored index is 0-based.
 const pointTitle = (title: string, def: SweepDefinition, p: { index: number; values: number[] }) =>
-  `${title} · point ${p.index} (${def.axes.map((a, i) => `${axisLabel(a).replace(/ \(.*\)$/, '')} = ${p.values[i]}`).join(', ')})`.slice(0, 200)
+  `${title} · point ${p.index + 1} (${def.axes.map((a, i) => `${axisLabel(a).replace(/ \([^()]*\)$/, '')} = ${shown(p.values[i])}`).join(', ')})`.slice(0, 200)
 
 const newPointRun = (title: string, def: SweepDefinition, p: BuiltPoint): NewPointRun => ({
   point: p.index,

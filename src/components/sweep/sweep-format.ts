@@ -1,11 +1,25 @@
 import type { MetricColumn, SweepDetail } from '@shared/api/sweeps'
 
-/** Engineering-friendly number: 4 significant digits, exponent outside 1e-3…1e4. */
-export function formatValue(x: number | null | undefined): string {
+/** Engineering-friendly number: 4 significant digits (or `digits`), exponent outside 1e-3…1e4. */
+export function formatValue(x: number | null | undefined, digits = 4): string {
   if (x === null || x === undefined || !Number.isFinite(x)) return '—'
   if (x === 0) return '0'
   const a = Math.abs(x)
-  return a >= 1e4 || a < 1e-3 ? x.toExponential(3) : String(Number(x.toPrecision(4)))
+  return a >= 1e4 || a < 1e-3 ? x.toExponential(digits - 1) : String(Number(x.toPrecision(digits)))
+}
+
+/** Most digits a figure is shown with, however small its estimated error. */
+const MAX_DIGITS = 6
+
+/**
+ * A figure shown to its meaningful digits: down to the second significant digit of its estimated numerical
+ * error when there is one (quoting a value to its uncertainty: common practice), else 4 significant digits.
+ */
+export function formatToError(x: number | null | undefined, error: number | null | undefined): string {
+  if (x === null || x === undefined || !Number.isFinite(x) || x === 0) return formatValue(x)
+  if (error === null || error === undefined || !Number.isFinite(error) || !(error > 0)) return formatValue(x)
+  const digits = Math.floor(Math.log10(Math.abs(x))) - Math.floor(Math.log10(error)) + 2
+  return formatValue(x, Math.min(MAX_DIGITS, Math.max(1, digits)))
 }
 
 /** Suffix after a value: none for pure numbers and fractions ("0.094"), " ns" etc. otherwise. */
