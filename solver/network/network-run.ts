@@ -132,11 +132,12 @@ export class NetworkRun {
       interactNetwork(m, s, 0, 0, 0.5, this.rng)
       interactNetwork(m, s, 1, nz - 1, 1, this.rng)
       interactNetwork(m, s, nz, nz, 0.5, this.rng)
-      m.waves.forEach((w, k) => {
+      for (let k = 0; k < m.waves.length; k++) {
+        const w = m.waves[k]
         const j = w.direction === 1 ? nz : 0
         this.waveOut[k][2 * n] = w.sqrtPowerPerFlux * s.aRe[k][j]
         this.waveOut[k][2 * n + 1] = w.sqrtPowerPerFlux * s.aIm[k][j]
-      })
+      }
       if (this.keepMaps) this.recordMaps(n)
       if (n < m.nt) {
         this.transport()
@@ -177,9 +178,11 @@ export class NetworkRun {
     const m = this.net
     const nz = m.nz
     const loss = m.lossPerCell
-    m.waves.forEach((w, k) => {
-      for (const a of [this.wave.aRe[k], this.wave.aIm[k]]) {
-        if (w.direction === 1) {
+    for (let k = 0; k < m.waves.length; k++) {
+      const forward = m.waves[k].direction === 1
+      for (let part = 0; part < 2; part++) {
+        const a = part === 0 ? this.wave.aRe[k] : this.wave.aIm[k]
+        if (forward) {
           a.copyWithin(1, 0, nz)
           if (loss !== 1) for (let j = 1; j <= nz; j++) a[j] *= loss
         } else {
@@ -187,7 +190,7 @@ export class NetworkRun {
           if (loss !== 1) for (let j = 0; j < nz; j++) a[j] *= loss
         }
       }
-    })
+    }
   }
 
   private inject(n: number): void {
