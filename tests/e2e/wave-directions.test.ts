@@ -73,10 +73,25 @@ describe('waves in both directions in the form', () => {
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}/, { timeout: 20_000 })
   })
 
-  it('looks right in the dark theme at 1440 and 390 px', async () => {
+  it('adds a typical forward resonance with its source, its forward inputs and a Stokes cascade with its threshold and caution (dark theme)', async () => {
     const page = await editorPage('dark', signedIn)
     await fillWaves(page)
-    await page.locator('tr[data-quantity="backwardResonance1SmallSignalGain"]').waitFor()
+    await page.getByRole('button', { name: 'Add typical forward resonance' }).click()
+    await page.locator('[aria-label="Typical forward resonances"]').getByText(/Suspended silicon waveguide/).click()
+    // The source stays beside the resonance it gave.
+    await page.getByText(/^Forward resonance 1 \(typical values\): Kittlaus, Shin & Rakich 2016/).waitFor()
+    await page.getByRole('region', { name: 'Forward Stokes input' }).waitFor()
+    await page.getByRole('region', { name: 'Forward anti-Stokes input' }).waitFor()
+    await page.locator('tr[data-quantity="forwardResonance1SmallSignalGain"]').waitFor()
+
+    const orders = page.locator('.simulation-wave-options__orders')
+    // Centred first: scrolled only "into view" it can sit under the sticky app bar.
+    await orders.evaluate((el) => el.scrollIntoView({ block: 'center' }))
+    await orders.locator('.v-field').click()
+    await page.getByRole('option', { name: '2', exact: true }).click()
+    await page.locator('tr[data-quantity="cascadeSecondThresholdW"]').waitFor()
+    // No seed and no thermal noise: the caution says the higher order stays dark.
+    await page.locator('[data-code="cascade-dark"]').waitFor()
     await screenshot(page, 'wave-directions-1440-dark')
     await page.setViewportSize({ width: 390, height: 844 })
     await screenshot(page, 'wave-directions-390-dark')
