@@ -5,8 +5,8 @@
  * the observers and the maps read the same numbers the engine writes. One memory and instance per run
  * (a fork gets its own); the compiled module is shared by every run of the thread.
  *
- * Its interaction step is `interactSvea` (or, with Kerr, `interactSveaKerr`) two nodes at a time (f64x2), giving the same bits; its transport is
- * the driver's shift as a memory move, with the same loss multiply.
+ * Its interaction step is `interactSvea` (or, with Kerr, `interactSveaKerr`) two nodes at a time (f64x2),
+ * giving the same bits; its transport is the driver's shift as a memory move, with the same loss multiply.
  */
 import type { Model } from '../problem/coupled-modes'
 import { fastPathApplies, type FieldState } from '../steppers/interaction-kernel'
@@ -64,7 +64,7 @@ export class WasmSveaEngine {
     if (!wasmEngineApplies(m)) throw new Error('WasmSveaEngine: model outside the engine (engineProblem says why)')
     this.kerr = kerrFastPathApplies(m)
     const n = m.nodes
-    // 16-byte aligned arrays, so the f64x2 loads of even nodes never straddle a cache line needlessly.
+    // Each array starts on a 16-byte boundary (v128 loads need no alignment; this only keeps the layout tidy).
     const stride = Math.ceil((8 * n) / 16) * 16
     const memory = new wasm.Memory({ initial: Math.ceil((BASE_BYTES + 6 * stride) / PAGE_BYTES) })
     this.fn = new wasm.Instance(engineModule(), { env: { memory } }).exports as unknown as Exports
