@@ -33,13 +33,17 @@ function forPaper(option: Option): Option {
       axisLabel: { ...(x.axisLabel as Option), fontSize: FONT_PT },
       nameTextStyle: { ...(x.nameTextStyle as Option), fontSize: FONT_PT },
     }))
-  const { toolbox: _toolbox, dataZoom: _dataZoom, tooltip: _tooltip, ...rest } = option
+  const { toolbox: _toolbox, dataZoom, tooltip: _tooltip, ...rest } = option
+  // The zoomed view on screen becomes the figure's x range (the zoom slider itself is left out).
+  const zoom = (Array.isArray(dataZoom) ? dataZoom : dataZoom ? [dataZoom] : []).find((z: Option) => typeof z.startValue === 'number' && typeof z.endValue === 'number') as Option | undefined
+  const x = axes(option.xAxis)
+  if (zoom && x[0]) Object.assign(x[0], { min: zoom.startValue, max: zoom.endValue })
   return {
     ...rest,
     animation: false,
     backgroundColor: '#ffffff',
     textStyle: { fontFamily: 'Helvetica, Arial, sans-serif', fontSize: FONT_PT },
-    ...(option.xAxis ? { xAxis: axes(option.xAxis) } : {}),
+    ...(option.xAxis ? { xAxis: Array.isArray(option.xAxis) ? x : x[0] } : {}),
     ...(option.yAxis ? { yAxis: axes(option.yAxis) } : {}),
     ...(option.legend ? { legend: { ...(option.legend as Option), textStyle: { ...((option.legend as Option).textStyle as Option), fontSize: FONT_PT } } } : {}),
   }
