@@ -4,7 +4,7 @@ import type { Advisory } from './laser-safety'
 import type { ResonanceQuantities } from './resonance-quantities'
 
 const launches = (p: { pulses: unknown[]; backgroundPowerW: number } | undefined) => !!p && (p.pulses.length > 0 || p.backgroundPowerW > 0)
-const sig = (x: number) => x.toPrecision(3)
+const sig = (x: number) => (x === 0 ? '0' : x.toPrecision(3))
 
 export function resonanceAdvisories(q: ResonanceQuantities, cfg: SimulationConfig, pumpPowerW: number): Advisory[] {
   const out: Advisory[] = []
@@ -15,7 +15,10 @@ export function resonanceAdvisories(q: ResonanceQuantities, cfg: SimulationConfi
     out.push({
       code: 'cascade-dark',
       severity: 'warning',
-      message: `Stokes orders 2 to ${cascade.stokesOrders} have no seed power and no thermal noise: they start from nothing and stay dark. Set a seed power for the higher orders.`,
+      message:
+        cascade.stokesOrders === 2
+          ? 'The 2nd Stokes order has no seed power and no thermal noise: it starts from nothing and stays dark. Set a seed power for the higher orders.'
+          : `Stokes orders 2 to ${cascade.stokesOrders} have no seed power and no thermal noise: they start from nothing and stay dark. Set a seed power for the higher orders.`,
     })
   } else if (q.cascade && pumpPowerW < q.cascade.secondOrderPumpThresholdW) {
     out.push({
