@@ -45,7 +45,11 @@ export function unitOfField(path: string): string {
   const name = path.split('.').pop() ?? ''
   const suffixes: Array<[RegExp, string]> = [
     [/DbPerM$/, 'dB/m'],
+    [/M2PerW$/, 'm²/W'],
     [/MPerW$/, 'm/W'],
+    [/MPerS$/, 'm/s'],
+    // After dB/m: a phase mismatch such as antiStokesMismatchPerM.
+    [/PerM$/, '1/m'],
     [/Um2$/, 'µm²'],
     [/GHz$/, 'GHz'],
     [/MHz$/, 'MHz'],
