@@ -12,7 +12,7 @@ import { preRunWarnings } from './observers/warnings'
 import { buildModel, type Model } from './problem/coupled-modes'
 import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, interactSvea, noiseWeight, type FieldState } from './steppers/interaction-kernel'
 import { planStorageReference, type ReferencePlan } from './storage-reference'
-import { resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
+import { EngineUnavailableError, resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
 import { interactSveaKerr, kerrFastPathApplies } from './steppers/svea-kerr-kernel'
 import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
 import { interactProfile, transportProfile } from './steppers/profile-kernel'
@@ -61,6 +61,8 @@ export class SimulationRun {
     this.forceGeneral = options.forceGeneralKernel ?? false
     this.engineChoice = options.engine ?? 'auto'
     this.profile = buildProfileModel(config, grid, m)
+    // A forced engine never falls back silently (engine/wasm-engine.ts).
+    if (this.profile && this.engineChoice === 'wasm' && !this.forceGeneral) throw new EngineUnavailableError('The WebAssembly engine computes a uniform waveguide only; sections along the length run in TypeScript')
     this.wasm = !this.profile && resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? new WasmSveaEngine(m) : null
     this.state = this.wasm?.state ?? allocateState(m)
     this.traces = config.channels.map((ch) => ({

@@ -114,10 +114,10 @@ describe('engine choice', () => {
   })
 
   it("a forced 'wasm' the engine cannot run fails with a sentence naming the remedy, never silently falls back", () => {
-    for (const c of [noise, higherOrder, twoChannels]) {
+    for (const c of [noise, higherOrder, twoChannels, profiled]) {
       const r = simulateSync(c, { engine: 'wasm' })
       expect(r.status).toBe('failed')
-      expect(r.message).toMatch(/^The WebAssembly engine covers one channel/)
+      expect(r.message).toMatch(c === profiled ? /^The WebAssembly engine computes a uniform waveguide only/ : /^The WebAssembly engine covers one channel/)
       expect(r.manifest.issues).toEqual([{ path: 'engine', message: expect.stringMatching(/TypeScript engine \(ts\) or the automatic choice/) }])
     }
   })
