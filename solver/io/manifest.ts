@@ -3,6 +3,7 @@
 import type { ArrayDescriptor, ArrayDtype, SimulationManifest } from '@shared/physics/simulation-result'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import type { ResourceEstimate } from '@shared/physics/resource-estimate'
+import { deriveQuantities, type DerivedRow } from '@shared/physics/derived-quantities'
 import type { NpyDescr } from './npy'
 
 export const MANIFEST_FILE = 'manifest.json'
@@ -20,6 +21,8 @@ export interface RunManifest extends Omit<SimulationManifest, 'arrays'> {
   runManifestVersion: number
   config: SimulationConfig
   estimate: ResourceEstimate
+  /** The derived quantities the form showed (gain parameters, κ, thresholds…), on the run's own grid. */
+  derived: DerivedRow[]
   timings: RunTimings
   arrays: StoredArray[]
 }
@@ -48,6 +51,7 @@ export function buildRunManifest(
     ...rest,
     config,
     estimate,
+    derived: deriveQuantities({ waveguide: config.waveguide, config, grid: manifest.grid ?? undefined }).rows,
     timings,
     arrays: arrays.map((a) => ({ ...a, file: arrayFileName(a.name), npyDescr: npyDescrOf(a.dtype), byteOrder: 'little', order: 'C' })),
   }

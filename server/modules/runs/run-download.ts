@@ -48,7 +48,7 @@ export function readmeText(run: RunRow, manifest: RunManifest, csvFiles: string[
     `Sonoweave run "${run.title}"`,
     `Run id ${run.id}, solver ${manifest.solverVersion}, finished ${run.finishedAt?.toISOString() ?? ''}`,
     '',
-    'manifest.json  The run configuration, resource estimate, grid, figures of merit, warnings and one entry per array',
+    'manifest.json  The run configuration, resource estimate, derived quantities, grid, figures of merit, warnings and one entry per array',
     '               (name, file, dtype, shape, units, description). figures.errorEstimate holds each figure\'s',
     '               estimated numerical error, keyed by the figure\'s path, from a rerun with twice the time step.',
     '',
