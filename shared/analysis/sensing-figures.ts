@@ -2,9 +2,10 @@
  * Figures of a time-of-flight sensing map (docs/analysis.md, sensing map):
  *  - spatial resolution: nominal δz = v_g τ/2 for a pump pulse of power FWHM τ (common practice; Horiguchi &
  *    Tateda 1989, J. Lightwave Technol. 7, 1170), and measured as the 10–90 % width of the fitted shift
- *    across the cleanest step of the true profile: no other edge within 1.5 δz, and the smallest change (the
- *    fitted shift follows the gain-weighted mean of the two sides only while the step is small against the
- *    linewidth; a large step makes the fit jump from one line to the other);
+ *    across the cleanest step of the true profile: no other edge within 1.5 δz, a change of at most half the
+ *    linewidth, and the smallest such change (the fitted shift follows the gain-weighted mean of the two sides
+ *    only while the step is small against the linewidth; across a large step the fit jumps from one line to
+ *    the other and reads sharper than the pulse resolves);
  *  - range: the farthest position up to which every fit is usable;
  *  - hot spots: each segment with a shift change. One shorter than the resolution is "not resolved" (its
  *    fitted shift would be a mixture, not a measurement); otherwise "detected" when the fitted shift at its
@@ -58,12 +59,12 @@ export function stepWidthM(map: AssembledSensingMap, zE: number, halfSpanM: numb
   return z90 === null ? null : z90 - z10
 }
 
-export function sensingFigures(map: AssembledSensingMap, segments: readonly ProfileSegment[], groupIndex: number, pumpFwhmNs: number): SensingFigures {
+export function sensingFigures(map: AssembledSensingMap, segments: readonly ProfileSegment[], groupIndex: number, pumpFwhmNs: number, linewidthMHz: number): SensingFigures {
   const nominal = ((C_M_PER_NS / groupIndex) * pumpFwhmNs) / 2
   const edges: { z: number; s1: number; s2: number }[] = []
   for (const s of segments) for (const z of [s.startM, s.endM]) edges.push({ z, s1: trueShiftAt(segments, z - 1e-9), s2: trueShiftAt(segments, z) })
   const length = map.positionsM[map.positionsM.length - 1]
-  const clean = edges.filter((e) => e.s1 !== e.s2 && e.z > 1.5 * nominal && e.z < length - 1.5 * nominal && edges.every((o) => o === e || Math.abs(o.z - e.z) > 1.5 * nominal))
+  const clean = edges.filter((e) => e.s1 !== e.s2 && Math.abs(e.s2 - e.s1) <= linewidthMHz / 2 && e.z > 1.5 * nominal && e.z < length - 1.5 * nominal && edges.every((o) => o === e || Math.abs(o.z - e.z) > 1.5 * nominal))
   clean.sort((a, b) => Math.abs(a.s2 - a.s1) - Math.abs(b.s2 - b.s1))
   const measured = clean.length > 0 ? stepWidthM(map, clean[0].z, 1.5 * nominal, clean[0].s1, clean[0].s2) : null
   const resolutionM = measured ?? nominal

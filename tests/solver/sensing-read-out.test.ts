@@ -40,7 +40,7 @@ describe('time-of-flight sensing read-out', () => {
     // Common practice: a pump pulse of duration τ resolves δz = v_g τ/2 (e.g. Horiguchi & Tateda 1989, J. Lightwave
     // Technol. 7, 1170, for Brillouin optical time-domain analysis). For a Gaussian footprint the 10–90 % width of
     // its step response is 2·1.2816σ = 1.088 FWHM (the normal distribution's quantiles), inside the 10 %.
-    const fig = sensingFigures(assemble(0), segments, FIBRE.groupIndex, TAU_NS)
+    const fig = sensingFigures(assemble(0), segments, FIBRE.groupIndex, TAU_NS, FIBRE.linewidthMHz)
     expect(fig.nominalResolutionM).toBeCloseTo(DZ, 9)
     expect(fig.measuredResolutionM).not.toBeNull()
     expect(Math.abs(fig.measuredResolutionM! / DZ - 1)).toBeLessThan(0.1)
@@ -49,7 +49,7 @@ describe('time-of-flight sensing read-out', () => {
 
   it('recovers a hot spot of ≥ 2 resolutions within 3σ and reports one of 0.3 resolutions as not resolved', () => {
     // Detector noise 0.1 % of the probe power, seeded: the 1σ of the fit then scales as Δν_B/(√2·SNR) (common practice).
-    const fig = sensingFigures(assemble(1e-3), segments, FIBRE.groupIndex, TAU_NS)
+    const fig = sensingFigures(assemble(1e-3), segments, FIBRE.groupIndex, TAU_NS, FIBRE.linewidthMHz)
     const [step, wide, narrow] = fig.hotSpots
     expect(wide.endM - wide.startM).toBeGreaterThanOrEqual(2 * fig.resolutionM)
     expect(wide.status).toBe('detected')
@@ -63,7 +63,7 @@ describe('time-of-flight sensing read-out', () => {
 
   it('calls a hot spot missed when the fibre does not have the shift the profile claims', () => {
     const claimed = segments.map((s, i) => (i === 1 ? { ...s, temperatureOffsetK: 50 } : s))
-    const fig = sensingFigures(assemble(1e-3), claimed, FIBRE.groupIndex, TAU_NS)
+    const fig = sensingFigures(assemble(1e-3), claimed, FIBRE.groupIndex, TAU_NS, FIBRE.linewidthMHz)
     expect(fig.hotSpots[1].status).toBe('missed')
   })
 })

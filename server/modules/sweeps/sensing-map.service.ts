@@ -46,7 +46,7 @@ export async function sensingMapFor(deps: SweepsDeps, auth: AuthContext | undefi
   const fwhmNs = pump.shape === 'sampled' ? 0 : pump.fwhmNs
   try {
     const map = assembleSensingMap(points, { dtNs, groupIndex: wg.groupIndex, lengthM: wg.lengthM, linewidthMHz: wg.linewidthMHz, pumpCentreNs: pump.centreNs, pumpFwhmNs: fwhmNs, relativeNoiseRms: noiseRms, maxPositions: MAX_POSITIONS })
-    const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, fwhmNs)
+    const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, fwhmNs, wg.linewidthMHz)
     return {
       brillouinShiftGHz: wg.brillouinShiftGHz,
       positionsM: map.positionsM,

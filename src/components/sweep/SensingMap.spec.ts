@@ -58,7 +58,7 @@ describe('SensingMap', () => {
     const { wrapper } = await mountWithApp(SensingMap, { props: { sweep: sweep('detuningMHz') } })
     const text = wrapper.text()
     expect(text).toContain('Sensing map (time-of-flight read-out)')
-    expect(text).toContain('no clean shift step to measure on')
+    expect(text).toContain('no isolated step of at most half the linewidth')
     expect(text).toContain('Detected (within 3σ)')
     expect(text).toContain('Not resolved: shorter than the resolution')
     expect(f.calls[0].url).toContain('noiseRms=0.001')
