@@ -43,11 +43,11 @@ export const SPEED_FACTOR_HIGHER_ORDER = 0.25
 export const SPEED_FACTOR_NOISE = 0.11
 /**
  * Relative speed with Kerr phases (four Cayley rotations, nine divisions per cell), on the WebAssembly engine's
- * Kerr path against its plain one: benchmark 2026-12-03, 0.30–0.70 over two runs on a loaded machine; set
- * towards the low end so expected times err long. Runs that need the general kernel (several channels, noise)
- * are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
+ * Kerr path against its plain one: benchmark 2026-12-03 (benchmarks/README.md), 0.46–0.51 (0.30–0.70 with the
+ * machine heavily loaded). Runs that need the general kernel (several channels, noise) are slower still:
+ * there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
  */
-export const SPEED_FACTOR_KERR = 0.4
+export const SPEED_FACTOR_KERR = 0.45
 
 /** Optical waves and acoustic fields of the plain pump–Stokes scheme: pump, Stokes and one acoustic field. */
 export const PLAIN_WAVES = 2
