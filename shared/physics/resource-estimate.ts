@@ -26,8 +26,8 @@ export interface GridCounts {
 export const CELL_UPDATES_PER_S_SVEA = 40e6
 /**
  * Relative speed of the WebAssembly step engine (solver/engine/) against the TypeScript fast path, for the
- * runs it covers (`wasmEngineCovers`); benchmark 2026-12-03, interleaved side by side: 2.0–2.3× (machine
- * loaded). The factor stands for the engine the solver chooses by default; with SOLVER_ENGINE=ts the estimate
+ * runs it covers (`wasmEngineCovers`); benchmark 2026-12-03, interleaved side by side (benchmarks/README.md):
+ * 1.93–2.06×, and 1.82–2.02× on an idle machine. The factor stands for the engine the solver chooses by default; with SOLVER_ENGINE=ts the estimate
  * errs short by that much.
  */
 export const SPEED_FACTOR_WASM_ENGINE = 2
@@ -66,8 +66,7 @@ export const SPEED_FACTOR_WAVE_NETWORK = 0.3
  */
 export function wasmEngineCovers(config: SimulationConfig): boolean {
   const o = config.options
-  const uniform = (config.waveguide.profile?.segments.length ?? 0) === 0
-  return config.channels.length === 1 && uniform && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.noise.enabled
+  return config.channels.length === 1 && !profileIsActive(config.waveguide.profile) && !usesWaveNetwork(config) && !o.higherOrderAcoustic && !o.noise.enabled
 }
 
 /** Optical waves and acoustic fields a run integrates per cell (shared/physics/wave-set.ts). */
