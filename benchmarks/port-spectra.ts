@@ -3,8 +3,7 @@
 // longer traces, and the longest single step of the sliced computation the run page uses. Prints figures;
 // never asserts.
 //   node --import tsx benchmarks/port-spectra.ts
-import { SpectrumAccumulator } from '@shared/analysis/power-spectrum'
-import { SEGMENTS_PER_CALL } from '../src/composables/usePortSpectrum'
+import { SEGMENTS_PER_CALL, SpectrumAccumulator } from '@shared/analysis/power-spectrum'
 import { simulateSync } from '../solver/index'
 import { portSpectra, portTracesOf } from '../solver/observers/port-spectra'
 import { gridCase } from './cases'

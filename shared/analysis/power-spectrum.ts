@@ -231,3 +231,6 @@ export function powerSpectrum(field: ArrayLike<number>, dtS: number, opts: Spect
   acc.advance(acc.segments)
   return acc.result()
 }
+
+/** Segments the page computes per call between clock reads: one 4096-point segment takes 0.07 ms (median, benchmarks/README.md). */
+export const SEGMENTS_PER_CALL = 1

@@ -1,11 +1,9 @@
 import { onScopeDispose, ref, shallowRef, watch, type Ref } from 'vue'
-import { SpectrumAccumulator, type SpectrumResult } from '@shared/analysis/power-spectrum'
+import { SEGMENTS_PER_CALL, SpectrumAccumulator, type SpectrumResult } from '@shared/analysis/power-spectrum'
 import type { ChannelTraces, PortKey } from './useRun'
 
 /** Work per slice before the page gets the main thread back (ms); a frame is ~16 ms. */
 const SLICE_MS = 12
-/** Segments per call between clock reads: one 4096-point segment takes 0.07 ms (median, benchmarks/README.md). */
-export const SEGMENTS_PER_CALL = 1
 
 const nextTask = () => new Promise<void>((resolve) => setTimeout(resolve, 0))
 
