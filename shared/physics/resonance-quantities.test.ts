@@ -62,8 +62,8 @@ describe('further backward and forward resonances', () => {
 })
 
 describe('Stokes cascade thresholds (Smith 1972, Appl. Opt. 11, 2489)', () => {
-  const cascade = (seedPowerW: number, pumpW = 0.01) =>
-    config({ channels: [{ pump: { pulses: [], backgroundPowerW: pumpW } }], options: { cascade: { stokesOrders: 3, seedPowerW } } })
+  const cascade = (seedPowerW: number, pumpW = 0.01, noise = false) =>
+    config({ channels: [{ pump: { pulses: [], backgroundPowerW: pumpW } }], options: { cascade: { stokesOrders: 3, seedPowerW }, noise: { enabled: noise } } })
 
   it('puts the 1st order near 1 mW for the textbook fibre, equal to the critical-power row at η = 1', () => {
     const d = derive(cascade(1e-9))
@@ -83,6 +83,7 @@ describe('Stokes cascade thresholds (Smith 1972, Appl. Opt. 11, 2489)', () => {
     const codes = (c: SimulationConfig) => derive(c).warnings.map((w) => w.code)
     expect(codes(cascade(0))).toContain('cascade-dark')
     expect(codes(cascade(1e-9))).not.toContain('cascade-dark')
+    expect(codes(cascade(0, 0.01, true))).not.toContain('cascade-dark')
     expect(codes(config())).not.toContain('cascade-dark')
   })
 
@@ -120,6 +121,7 @@ describe('forward-resonance cautions', () => {
   it('warns that a forward Stokes with nothing launched and no noise stays dark', () => {
     expect(codes(forward())).toContain('forward-dark')
     expect(codes(forward({}, { forwardInputs: [{ stokes: { pulses: [], backgroundPowerW: 1e-6 } }] }))).not.toContain('forward-dark')
+    expect(codes(config({ ...forward(), options: { noise: { enabled: true } } }))).not.toContain('forward-dark')
   })
 
   it('notes Stokes–anti-Stokes coupling while |Δk| is below the gain rate G_F P (4.35 1/m here), not above it', () => {

@@ -17,8 +17,8 @@ export function resonanceAdvisories(q: ResonanceQuantities, cfg: SimulationConfi
       severity: 'warning',
       message:
         cascade.stokesOrders === 2
-          ? 'The 2nd Stokes order has no seed power and no thermal noise: it starts from nothing and stays dark. Set a seed power for the higher orders.'
-          : `Stokes orders 2 to ${cascade.stokesOrders} have no seed power and no thermal noise: they start from nothing and stay dark. Set a seed power for the higher orders.`,
+          ? 'The 2nd Stokes order has no seed power and no thermal noise: it starts from nothing and stays dark. Set a seed power for the higher orders or switch on thermal noise.'
+          : `Stokes orders 2 to ${cascade.stokesOrders} have no seed power and no thermal noise: they start from nothing and stay dark. Set a seed power for the higher orders or switch on thermal noise.`,
     })
   } else if (q.cascade && pumpPowerW < q.cascade.secondOrderPumpThresholdW) {
     out.push({
@@ -35,7 +35,7 @@ export function resonanceAdvisories(q: ResonanceQuantities, cfg: SimulationConfi
       out.push({
         code: 'forward-dark',
         severity: 'warning',
-        message: `Forward resonance ${i + 1} has nothing launched into its forward Stokes or anti-Stokes wave and no thermal noise: both stay dark. Launch a small forward Stokes input.`,
+        message: `Forward resonance ${i + 1} has nothing launched into its forward Stokes or anti-Stokes wave and no thermal noise: both stay dark. Launch a small forward Stokes input or switch on thermal noise.`,
       })
     }
     // Stokes and anti-Stokes share one acoustic field; while |Δk| is below the gain rate the anti-Stokes
