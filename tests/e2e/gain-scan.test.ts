@@ -83,15 +83,21 @@ describe('gain-spectrum scan and per-wave figures', () => {
 
   it('builds a 41-point detuning sweep from the run page, queues it and plots the gain over the closed form', { timeout: 420_000 }, async () => {
     const page = await pageIn('light', 1440)
+    const errors: string[] = []
+    page.on('pageerror', (e) => errors.push(e.message))
     await page.goto(`/runs/${runId}`)
     await page.getByRole('link', { name: 'Scan gain spectrum' }).click()
     await page.waitForURL(/\/sweeps\/new\?.*scan=gain/)
     const plan = page.getByTestId('gain-scan-plan')
     await expect.poll(() => plan.textContent()).toContain('Detuning from -102 to 102 MHz in 41 points, 5.1 MHz apart')
     expect(await plan.textContent()).toContain('last 12 ns of each run')
+    // The tail windows follow a window edited on the sweep form.
+    await page.getByLabel('Window (ns)').fill('150')
+    await expect.poll(() => plan.textContent()).toContain('last 15 ns of each run')
     expect(await page.getByTestId('gain-scan-settle').count()).toBe(0)
     await expect.poll(() => page.locator('.new-sweep-page__facts').textContent()).toMatch(/Points \(runs\)\s*41/)
     await screenshot(page, 'gain-scan-new-sweep-light-1440')
+    expect(errors).toEqual([])
     const narrow = await pageIn('dark', 390)
     await narrow.goto(`/sweeps/new?fromRun=${runId}&scan=gain`)
     await narrow.getByTestId('gain-scan-plan').waitFor()
@@ -102,6 +108,7 @@ describe('gain-spectrum scan and per-wave figures', () => {
     const sweepId = new URL(page.url()).pathname.split('/').pop()!
     const done = await poll(async () => (await (await page.request.get(`/api/sweeps/${sweepId}`)).json()), (s) => s.status !== 'running', 'the sweep', 360_000)
     expect(done.counts.succeeded).toBe(41)
+    expect(done.baseConfig.energyWindows.map((w: { port: string; startNs: number; endNs: number }) => [w.port, w.startNs, w.endNs])).toEqual([['stokesIn', 135, 150], ['stokesOut', 135, 150]])
     // Every point's settled gain on the Lorentzian: 10·log10(e)·0.75·(17²/(δ² + 17²)) dB (Agrawal ch. 9); 0.5 % or 1e-3 dB.
     for (const p of done.points) {
       const closed = (10 / Math.LN10) * 0.75 * (17 ** 2 / (p.values[0] ** 2 + 17 ** 2))
