@@ -11,6 +11,7 @@ import { silentLog, useTestDb } from './helpers'
 import { newMember, queueSchemaFor, runRoutesForTest, type Member } from './runs-fixtures'
 import { powerSweep, sweepsForTest } from './sweeps-fixtures'
 import { probeTrace, sensingConfig, VG_M_PER_NS, type ScanSetup } from '../solver/sensing-fixtures'
+import { zipEntries } from '../e2e/zip-entries'
 
 const { db, pool } = useTestDb()
 const schema = queueSchemaFor('sensing-map')
@@ -37,7 +38,8 @@ async function solvePoints(detail: SweepDetail): Promise<void> {
       `insert into run_arrays (run_id, attempt, name, dtype, shape, units, description, data) values ($1, $2, 'ch1_stokes_out', 'c16', $3, '√W', 'probe', $4)`,
       [p.runId, rows[0].attempt, JSON.stringify([out.length / 2]), Buffer.from(out.buffer)],
     )
-    await pool.query(`update runs set status = 'succeeded', progress = 1, finished_at = now() where id = $1`, [p.runId])
+    const manifest = { arrays: [{ name: 'ch1_stokes_out', dtype: 'c16', shape: [out.length / 2], units: '√W', description: 'probe' }] }
+    await pool.query(`update runs set status = 'succeeded', progress = 1, finished_at = now(), manifest = $2 where id = $1`, [p.runId, JSON.stringify(manifest)])
   }
 }
 
@@ -85,6 +87,18 @@ describe('sensing map of a sweep', () => {
     const bytes = npy.body as Buffer
     expect(bytes.subarray(1, 6).toString('latin1')).toBe('NUMPY')
     expect(bytes.toString('latin1', 0, 200)).toMatch(/'shape': \(\d+, 26\)/)
+  })
+
+  it("streams every point's arrays into the sweep's ZIP", async () => {
+    const zip = await get(`/sweeps/${sweepId}/download?arrays=1`, editor).buffer(true).parse((r, cb) => {
+      const parts: Buffer[] = []
+      r.on('data', (c: Buffer) => parts.push(c))
+      r.on('end', () => cb(null, Buffer.concat(parts)))
+    })
+    expect(zip.status).toBe(200)
+    const names = zipEntries(zip.body as Buffer).map((e) => e.name)
+    expect(names.filter((n) => /^points\/point-\d{3}\/ch1_stokes_out\.npy$/.test(n))).toHaveLength(26)
+    expect(names).toContain('README.txt')
   })
 
   it('refuses a sweep that is not a detuning scan, with a sentence', async () => {

@@ -33,6 +33,23 @@ export function sweepReadme(s: SweepDetail, withArrays: boolean): string {
   ].join('\n')
 }
 
+/** Resolves once the archive has written the entry `name`, or has failed, or the client has gone. */
+function entryWritten(zip: ZipArchive, name: string, res: Response): Promise<void> {
+  return new Promise((resolve) => {
+    if (res.destroyed) return resolve()
+    const done = () => {
+      zip.off('entry', onEntry)
+      zip.off('error', done)
+      res.off('close', done)
+      resolve()
+    }
+    const onEntry = (e: { name: string }) => e.name === name && done()
+    zip.on('entry', onEntry)
+    zip.once('error', done)
+    res.once('close', done)
+  })
+}
+
 export async function streamSweepZip(res: Response, db: Db, s: SweepDetail, withArrays: boolean, log: Logger): Promise<void> {
   const zip = new ZipArchive({ zlib: { level: 6 } })
   zip.on('warning', (err) => log.warn({ err, sweepId: s.id }, 'zip warning'))
@@ -57,7 +74,12 @@ export async function streamSweepZip(res: Response, db: Db, s: SweepDetail, with
     for (const entry of manifest.arrays) {
       const a = await findArray(db, run.id, run.attempt, entry.name)
       if (!a) throw new Error(`array ${entry.name} of run ${run.id} is missing`)
-      zip.append(Buffer.concat([npyHeader(npyDescrOf(a.dtype), a.shape), a.data]), { name: `${pointDir(p.index)}/${arrayFileName(a.name)}` })
+      const name = `${pointDir(p.index)}/${arrayFileName(a.name)}`
+      const written = entryWritten(zip, name, res)
+      zip.append(Buffer.concat([npyHeader(npyDescrOf(a.dtype), a.shape), a.data]), { name })
+      // append() only queues: without this wait every point's arrays would sit in memory at once.
+      await written
+      if (res.destroyed) return void zip.abort()
     }
   }
   zip.append(sweepReadme(s, withArrays), { name: 'README.txt' })
