@@ -309,3 +309,12 @@ export function sveaKerrStep(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe
   exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, 1, nz - 1, 1.0, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes)
   exchangeKerr(uRe, uIm, vRe, vIm, bRe, bIm, nz, nz, 0.5, K, exchangePerB, Er, Ei, h, kp, ks, kerrHalfPump, kerrHalfStokes)
 }
+
+/**
+ * The plain SVEA step on nodes j0..j1 with one weight (cHalf = c·weight/2): the threaded engine's block of z.
+ * Each node's arithmetic depends on that node alone and each lane is correctly rounded, so any split of the
+ * nodes into blocks, odd or even, gives the bits of `sveaStep`.
+ */
+export function sveaBlock(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, j0: i32, j1: i32, K: f64, cHalf: f64, Er: f64, Ei: f64, h: f64): void {
+  exchange(uRe, uIm, vRe, vIm, bRe, bIm, j0, j1, K, cHalf, Er, Ei, h)
+}
