@@ -132,3 +132,16 @@ describe('sources on the further inputs of a channel', () => {
     expect(wide.error!.issues.map((i) => i.path.join('.'))).toEqual(['channels.0.coProbe.modulation.excursionMHz'])
   })
 })
+
+describe('channels with modulated inputs', () => {
+  it('keeps them ten linewidths plus each spectral half-width apart, on the later channel’s offset', () => {
+    // Δν_B = 25 MHz: 250 MHz, plus (990 + 10) MHz of the modulated channel: 1.25 GHz
+    const two = (offsetGHz: number) =>
+      SimulationConfig.safeParse({
+        ...config({}),
+        channels: [{ pump: { backgroundPowerW: 0.01, modulation: { rateMHz: 10, excursionMHz: 990 } }, stokes: { backgroundPowerW: 0.001 } }, { offsetGHz, pump: { backgroundPowerW: 0.01 }, stokes: { backgroundPowerW: 0.001 } }],
+      })
+    expect(two(1.26).success).toBe(true)
+    expect(two(1.24).error!.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['channels.1.offsetGHz', expect.stringMatching(/at least 1\.25 GHz apart/)]])
+  })
+})

@@ -9,6 +9,11 @@
  * Δf + f_m ≥ ν_B/2. Broadband: a Lorentzian of FWHM Δν has 1 − (2/π)·atan(ν_B/Δν) of its power beyond ±ν_B/2;
  * refuse Δν > ν_B/10, where that reaches 6 %.
  *
+ * Channels: cross beats between channels are dropped (docs/model.md, options), which needs their spectra apart.
+ * Besides the ten Brillouin linewidths every channel keeps, channels with modulated or broadband inputs keep
+ * each one's spectral half-width: Δf + f_m for a modulation (Carson), 5Δν for a broadband source (the ±5Δν that
+ * hold 94 % of a Lorentzian, the same cut as above).
+ *
  * Broadband delay: a port delayed by t_d reads its source's random walk from t = −t_d, one walk step per
  * 10⁻³ rad² of diffusion (source-phase.ts); |t_d| is held to the simulated window so that costs no more than
  * the window itself.
@@ -48,5 +53,20 @@ export function sourceLimitIssues(config: SimulationConfig): SourceLimitIssue[] 
       }
     }
   })
+  const halfWidthsMHz = config.channels.map((ch) =>
+    Math.max(0, ...channelInputs(ch).map(([, p]) => Math.max(p.modulation ? p.modulation.excursionMHz + p.modulation.rateMHz : 0, p.broadband ? 5 * p.broadband.linewidthMHz : 0))),
+  )
+  for (let i = 0; i < config.channels.length; i++) {
+    for (let j = i + 1; j < config.channels.length; j++) {
+      const extraMHz = halfWidthsMHz[i] + halfWidthsMHz[j]
+      const needGHz = (10 * config.waveguide.linewidthMHz + extraMHz) / 1000
+      if (extraMHz > 0 && Math.abs(config.channels[i].offsetGHz - config.channels[j].offsetGHz) < needGHz) {
+        out.push({
+          path: ['channels', j, 'offsetGHz'],
+          message: `Channels ${i + 1} and ${j + 1} must be at least ${needGHz.toPrecision(3)} GHz apart: 10 linewidths plus the spectral half-width of each one's modulated or broadband inputs`,
+        })
+      }
+    }
+  }
   return out
 }
