@@ -78,4 +78,10 @@ describe('gain-spectrum overlay', () => {
     const other = scan.metrics.filter((m) => m.key === 'reflectivity')
     expect(withGainOverlay(lineOption(scan, other, 'png'), scan, other).series).toHaveLength(1)
   })
+
+  it('draws no closed form for a waveguide whose response changes along z', () => {
+    const warm = chipConfig({ pulses: [], backgroundPowerW: 0.05 })
+    warm.waveguide.profile = { segments: [{ startM: 0.01, endM: 0.02, shiftOffsetMHz: 0, temperatureOffsetK: 20, strainMicro: 0 }] }
+    expect(gainOverlay(sweepOf(withSettledWindows(warm)))).toBeNull()
+  })
 })

@@ -6,6 +6,7 @@
 import type { MetricColumn, SweepDetail } from '@shared/api/sweeps'
 import { SETTLED_GAIN_COLUMN } from '@shared/analysis/sweep-metrics'
 import { cwStokesGainDb, gainDrive, gainLines } from '@shared/physics/gain-spectrum'
+import { profileIsActive } from '@shared/physics/longitudinal-profile'
 
 /** Samples of the closed-form curve across the axis: smooth at a few hundred pixels. */
 const CURVE_SAMPLES = 401
@@ -26,6 +27,8 @@ const GAIN_KEYS = ['peakStokesGainDb', 'ch1.peakStokesGainDb']
 /** The overlay of a one-axis detuning sweep with a gain column, or null for any other sweep. */
 export function gainOverlay(s: Pick<SweepDetail, 'axes' | 'axisValues' | 'baseConfig' | 'metrics'>): GainOverlay | null {
   if (s.axes.length !== 1 || s.axes[0].field !== 'detuningMHz') return null
+  // The closed form is that of a uniform guide: one whose response changes along z has none (its read-out is the sensing map).
+  if (profileIsActive(s.baseConfig.waveguide.profile)) return null
   const settled = s.metrics.find((m) => m.key === SETTLED_GAIN_COLUMN.key)
   const metric = settled ?? s.metrics.find((m) => GAIN_KEYS.includes(m.key))
   const xs = s.axisValues[0] ?? []
