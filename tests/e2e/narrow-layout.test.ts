@@ -11,15 +11,27 @@ let browser: Browser
 let editor: BrowserContext
 const paths: Record<string, string> = {}
 
+/** The little of the DOM the check uses (the Node-side type check has no DOM library). */
+interface El {
+  tagName: string
+  classList: Iterable<string>
+  parentElement: El | null
+  getBoundingClientRect(): { right: number; width: number; height: number }
+  closest(selector: string): El | null
+  querySelectorAll(selector: string): Iterable<El>
+  ownerDocument: { documentElement: { clientWidth: number }; defaultView: { getComputedStyle(e: El): { visibility: string } } }
+}
+
 /** Elements whose right edge passes the viewport's or their card's; scrolling table wrappers and overlays excepted. */
 function overflowing(page: Page): Promise<string[]> {
-  return page.locator('body').evaluate((body) => {
-    const vw = document.documentElement.clientWidth
-    const name = (el: Element) => `${el.tagName.toLowerCase()}${[...el.classList].slice(0, 2).map((c) => `.${c}`).join('')}`
+  return page.locator('body').evaluate((node) => {
+    const body = node as unknown as El
+    const vw = body.ownerDocument.documentElement.clientWidth
+    const name = (el: El) => `${el.tagName.toLowerCase()}${[...el.classList].slice(0, 2).map((c) => `.${c}`).join('')}`
     const out: string[] = []
     for (const el of body.querySelectorAll('*')) {
       const r = el.getBoundingClientRect()
-      if (r.width === 0 || r.height === 0 || getComputedStyle(el).visibility === 'hidden') continue
+      if (r.width === 0 || r.height === 0 || body.ownerDocument.defaultView.getComputedStyle(el).visibility === 'hidden') continue
       if (el.closest('.v-table__wrapper, .v-slide-group__container, .v-overlay-container, .v-navigation-drawer')) continue
       if (r.right > vw + 1) out.push(`${name(el)} ends at ${Math.round(r.right)} px, the viewport at ${vw}`)
       const card = el.parentElement?.closest('.v-card')
