@@ -94,8 +94,11 @@ export const RunListQuery = z.object({
   author: z.union([z.literal('me'), z.uuid()]).optional(),
   /** Matched against title and notes, case-insensitive. */
   q: safeText().trim().max(200).optional(),
-  /** Single runs, points of sweeps, or both. */
-  kind: z.enum(['all', 'single', 'sweep']).default('all'),
+  /**
+   * Single runs, points of sweeps, or both; `folded`: single runs and, for each sweep, only its first point's
+   * row (the client shows it as the sweep and lists the points on demand).
+   */
+  kind: z.enum(['all', 'single', 'sweep', 'folded']).default('all'),
   sort: RunSort.default('created_desc'),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(20),

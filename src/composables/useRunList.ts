@@ -9,7 +9,8 @@ export interface RunListFilters {
   status: RunState | null
   author: 'me' | 'all'
   q: string
-  kind: 'all' | 'single' | 'sweep'
+  /** folded: single runs and one row per sweep (default); single runs only; sweep points only. */
+  kind: 'folded' | 'single' | 'sweep'
 }
 export type TableSort = Array<{ key: string; order?: 'asc' | 'desc' | boolean }>
 
@@ -30,7 +31,7 @@ const SEARCH_DEBOUNCE_MS = 300
 /** The group's runs a page at a time, with filters; each row carries its waveguide name and key figure. */
 export function useRunList(initialPageSize = 20) {
   const session = useSessionStore()
-  const filters = reactive<RunListFilters>({ status: null, author: 'all', q: '', kind: 'all' })
+  const filters = reactive<RunListFilters>({ status: null, author: 'all', q: '', kind: 'folded' })
   const page = ref(1)
   const pageSize = ref(initialPageSize)
   const sortBy = ref<TableSort>([{ key: 'createdAt', order: 'desc' }])
@@ -41,7 +42,8 @@ export function useRunList(initialPageSize = 20) {
       status: filters.status ?? undefined,
       author: filters.author === 'me' ? 'me' : undefined,
       q: filters.q.trim() || undefined,
-      kind: filters.kind,
+      // A status asks about runs, so a sweep's points are then listed one by one (its first need not match).
+      kind: filters.kind === 'folded' && filters.status ? 'all' : filters.kind,
       sort: apiSort(sortBy.value),
       page: page.value,
       pageSize: pageSize.value,

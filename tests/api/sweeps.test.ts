@@ -101,6 +101,10 @@ describe('POST /api/sweeps', () => {
     expect(singles.items.map((r) => [r.title, r.sweepId])).toEqual([['A single run', null]])
     expect(all.total).toBe(4)
     expect((await get(`/runs?kind=sweeps`, m)).status).toBe(400)
+    // Folded: the single run and one row for the sweep (its first point's run), not its three points.
+    const folded = await list('folded')
+    expect(folded.total).toBe(2)
+    expect(folded.items.map((r) => [r.sweepId, r.sweepPoint]).sort()).toEqual([[null, null], [sweep.id, 0]].sort())
     // Leave nothing for the feeder tests below to find: they count what the feeder sends.
     expect((await post(`/sweeps/${sweep.id}/cancel`, m)).status).toBe(200)
   })

@@ -1,6 +1,7 @@
 // Sweep analysis in a real browser: a storage-time sweep of a lossless rib shows an exp(−Γτ) lifetime fit
 // whose energy lifetime matches the waveguide's 1/Γ_B, a CW pump-power sweep shows its small-signal gain
-// slope beside the closed form, and the log-axis switches redraw the chart's scale.
+// slope beside the closed form, and the log-axis switches redraw the chart's scale; the runs list shows each
+// sweep as one row that unfolds to its points.
 import { readFileSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
@@ -121,5 +122,24 @@ describe('sweep analysis', () => {
     await expect.poll(async () => (await chartTexts(page)).includes('0.2')).toBe(false)
     expect(await chartTexts(page)).toContain('0.1')
     await screenshot(page, 'sweep-gain-slope-log-x')
+  })
+
+  it('folds each sweep into one row of the runs list, which unfolds to its points numbered from 1', async () => {
+    await page.goto('/runs')
+    const table = page.getByRole('table', { name: 'Runs of the group' })
+    await table.getByRole('link', { name: 'E2E storage time', exact: true }).waitFor()
+    // One row per sweep, none per point: the point runs' own titles are not listed.
+    expect(await table.getByText('E2E storage time · point').count()).toBe(0)
+    expect(await table.getByText('5 of 5 succeeded').count()).toBe(1)
+
+    await table.getByRole('button', { name: 'Show the points of the sweep E2E storage time' }).click()
+    const points = page.getByRole('list', { name: 'Points of the sweep E2E storage time' })
+    await points.waitFor()
+    expect(await points.getByRole('link').allInnerTexts()).toEqual(['Point 1', 'Point 2', 'Point 3', 'Point 4', 'Point 5'])
+    await screenshot(page, 'runs-sweep-unfolded')
+
+    // The "Sweep points" filter lists the point runs themselves.
+    await page.getByRole('button', { name: 'Sweep points' }).click()
+    await table.getByText('E2E storage time · point 1 (Pulse centre (e.g. write–read delay) [read] = 2)').waitFor()
   })
 })

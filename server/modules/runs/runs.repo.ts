@@ -1,5 +1,5 @@
 // Reads of runs for the API; plain objects out. The worker's writes live in server/jobs/run-store.ts.
-import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, isNotNull, isNull, lt, or, type SQL } from 'drizzle-orm'
+import { and, asc, count, desc, eq, getTableColumns, ilike, inArray, isNotNull, isNull, lt, or, sql, type SQL } from 'drizzle-orm'
 import type { RunListQuery } from '@shared/api/runs'
 import type { Db } from '../../db/client'
 import { memberships, runArrays, runs, users, type Run } from '../../db/schema'
@@ -30,6 +30,9 @@ const SORTS: Record<RunListQuery['sort'], SQL[]> = {
   status: [asc(runs.status), desc(runs.createdAt)],
 }
 
+/** A sweep's head row: its lowest point's newest run (a re-run point has several). */
+const sweepHead = sql`${runs.id} = (select h.id from runs h where h.sweep_id = ${runs.sweepId} order by h.sweep_point, h.created_at desc, h.id desc limit 1)`
+
 /** Runs of the groups `userId` belongs to (or of `q.groupId`, already checked by the caller). */
 export async function listRuns(db: Db, userId: string, q: RunListQuery): Promise<{ rows: RunRow[]; total: number }> {
   const memberGroups = db.select({ id: memberships.groupId }).from(memberships).where(eq(memberships.userId, userId))
@@ -38,7 +41,7 @@ export async function listRuns(db: Db, userId: string, q: RunListQuery): Promise
     q.status ? eq(runs.status, q.status) : undefined,
     q.author ? eq(runs.authorId, q.author === 'me' ? userId : q.author) : undefined,
     q.q ? or(ilike(runs.title, `%${escapeLike(q.q)}%`), ilike(runs.notes, `%${escapeLike(q.q)}%`)) : undefined,
-    q.kind === 'single' ? isNull(runs.sweepId) : q.kind === 'sweep' ? isNotNull(runs.sweepId) : undefined,
+    q.kind === 'single' ? isNull(runs.sweepId) : q.kind === 'sweep' ? isNotNull(runs.sweepId) : q.kind === 'folded' ? or(isNull(runs.sweepId), sweepHead) : undefined,
   )
   const [rows, [{ n }]] = await Promise.all([
     db
