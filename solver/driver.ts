@@ -14,6 +14,9 @@ import { advectAcoustic, allocateState, fastPathApplies, interactGeneral, intera
 import { planStorageReference, type ReferencePlan } from './storage-reference'
 import { EngineUnavailableError, resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
 import { interactSveaKerr, kerrFastPathApplies } from './steppers/svea-kerr-kernel'
+import { interactSveaNoise, noiseFastPathApplies } from './steppers/svea-noise-kernel'
+import { higherOrderFastPathApplies, interactHigherOrder } from './steppers/higher-order-kernel'
+import { ZigguratNormal } from './steppers/ziggurat-normal'
 import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
 import { interactProfile, transportProfile } from './steppers/profile-kernel'
 
@@ -40,6 +43,9 @@ export class SimulationRun {
   private readonly fast: boolean
   /** One channel, SVEA, Kerr, no noise: the flat Kerr kernel (same bits as the general one). */
   private readonly kerrFast: boolean
+  /** One channel, SVEA, thermal noise, no Kerr / one channel, higher-order term, no Kerr: flat kernels (same bits). */
+  private readonly noiseFast: boolean
+  private readonly higherOrderFast: boolean
   /** Per-node constants of a waveguide with a longitudinal profile (its own kernel), else null. */
   readonly profile: ProfileArrays | null
   private readonly forceGeneral: boolean
@@ -79,9 +85,11 @@ export class SimulationRun {
     for (let j = 0; j < m.nodes; j++) this.zM[j] = j * m.dzM
     // A caller-supplied source of normal deviates replaces the seeded one (the exact-covariance tests feed
     // unit draws through it to read off the scheme's noise input map).
-    this.rng = config.options.noise.enabled ? (options.normalSource ?? new SeededRandom(config.options.noise.seed)) : null
+    this.rng = config.options.noise.enabled ? (options.normalSource ?? new ZigguratNormal(config.options.noise.seed)) : null
     this.fast = !this.profile && !this.forceGeneral && fastPathApplies(m)
     this.kerrFast = !this.profile && !this.forceGeneral && kerrFastPathApplies(m)
+    this.noiseFast = !this.profile && !this.forceGeneral && this.rng !== null && !this.fast && noiseFastPathApplies(m)
+    this.higherOrderFast = !this.profile && !this.forceGeneral && higherOrderFastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
@@ -156,6 +164,15 @@ export class SimulationRun {
         interactSveaKerr(m, s, 0, 0, 0.5)
         interactSveaKerr(m, s, 1, nz - 1, 1)
         interactSveaKerr(m, s, nz, nz, 0.5)
+      } else if (this.noiseFast) {
+        // Node order 0, 1..nz−1, nz: the order of the random draws (as the general kernel's).
+        interactSveaNoise(m, s, 0, 0, 0.5, this.rng!)
+        interactSveaNoise(m, s, 1, nz - 1, 1, this.rng!)
+        interactSveaNoise(m, s, nz, nz, 0.5, this.rng!)
+      } else if (this.higherOrderFast) {
+        interactHigherOrder(m, s, 0, 0, 0.5, this.rng)
+        interactHigherOrder(m, s, 1, nz - 1, 1, this.rng)
+        interactHigherOrder(m, s, nz, nz, 0.5, this.rng)
       } else {
         // Node order 0, 1..nz−1, nz: the order of the random draws.
         interactGeneral(m, s, 0, 0, 0.5, this.rng)

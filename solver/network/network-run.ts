@@ -12,7 +12,8 @@ import { buildModel, type Model } from '../problem/coupled-modes'
 import { planStorageReference, type ReferencePlan } from '../storage-reference'
 import type { FieldState } from '../steppers/interaction-kernel'
 import { noiseWeight } from '../steppers/general-kernel'
-import { SeededRandom } from '../steppers/seeded-random'
+import type { SeededRandom } from '../steppers/seeded-random'
+import { ZigguratNormal } from '../steppers/ziggurat-normal'
 import { allocateNetworkState, interactNetwork, type NetworkState } from './network-kernel'
 import { buildNetworkModel, type NetworkModel } from './network-model'
 import { pairResidualNote, waveFigures } from './wave-figures-observer'
@@ -67,7 +68,7 @@ export class NetworkRun {
     for (let n = 0; n <= m.nt; n++) this.timeNs[n] = n * m.dtS * 1e9
     this.zM = new Float64Array(m.nodes)
     for (let j = 0; j < m.nodes; j++) this.zM[j] = j * m.dzM
-    this.rng = config.options.noise.enabled ? new SeededRandom(config.options.noise.seed) : null
+    this.rng = config.options.noise.enabled ? new ZigguratNormal(config.options.noise.seed) : null
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)

@@ -44,7 +44,7 @@ const FN = new Float64Array(LAYERS)
 
 /** Seeded standard normal deviates by the ziggurat (the solver's default NormalSource). */
 export class ZigguratNormal extends SeededRandom {
-  normal(): number {
+  override normal(): number {
     const j = this.nextInt32()
     const i = j & (LAYERS - 1)
     // |j| as a double: −2³¹ has no int32 magnitude, and is never below any k_i (all < 2³¹), so it falls to the slow path.

@@ -1,0 +1,91 @@
+/*
+ * Fast path with the higher-order acoustic equation: one channel, no Kerr, thermal noise on or off. The steps
+ * of the contract in interaction-kernel.ts as `interactGeneral` computes them for that case (predictAcoustic,
+ * drawThermalNoise, averageAcoustic, exchangeOptics, correctHigherOrder), written flat per node with the
+ * general kernel's rounding order and draws, so the results are the same bits. y = (b, w = ∂t b); the ETD
+ * step of y' = A y + g with the 2×2 propagator E = e^{AΔt} and its φ-function weights P₀, P₁ (coupled-modes.ts):
+ *   D = iK·u·v*,  g = (0, f)·D = (−f·Im D, f·Re D),  f = −2Ω
+ *   predictor  b̃ = E₀₀b + E₀₁w + P₀,b·g₀ (+ P₀,b·(0, f)·F with noise),  b̄ = ½(b + b̃)
+ *   exchange with β = c·w_node·b̄ (Cayley, unitary)
+ *   corrector  y ← E y + (P₀ − P₁) g₀ + P₁ g₁ (+ P₀·(0, f)·F),  F = σ_w(ξ₁ + iξ₂)/√2 the Langevin force
+ *   held over the step, σ_w = σ_force/√w_node.
+ * tests/solver/higher-order-kernel.test.ts compares it with the general kernel bit for bit.
+ */
+import type { Model } from '../problem/coupled-modes'
+import type { FieldState } from './interaction-kernel'
+import { noiseWeight } from './general-kernel'
+import type { NormalSource } from './seeded-random'
+
+/** True when the single-channel higher-order path applies (higher-order term on, no Kerr; noise either way). */
+export function higherOrderFastPathApplies(m: Model): boolean {
+  return m.nCh === 1 && m.higherOrder !== null && m.kerrHalfPump === 0 && m.kerrHalfStokes === 0
+}
+
+/** The interaction step at nodes j0..j1 of trapezoid weight `weight`; `rng` null without noise. */
+export function interactHigherOrder(m: Model, s: FieldState, j0: number, j1: number, weight: number, rng: NormalSource | null): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm } = s
+  const ho = m.higherOrder!
+  const K = m.driveK
+  const f = ho.sourceFactor[1]
+  const c = m.exchangePerB * weight
+  const sd = m.noiseForceRms * Math.SQRT1_2 * noiseWeight(weight)
+  const e00r = ho.e00[0], e00i = ho.e00[1], e01r = ho.e01[0], e01i = ho.e01[1]
+  const e10r = ho.e10[0], e10i = ho.e10[1], e11r = ho.e11[0], e11i = ho.e11[1]
+  const p0br = ho.p0b[0], p0bi = ho.p0b[1], p0wr = ho.p0w[0], p0wi = ho.p0w[1]
+  const p1br = ho.p1b[0], p1bi = ho.p1b[1], p1wr = ho.p1w[0], p1wi = ho.p1w[1]
+  const qbr = p0br - p1br, qbi = p0bi - p1bi
+  const qwr = p0wr - p1wr, qwi = p0wi - p1wi
+  for (let j = j0; j <= j1; j++) {
+    const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j], wr = wRe[j], wi = wIm[j]
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const g0r = -f * d0i
+    const g0i = f * d0r
+    let tbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + p0br * g0r - p0bi * g0i
+    let tbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + p0br * g0i + p0bi * g0r
+    let gfr = 0, gfi = 0
+    if (rng !== null) {
+      const xr = sd * rng.normal()
+      const xi = sd * rng.normal()
+      gfr = -f * xi
+      gfi = f * xr
+      tbr += p0br * gfr - p0bi * gfi
+      tbi += p0br * gfi + p0bi * gfr
+    }
+    const bbr = 0.5 * (br + tbr)
+    const bbi = 0.5 * (bi + tbi)
+    // Exchange with b̄ frozen.
+    const betaR = c * bbr
+    const betaI = c * bbi
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + q)
+    const a = 1 - q
+    const nur = (a * ur - betaR * vi - betaI * vr) * den
+    const nui = (a * ui + betaR * vr - betaI * vi) * den
+    const nvr = (a * vr - betaR * ui + betaI * ur) * den
+    const nvi = (a * vi + betaR * ur + betaI * ui) * den
+    uRe[j] = nur
+    uIm[j] = nui
+    vRe[j] = nvr
+    vIm[j] = nvi
+    // Corrector: the ETD step with the source interpolated linearly over the step.
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const g1r = -f * d1i
+    const g1i = f * d1r
+    let nbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + qbr * g0r - qbi * g0i + p1br * g1r - p1bi * g1i
+    let nbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + qbr * g0i + qbi * g0r + p1br * g1i + p1bi * g1r
+    let nwr = e10r * br - e10i * bi + e11r * wr - e11i * wi + qwr * g0r - qwi * g0i + p1wr * g1r - p1wi * g1i
+    let nwi = e10r * bi + e10i * br + e11r * wi + e11i * wr + qwr * g0i + qwi * g0r + p1wr * g1i + p1wi * g1r
+    if (rng !== null) {
+      nbr += p0br * gfr - p0bi * gfi
+      nbi += p0br * gfi + p0bi * gfr
+      nwr += p0wr * gfr - p0wi * gfi
+      nwi += p0wr * gfi + p0wi * gfr
+    }
+    bRe[j] = nbr
+    bIm[j] = nbi
+    wRe[j] = nwr
+    wIm[j] = nwi
+  }
+}

@@ -1,0 +1,62 @@
+// The flat one-channel kernels for thermal noise (solver/steppers/svea-noise-kernel.ts) and for the
+// higher-order acoustic equation (higher-order-kernel.ts) against the general kernel they are written from:
+// whole runs with the same seed, every returned array compared bit for bit (Object.is on each number). The
+// flat kernels claim the general kernel's IEEE operations in its order and its order of random draws, so a
+// reordered sum, a draw taken out of turn or a wrong facet weight shows as a differing bit.
+import { readFileSync } from 'node:fs'
+import { describe, expect, it } from 'vitest'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { SimulationRun, simulateSync, type SimulationResult } from '../../solver/index'
+import { planGrid } from '../../solver/driver'
+import { chipConfig, gaussian } from './chip-fixtures'
+
+const VG = 299_792_458 / 2.44
+const cells = (n: number) => ({ timeStepPs: (0.05 / (VG * n)) * 1e12, mapRows: 32, mapCols: 32 })
+const crossing = { pump: { pulses: [gaussian(1, 1.5, 0.3)] }, stokes: { pulses: [gaussian(0.05, 1.5, 0.3)], backgroundPowerW: 1e-3 } }
+const example = (name: string) => SimulationConfig.parse(JSON.parse(readFileSync(new URL(`../../solver/examples/${name}.json`, import.meta.url), 'utf8')))
+const noise = (seed: number) => ({ enabled: true, temperatureK: 300, seed, zeroPoint: false })
+const withNoise = (c: SimulationConfig, seed: number): SimulationConfig => ({ ...c, options: { ...c.options, noise: noise(seed) } })
+
+const NOISE_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, lossy, crossing pulses, detuned, seed 5': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30 }, channels: [crossing], options: { noise: noise(5) } }),
+  'chip, 40 cells, CW pump only (spontaneous Stokes), acoustic advection, seed 9': chipConfig({ windowNs: 3, grid: cells(40), channels: [{ pump: { backgroundPowerW: 0.3 } }], options: { acousticAdvection: true, noise: noise(9) } }),
+  // The storage example forks its reference run mid-way; the fork continues the parent's stream of draws.
+  'storage 150 ps with its reference run, seed 2': withNoise(example('storage-150ps-svea'), 2),
+}
+
+const HIGHER_ORDER_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, 1 GHz shift, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: 20, waveguide: { brillouinShiftGHz: 1, lossDbPerM: 10 }, channels: [crossing], options: { higherOrderAcoustic: true } }),
+  'chip, 40 cells, 1 GHz shift, with noise, seed 3': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { brillouinShiftGHz: 1 }, channels: [crossing], options: { higherOrderAcoustic: true, noise: noise(3) } }),
+  'chip, 40 cells, 1 GHz shift, CW, advection, with noise, seed 4': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { brillouinShiftGHz: 1 }, channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }], options: { higherOrderAcoustic: true, acousticAdvection: true, noise: noise(4) } }),
+}
+
+/** The first number that differs between two runs (by array name and index), or null when every bit agrees. */
+function firstDifference(a: SimulationResult, b: SimulationResult): string | null {
+  const names = Object.keys(a.arrays)
+  if (names.join() !== Object.keys(b.arrays).join()) return `array names ${names} vs ${Object.keys(b.arrays)}`
+  for (const name of names) {
+    const x = a.arrays[name], y = b.arrays[name]
+    if (x.length !== y.length) return `${name}: length ${x.length} vs ${y.length}`
+    for (let i = 0; i < x.length; i++) if (!Object.is(x[i], y[i])) return `${name}[${i}]: ${x[i]} vs ${y[i]}`
+  }
+  return null
+}
+
+function compare(config: SimulationConfig, flag: 'noiseFast' | 'higherOrderFast'): void {
+  // The automatic choice takes the flat kernel (read off the run, so the comparison is not general vs general).
+  expect(new SimulationRun(config, planGrid(config))[flag]).toBe(true)
+  const flat = simulateSync(config, { engine: 'ts' })
+  const general = simulateSync(config, { engine: 'ts', forceGeneralKernel: true })
+  expect(flat.status).toBe('finished')
+  expect(general.status).toBe('finished')
+  expect(flat.channels[0].stokesOut.some((x) => x !== 0)).toBe(true)
+  expect(firstDifference(flat, general)).toBeNull()
+}
+
+describe('flat thermal-noise kernel: bit-identical to the general kernel', () => {
+  for (const [name, config] of Object.entries(NOISE_CASES)) it(name, () => compare(config, 'noiseFast'))
+})
+
+describe('flat higher-order kernel: bit-identical to the general kernel', () => {
+  for (const [name, config] of Object.entries(HIGHER_ORDER_CASES)) it(name, () => compare(config, 'higherOrderFast'))
+})
