@@ -19,6 +19,8 @@ import { higherOrderFastPathApplies, interactHigherOrder } from './steppers/high
 import { ZigguratNormal } from './steppers/ziggurat-normal'
 import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
 import { interactProfile, transportProfile } from './steppers/profile-kernel'
+import { ThreadedSveaEngine } from './engine/threaded-engine'
+import { resolveThreads, type ThreadChoice } from './engine/thread-choice'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -51,7 +53,9 @@ export class SimulationRun {
   private readonly forceGeneral: boolean
   /** The engine asked for, and the WebAssembly engine when this run uses it (engine/wasm-engine.ts). */
   private readonly engineChoice: EngineChoice
-  private readonly wasm: WasmSveaEngine | null
+  private readonly wasm: WasmSveaEngine | ThreadedSveaEngine | null
+  /** Threads advancing this run (engine/thread-choice.ts); more than one only on the threaded engine. */
+  readonly threads: number
   /** Storage runs: the same run without the read pulses, forked at plan.forkN (storage-reference.ts). */
   private referencePlan: ReferencePlan | null = null
   private reference: SimulationRun | null = null
@@ -61,7 +65,7 @@ export class SimulationRun {
   constructor(
     readonly config: SimulationConfig,
     readonly grid: GridChoice,
-    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice } = {},
+    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice; threads?: ThreadChoice } = {},
   ) {
     const m = (this.model = buildModel(config, grid))
     this.forceGeneral = options.forceGeneralKernel ?? false
@@ -69,7 +73,9 @@ export class SimulationRun {
     this.profile = buildProfileModel(config, grid, m)
     // A forced engine never falls back silently (engine/wasm-engine.ts).
     if (this.profile && this.engineChoice === 'wasm' && !this.forceGeneral) throw new EngineUnavailableError('The WebAssembly engine computes a uniform waveguide only; sections along the length run in TypeScript')
-    this.wasm = !this.profile && resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? new WasmSveaEngine(m) : null
+    const engine = !this.profile && resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? 'wasm' : 'ts'
+    this.threads = resolveThreads(options.threads ?? 'auto', m, engine, this.profile !== null)
+    this.wasm = engine === 'ts' ? null : this.threads > 1 ? new ThreadedSveaEngine(m, this.threads) : new WasmSveaEngine(m)
     this.state = this.wasm?.state ?? allocateState(m)
     this.traces = config.channels.map((ch) => ({
       pumpIn: sampleInput(ch.pump, m.nt, m.dtS),
@@ -98,6 +104,11 @@ export class SimulationRun {
   /** Which code advances this run. */
   get engine(): 'ts' | 'wasm' {
     return this.wasm ? 'wasm' : 'ts'
+  }
+
+  /** Ends the helper threads of a threaded run (done by itself at the end of the run; call it on abort). */
+  close(): void {
+    if (this.wasm instanceof ThreadedSveaEngine) this.wasm.close()
   }
 
   get done(): boolean {
@@ -131,7 +142,8 @@ export class SimulationRun {
 
   /** A companion run with other inputs, continuing from this run's present state. */
   private fork(config: SimulationConfig): SimulationRun {
-    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral, engine: this.engineChoice })
+    // One thread: the run itself already has the helper a run may use.
+    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral, engine: this.engineChoice, threads: 1 })
     c.referencePlan = null
     c.recordMaps = false
     for (const key of ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm', 'wRe', 'wIm'] as const) c.state[key].set(this.state[key])
@@ -195,6 +207,7 @@ export class SimulationRun {
       }
     }
     this.n = Math.max(this.n, end)
+    if (this.done) this.close()
   }
 
   /** True if every value written so far is finite (a guard: never hand out a NaN result). */

@@ -15,6 +15,7 @@ import type { ChannelTraces } from './observers/figures-of-merit'
 import { postRunWarnings } from './observers/warnings'
 import { portSpectra, portTracesOf } from './observers/port-spectra'
 import { ENGINE_CHOICES, EngineUnavailableError, type EngineChoice } from './engine/wasm-engine'
+import { ThreadCountError, type ThreadChoice } from './engine/thread-choice'
 
 export const SOLVER_VERSION = '0.1.0'
 export { SOLVER_LIMITS, SimulationRun, ENGINE_CHOICES, type EngineChoice }
@@ -46,6 +47,8 @@ export interface SimulateOptions {
   forceGeneralKernel?: boolean
   /** 'auto' (default): the WebAssembly engine where it covers the options, else TypeScript; 'ts' or 'wasm' to force one. */
   engine?: EngineChoice
+  /** 'auto' (default): two threads on a large plain run when the machine has a second core; 1 or 2 to force (engine/thread-choice.ts). */
+  threads?: ThreadChoice
 }
 
 export interface SimulationResult {
@@ -95,11 +98,13 @@ function prepare(input: unknown, opts: SimulateOptions): Prepared {
   if (problems.length > 0) return { run: null, failure: failed('The run exceeds the solver limits', problems) }
   try {
     if (usesWaveNetwork(config)) {
+      if (typeof opts.threads === 'number' && opts.threads > 1) throw new ThreadCountError('Two threads compute the plain pump–Stokes pair only; co-propagating probes, further or forward resonances and cascades run on one thread')
       if (opts.engine === 'wasm') throw new EngineUnavailableError('The WebAssembly engine computes the plain pump–Stokes pair only; co-propagating probes, further or forward resonances and cascades run in TypeScript')
       return { run: new NetworkRun(config, grid), failure: null }
     }
-    return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine }), failure: null }
+    return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine, threads: opts.threads }), failure: null }
   } catch (err) {
+    if (err instanceof ThreadCountError) return { run: null, failure: failed(err.message, [{ path: 'threads', message: 'choose one thread or the automatic choice for this configuration' }]) }
     if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: 'choose the TypeScript engine (ts) or the automatic choice (auto) for this configuration' }]) }
     throw err
   }
@@ -178,6 +183,8 @@ class Loop {
   }
 
   finish(status: RunStatus, message: string): SimulationResult {
+    // A stopped or failed run ends its helper threads here (a finished one has already).
+    if (this.run instanceof SimulationRun) this.run.close()
     this.emitFrame()
     return assemble(this.run, status, message, (now() - this.t0) / 1000)
   }

@@ -3,6 +3,7 @@
 // a message in our words (which option, what it needs) instead of Node's.
 import { parseArgs as parseArgv } from 'node:util'
 import { ENGINE_CHOICES, type EngineChoice } from '../engine/wasm-engine'
+import { MAX_THREADS } from '../engine/thread-choice'
 
 export interface SolveArgs {
   mode: 'solve' | 'schema' | 'help'
@@ -11,15 +12,18 @@ export interface SolveArgs {
   force: boolean
   /** Absent: automatic choice. */
   engine?: EngineChoice
+  /** Absent: automatic choice. */
+  threads?: number
 }
 
 export const USAGE = `Usage:
-  npm run solve -- CONFIG.json --out DIR [--force] [--engine E]   run a simulation, write DIR/manifest.json and one .npy per array
+  npm run solve -- CONFIG.json --out DIR [--force] [--engine E] [--threads N]   run a simulation, write DIR/manifest.json and one .npy per array
   npm run solve -- --schema                          print the JSON Schema of the configuration
 Options:
   --out DIR    output directory (must not exist or be empty, unless --force replaces it)
   --force      replace an existing output directory
   --engine E   the step engine: auto (default: WebAssembly where it covers the options, else TypeScript), ts or wasm
+  --threads N  threads on one run, 1 or 2 (default: 2 on a long plain run when a core is idle, else 1)
   --help       this text
 Exit codes: 0 done, 1 the run failed, 2 bad input or over the resource limits, 130 interrupted.`
 
@@ -28,6 +32,7 @@ export class UsageError extends Error {}
 const OPTIONS = {
   out: { type: 'string', short: 'o' },
   engine: { type: 'string' },
+  threads: { type: 'string' },
   force: { type: 'boolean' },
   schema: { type: 'boolean' },
   help: { type: 'boolean', short: 'h' },
@@ -59,6 +64,12 @@ export function parseArgs(argv: string[]): SolveArgs {
     if (t.name === 'engine') {
       if (!ENGINE_CHOICES.includes(t.value as EngineChoice)) throw new UsageError(`--engine takes ${ENGINE_CHOICES.join(', ')}`)
       args.engine = t.value as EngineChoice
+      continue
+    }
+    if (t.name === 'threads') {
+      const n = Number(t.value)
+      if (t.value === undefined || !/^\d+$/.test(t.value) || n < 1 || n > MAX_THREADS) throw new UsageError(`--threads takes a whole number from 1 to ${MAX_THREADS}`)
+      args.threads = n
       continue
     }
     // Without '=', a value starting with '-' is most likely the next option, not a directory.

@@ -94,7 +94,7 @@ export async function main(argv: string[]): Promise<number> {
   try {
     const startedAt = new Date()
     const progress = progressSink(process.stdout)
-    const result = await simulate(config, { onProgress: (f) => progress.update(f), signal: controller.signal, engine: args.engine })
+    const result = await simulate(config, { onProgress: (f) => progress.update(f), signal: controller.signal, engine: args.engine, threads: args.threads })
     progress.done()
     if (result.status === 'aborted' || controller.signal.aborted) {
       err(`Interrupted (${result.message}); nothing was written.`)

@@ -1,0 +1,90 @@
+/*
+ * The work of the threaded step (engine/threaded-engine.ts) as plain JavaScript source: the helper thread
+ * evaluates it without a TypeScript loader (it starts in tens of milliseconds, not half a second), and the
+ * run's own thread builds its stepper from the same text, so every thread runs the same code.
+ *
+ * The nodes 0..nz are cut into contiguous chunks of `size` nodes; chunk k is [a, b] = [k·size, min(nz, a+size−1)].
+ *  step(k):      sveaBlock on the chunk's interior nodes with c/2 and on a facet node (0 or nz) with c/4 — the
+ *                driver's weights; then the chunk publishes its edge values for its neighbours' shift:
+ *                u[b] (the next chunk's incoming pump) and v[a] (the previous chunk's incoming Stokes).
+ *  transport(k): the engine's shift inside the chunk (u[a+1..b] ← u[a..b−1], v[a..b−1] ← v[a+1..b], times the
+ *                loss per cell), then the two cells that cross a chunk boundary, from the published edges:
+ *                u[a] ← u[a−1]·loss, v[b] ← v[b+1]·loss. A barrier separates the two phases, so an edge is read
+ *                after its chunk wrote it and before anyone shifts it.
+ * edges holds 4 numbers per chunk: uRe[b], uIm[b], vRe[a], vIm[a].
+ */
+export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
+  const [pu, pui, pv, pvi, pb, pbi] = d.at
+  const ou = pu / 8, oui = pui / 8, ov = pv / 8, ovi = pvi / 8
+  const nz = d.nz, size = d.size, e = d.edges, loss = d.loss
+  const K = d.K, Er = d.Er, Ei = d.Ei, h = d.h, cInner = 0.5 * d.c, cFacet = 0.25 * d.c
+  return {
+    step(k) {
+      const a = k * size, b = Math.min(nz, a + size - 1)
+      const j0 = Math.max(a, 1), j1 = Math.min(b, nz - 1)
+      if (j0 <= j1) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, j0, j1, K, cInner, Er, Ei, h)
+      if (a === 0) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, 0, 0, K, cFacet, Er, Ei, h)
+      if (b === nz) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, nz, nz, K, cFacet, Er, Ei, h)
+      e[4 * k] = f64[ou + b]
+      e[4 * k + 1] = f64[oui + b]
+      e[4 * k + 2] = f64[ov + a]
+      e[4 * k + 3] = f64[ovi + a]
+    },
+    transport(k) {
+      const a = k * size, b = Math.min(nz, a + size - 1)
+      fn.transport(pu + 8 * a, pui + 8 * a, pv + 8 * a, pvi + 8 * a, b - a, loss)
+      if (a > 0) {
+        f64[ou + a] = loss !== 1 ? e[4 * k - 4] * loss : e[4 * k - 4]
+        f64[oui + a] = loss !== 1 ? e[4 * k - 3] * loss : e[4 * k - 3]
+      }
+      if (b < nz) {
+        f64[ov + b] = loss !== 1 ? e[4 * k + 6] * loss : e[4 * k + 6]
+        f64[ovi + b] = loss !== 1 ? e[4 * k + 7] * loss : e[4 * k + 7]
+      }
+    },
+  }
+}
+
+/* Takes chunks of the present phase until none is left; returns how many it did. ctrl[0] is the phase word:
+ * bits 31..17 the phase number, bit 16 the operation (0 step, 1 transport), bits 15..0 the next chunk. A
+ * compare-exchange claims one chunk, so a thread that wakes up late cannot take a chunk of a phase gone by. */
+function takeChunks(ctrl, stepper, chunks, word) {
+  const phase = word >>> 16
+  let done = 0
+  for (;;) {
+    const w = Atomics.load(ctrl, 0)
+    const k = w & 0xffff
+    if (w >>> 16 !== phase || k >= chunks) return done
+    if (Atomics.compareExchange(ctrl, 0, w, w + 1) !== w) continue
+    if (phase & 1) stepper.transport(k)
+    else stepper.step(k)
+    done++
+    // ctrl[1] counts the chunks finished in this phase; the run's thread waits for all of them.
+    if (Atomics.add(ctrl, 1, 1) + 1 === chunks && Atomics.load(ctrl, 3) === 1) Atomics.notify(ctrl, 1)
+  }
+}`
+
+/*
+ * A helper thread: takes chunks whenever a phase has some left; otherwise spins a bounded number of times,
+ * then sleeps in Atomics.wait with its "asleep" flag (ctrl[2]) raised, so the run's thread knows to notify it.
+ * ctrl: [0] phase word, [1] chunks finished, [2] helpers asleep, [3] run's thread asleep, [4] exit.
+ */
+export const HELPER_SOURCE = `${CHUNK_STEPPER_SOURCE}
+const { workerData: d } = require('node:worker_threads')
+const fn = new WebAssembly.Instance(d.module, { env: { memory: d.memory } }).exports
+const ctrl = new Int32Array(d.ctrl)
+const stepper = chunkStepper(fn, new Float64Array(d.memory.buffer), { ...d, edges: new Float64Array(d.edges) })
+let spins = 0
+while (Atomics.load(ctrl, 4) === 0) {
+  const w = Atomics.load(ctrl, 0)
+  if ((w & 0xffff) < d.chunks && takeChunks(ctrl, stepper, d.chunks, w) > 0) {
+    spins = 0
+    continue
+  }
+  if (++spins < d.spins) continue
+  Atomics.add(ctrl, 2, 1)
+  Atomics.wait(ctrl, 0, w)
+  Atomics.sub(ctrl, 2, 1)
+  spins = 0
+}
+`

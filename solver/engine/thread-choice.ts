@@ -1,0 +1,51 @@
+// How many threads advance one run: 1, or 2 with z cut into chunks the threads share (engine/threaded-engine.ts).
+// Automatic: two when the run is on the WebAssembly engine's plain SVEA path, the grid is long enough for the
+// per-step barriers to pay (THREAD_MIN_NZ, measured by `npm run bench -- --threads`, benchmarks/README.md),
+// the run is long enough to pay the helper's start, and the machine has a core to spare: at least two cores
+// and a load average (runnable threads, this run's own included) below cores − ½. A server's solver threads
+// that are computing count in the load, so a run takes the helper only while another core idles; a busy
+// machine keeps one thread per run (and a helper would only wait for its turn at every barrier there).
+import { availableParallelism, loadavg } from 'node:os'
+import type { Model } from '../problem/coupled-modes'
+import { fastPathApplies } from '../steppers/interaction-kernel'
+import { EngineUnavailableError } from './wasm-engine'
+
+/** 'auto' (default) or a forced thread count. */
+export type ThreadChoice = 'auto' | number
+/** Largest count the options accept: one helper thread beside the run's own (docs/numerics.md, "Threaded step"). */
+export const MAX_THREADS = 2
+/** Shortest grid (cells) on which two threads beat one on this machine's measurement. */
+export const THREAD_MIN_NZ = 4000
+/** Node-steps below which the helper's start (tens of ms) is not paid back. */
+const THREAD_MIN_NODE_STEPS = 2e7
+
+/** A forced thread count this run cannot use; the message is for the user. */
+export class ThreadCountError extends EngineUnavailableError {}
+
+/** Why the threaded engine cannot run this model (a sentence for the user), or null when it can. */
+export function threadProblem(m: Model, engine: 'ts' | 'wasm', profile: boolean): string | null {
+  if (profile || !fastPathApplies(m) || m.advectionCourant > 0) return 'Two threads cover a uniform waveguide, one channel with the slowly varying acoustic envelope, no Kerr effect, no thermal noise and no acoustic advection'
+  if (engine !== 'wasm') return 'Two threads run on the WebAssembly engine only; choose the automatic or the WebAssembly engine'
+  return null
+}
+
+/** What the automatic choice looks at besides the model (tests pass their own). */
+export interface MachineLoad {
+  cores: number
+  /** One-minute load average; 0 where the system gives none. */
+  load: number
+}
+const machineNow = (): MachineLoad => ({ cores: availableParallelism(), load: loadavg()[0] })
+
+/** The thread count of a run; a forced count above 1 that cannot run throws ThreadCountError. */
+export function resolveThreads(choice: ThreadChoice, m: Model, engine: 'ts' | 'wasm', profile: boolean, machine: () => MachineLoad = machineNow): number {
+  if (choice !== 'auto') {
+    if (!Number.isInteger(choice) || choice < 1 || choice > MAX_THREADS) throw new ThreadCountError(`The thread count is 1 or ${MAX_THREADS}`)
+    const problem = choice > 1 ? threadProblem(m, engine, profile) : null
+    if (problem) throw new ThreadCountError(problem)
+    return choice
+  }
+  if (threadProblem(m, engine, profile) || m.nz < THREAD_MIN_NZ || m.nodes * (m.nt + 1) < THREAD_MIN_NODE_STEPS) return 1
+  const { cores, load } = machine()
+  return cores >= 2 && load < cores - 0.5 ? 2 : 1
+}

@@ -1,0 +1,151 @@
+/*
+ * The threaded step engine: the plain single-channel SVEA step of the WebAssembly engine with z cut into
+ * contiguous chunks that the run's own thread and its helper threads (node:worker_threads) take in turn
+ * (docs/numerics.md, "Threaded step"). The field arrays live in one shared WebAssembly memory (the shared
+ * build of the same AssemblyScript source). Each phase — the interaction step, the transport shift — ends at
+ * a barrier (Atomics on a SharedArrayBuffer: a bounded spin, then Atomics.wait), so the driver's port
+ * recording, maps and boundary injection see a whole step, as with one thread. Chunks are taken, not dealt:
+ * on a loaded machine a helper that is not scheduled leaves its share to the others instead of holding
+ * everyone at the barrier.
+ *
+ * Why the bits are those of one thread: the interaction of a node reads and writes that node only, in the
+ * same lane arithmetic whatever chunk it falls in (assembly/svea-step.ts); the shift moves numbers and
+ * multiplies each once by the same loss; the number at each chunk edge that crosses into the neighbour is
+ * handed over through `edges` (engine/block-step-source.ts) and multiplied the same way.
+ */
+import type { Model } from '../problem/coupled-modes'
+import type { FieldState } from '../steppers/interaction-kernel'
+import { CHUNK_STEPPER_SOURCE, HELPER_SOURCE } from './block-step-source'
+import { SVEA_STEP_SHARED_WASM_BASE64 } from './svea-step-binary'
+import { Worker } from 'node:worker_threads'
+
+interface WasmApi {
+  Module: new (bytes: Uint8Array) => object
+  Instance: new (module: object, imports: object) => { exports: unknown }
+  Memory: new (descriptor: { initial: number; maximum: number; shared: boolean }) => { buffer: SharedArrayBuffer }
+}
+const wasm = (globalThis as unknown as { WebAssembly: WasmApi }).WebAssembly
+
+interface Stepper {
+  step(k: number): void
+  transport(k: number): void
+}
+type StepperFactory = (fn: unknown, f64: Float64Array, d: object) => Stepper
+type TakeChunks = (ctrl: Int32Array, stepper: Stepper, chunks: number, word: number) => number
+const [chunkStepper, takeChunks] = new Function(`${CHUNK_STEPPER_SOURCE}; return [chunkStepper, takeChunks]`)() as [StepperFactory, TakeChunks]
+
+let compiled: object | null = null
+const sharedModule = () => (compiled ??= new wasm.Module(Uint8Array.from(atob(SVEA_STEP_SHARED_WASM_BASE64), (ch) => ch.charCodeAt(0))))
+
+const PAGE_BYTES = 65536
+const BASE_BYTES = PAGE_BYTES
+/** Nodes per chunk: ~5 µs of work, so claiming one (a compare-exchange) costs nothing; ≤ 65535 chunks per phase. */
+export const CHUNK_NODES = 512
+/** Spins before sleeping: tens of µs, longer than the gap between two phases of a large grid. */
+const SPINS = 20_000
+/** A helper that has not finished its chunk in this time has died: the run fails rather than hangs. */
+const STALL_MS = 30_000
+const OP_STEP = 0
+const OP_TRANSPORT = 1
+// ctrl slots (engine/block-step-source.ts).
+const WORD = 0
+const FINISHED = 1
+const HELPERS_ASLEEP = 2
+const MAIN_ASLEEP = 3
+const EXIT = 4
+
+export class ThreadedSveaEngine {
+  readonly state: FieldState
+  private readonly ctrl: Int32Array
+  private readonly stepper: Stepper
+  private readonly helpers: Worker[] = []
+  private readonly chunks: number
+  private phase = 0
+  private closed = false
+
+  /** `threads` − 1 helpers start here; `chunkNodes` is a testing aid (any value gives the same bits). */
+  constructor(
+    m: Model,
+    readonly threads: number,
+    chunkNodes = CHUNK_NODES,
+  ) {
+    const n = m.nodes
+    const size = Math.max(chunkNodes, Math.ceil(n / 0xffff))
+    this.chunks = Math.ceil(n / size)
+    const stride = Math.ceil((8 * n) / 16) * 16
+    const pages = Math.ceil((BASE_BYTES + 6 * stride) / PAGE_BYTES)
+    const memory = new wasm.Memory({ initial: pages, maximum: pages, shared: true })
+    const module = sharedModule()
+    const fn = new wasm.Instance(module, { env: { memory } }).exports
+    const at = [0, 1, 2, 3, 4, 5].map((i) => BASE_BYTES + i * stride)
+    const view = (i: number) => new Float64Array(memory.buffer, at[i], n)
+    const none = new Float64Array(0)
+    this.state = { uRe: view(0), uIm: view(1), vRe: view(2), vIm: view(3), bRe: view(4), bIm: view(5), wRe: none, wIm: none, scratch: none }
+    const ctrl = new SharedArrayBuffer(4 * 8)
+    const edges = new SharedArrayBuffer(8 * 4 * this.chunks)
+    this.ctrl = new Int32Array(ctrl)
+    // Chunk index = chunks: no work until the first phase.
+    this.ctrl[WORD] = this.chunks
+    const d = { nz: m.nz, size, chunks: this.chunks, at, K: m.driveK, c: m.exchangePerB, Er: m.svea.eRe, Ei: m.svea.eIm, h: m.dtS, loss: m.lossPerCell }
+    this.stepper = chunkStepper(fn, new Float64Array(memory.buffer), { ...d, edges: new Float64Array(edges) })
+    for (let t = 1; t < threads; t++) {
+      const w = new Worker(HELPER_SOURCE, { eval: true, workerData: { ...d, module, memory, ctrl, edges, spins: SPINS } })
+      // A helper never keeps the process alive; close() ends it.
+      w.unref()
+      this.helpers.push(w)
+    }
+  }
+
+  /** The interaction step at every node. */
+  step(): void {
+    this.run(OP_STEP)
+  }
+
+  /** The exact shift along the characteristics, the cells crossing a chunk edge from the published edges. */
+  transport(): void {
+    this.run(OP_TRANSPORT)
+  }
+
+  /** Ends the helper threads (the field arrays stay readable). Idempotent. */
+  close(): void {
+    if (this.closed) return
+    this.closed = true
+    const c = this.ctrl
+    Atomics.store(c, EXIT, 1)
+    Atomics.store(c, WORD, this.chunks)
+    Atomics.notify(c, WORD)
+    for (const w of this.helpers) void w.terminate()
+  }
+
+  private run(op: number): void {
+    if (this.closed) throw new Error('ThreadedSveaEngine: used after close()')
+    const c = this.ctrl
+    this.phase = (this.phase + 1) & 0x7fff
+    const word = ((this.phase << 17) | (op << 16)) | 0
+    Atomics.store(c, FINISHED, 0)
+    Atomics.store(c, WORD, word)
+    if (Atomics.load(c, HELPERS_ASLEEP) > 0) Atomics.notify(c, WORD)
+    takeChunks(c, this.stepper, this.chunks, word)
+    this.barrier()
+  }
+
+  /** Waits until every chunk of the present phase is finished (some may still be in a helper's hands). */
+  private barrier(): void {
+    const c = this.ctrl
+    let spins = 0
+    const since = Date.now()
+    for (;;) {
+      const finished = Atomics.load(c, FINISHED)
+      if (finished === this.chunks) return
+      if (++spins < SPINS) continue
+      Atomics.store(c, MAIN_ASLEEP, 1)
+      Atomics.wait(c, FINISHED, finished, 100)
+      Atomics.store(c, MAIN_ASLEEP, 0)
+      spins = 0
+      if (Date.now() - since > STALL_MS) {
+        this.close()
+        throw new Error('A solver helper thread stopped responding')
+      }
+    }
+  }
+}

@@ -1,0 +1,68 @@
+// When a run gets a second thread (solver/engine/thread-choice.ts): automatically only on the WebAssembly
+// engine's plain SVEA path, on a long grid and a long run, with a second core idle; forced counts are
+// honoured or refused with the reason, never silently replaced.
+import { describe, expect, it } from 'vitest'
+import { planGrid, SimulationRun } from '../../solver/driver'
+import { buildModel } from '../../solver/problem/coupled-modes'
+import { resolveThreads, THREAD_MIN_NZ, ThreadCountError } from '../../solver/engine/thread-choice'
+import { simulateSync } from '../../solver/index'
+import { chipConfig } from './chip-fixtures'
+
+const VG = 299_792_458 / 2.44
+const cells = (n: number) => ({ timeStepPs: (0.05 / (VG * n)) * 1e12, mapRows: 16, mapCols: 16 })
+const cw = [{ pump: { backgroundPowerW: 0.5 }, stokes: { backgroundPowerW: 1e-3 } }]
+const modelOf = (nz: number, extra: Parameters<typeof chipConfig>[0] = {}) => {
+  const config = chipConfig({ windowNs: 2, grid: cells(nz), channels: cw, ...extra })
+  return buildModel(config, planGrid(config))
+}
+const idle = () => ({ cores: 2, load: 0.9 })
+const busy = () => ({ cores: 2, load: 2.1 })
+const oneCore = () => ({ cores: 1, load: 0 })
+
+describe('automatic thread count', () => {
+  const large = modelOf(THREAD_MIN_NZ)
+  it('two on a long plain grid with an idle second core', () => {
+    expect(large.nodes * (large.nt + 1)).toBeGreaterThan(2e7)
+    expect(resolveThreads('auto', large, 'wasm', false, idle)).toBe(2)
+  })
+  it('one on a busy machine or a single core', () => {
+    expect(resolveThreads('auto', large, 'wasm', false, busy)).toBe(1)
+    expect(resolveThreads('auto', large, 'wasm', false, oneCore)).toBe(1)
+  })
+  it('one below the measured break-even grid', () => {
+    expect(resolveThreads('auto', modelOf(THREAD_MIN_NZ - 1), 'wasm', false, idle)).toBe(1)
+  })
+  it('one on the TypeScript engine and for options outside the plain path', () => {
+    expect(resolveThreads('auto', large, 'ts', false, idle)).toBe(1)
+    expect(resolveThreads('auto', large, 'wasm', true, idle)).toBe(1)
+    const kerr = modelOf(THREAD_MIN_NZ, { waveguide: { kerrN2M2PerW: 1e-17 }, options: { kerr: true } })
+    expect(resolveThreads('auto', kerr, 'wasm', false, idle)).toBe(1)
+    const advection = modelOf(THREAD_MIN_NZ, { options: { acousticAdvection: true } })
+    expect(resolveThreads('auto', advection, 'wasm', false, idle)).toBe(1)
+  })
+})
+
+describe('forced thread count', () => {
+  const small = modelOf(41)
+  it('is honoured on the plain path whatever the size and load', () => {
+    expect(resolveThreads(2, small, 'wasm', false, busy)).toBe(2)
+    expect(resolveThreads(1, modelOf(THREAD_MIN_NZ), 'wasm', false, idle)).toBe(1)
+  })
+  it('is refused with the reason outside it, or out of range', () => {
+    expect(() => resolveThreads(2, small, 'ts', false, idle)).toThrow(ThreadCountError)
+    expect(() => resolveThreads(2, small, 'ts', false, idle)).toThrow('WebAssembly engine only')
+    const noise = modelOf(41, { options: { noise: { enabled: true, temperatureK: 300, seed: 1 } } })
+    expect(() => resolveThreads(2, noise, 'wasm', false, idle)).toThrow('no thermal noise')
+    expect(() => resolveThreads(3, small, 'wasm', false, idle)).toThrow('The thread count is 1 or 2')
+  })
+  it('reaches the run, and a refusal is a failed run naming the threads option', () => {
+    const config = chipConfig({ windowNs: 2, grid: cells(41), channels: cw })
+    const run = new SimulationRun(config, planGrid(config), { threads: 2 })
+    expect(run.threads).toBe(2)
+    run.close()
+    expect(new SimulationRun(config, planGrid(config), { threads: 1 }).threads).toBe(1)
+    const refused = simulateSync(config, { threads: 2, engine: 'ts' })
+    expect(refused.status).toBe('failed')
+    expect(refused.manifest.issues?.map((i) => i.path)).toEqual(['threads'])
+  })
+})

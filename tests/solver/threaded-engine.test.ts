@@ -1,0 +1,103 @@
+// Two threads on one run (solver/engine/threaded-engine.ts) against one thread: the interaction of a node
+// touches that node only and the transport is an exact shift, so cutting z into chunks must not change one
+// bit (docs/numerics.md, "Threaded step"). Whole runs compare every returned array with Object.is; the engine
+// alone is stepped against the one-thread engine with chunks of 1, 2, 3 and 7 nodes and up to 4 threads,
+// odd and even cell counts, so every chunk edge case (a facet inside a chunk, a one-node chunk) is crossed.
+import { readFileSync } from 'node:fs'
+import { describe, expect, it } from 'vitest'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { simulateSync, type SimulationResult } from '../../solver/index'
+import { planGrid } from '../../solver/driver'
+import { buildModel } from '../../solver/problem/coupled-modes'
+import { ThreadedSveaEngine } from '../../solver/engine/threaded-engine'
+import { WasmSveaEngine } from '../../solver/engine/wasm-engine'
+import { chipConfig, gaussian } from './chip-fixtures'
+
+const VG = 299_792_458 / 2.44
+const cells = (n: number) => ({ timeStepPs: (0.05 / (VG * n)) * 1e12, mapRows: 32, mapCols: 32 })
+const crossing = { pump: { pulses: [gaussian(1, 1.5, 0.3)] }, stokes: { pulses: [gaussian(0.05, 1.5, 0.3)], backgroundPowerW: 1e-3 } }
+const example = (name: string) => SimulationConfig.parse(JSON.parse(readFileSync(new URL(`../../solver/examples/${name}.json`, import.meta.url), 'utf8')))
+
+const RUNS: Record<string, SimulationConfig> = {
+  'chip, 41 cells (odd), lossy, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30 }, channels: [crossing] }),
+  'chip, 40 cells (even), CW depletion, lossless, detuned': chipConfig({ windowNs: 4, grid: cells(40), detuningMHz: 25, channels: [{ pump: { backgroundPowerW: 0.5 }, stokes: { backgroundPowerW: 1e-3 } }] }),
+  'chip, 1201 cells (odd, three chunks), lossy, crossing pulses': chipConfig({ windowNs: 3, grid: cells(1201), waveguide: { lossDbPerM: 30 }, channels: [crossing] }),
+  'storage 150 ps, SVEA (its reference run on one thread)': example('storage-150ps-svea'),
+  'CW amplifier, lossy fibre': example('cw-amplifier-silica-fibre'),
+}
+
+function firstDifference(a: SimulationResult, b: SimulationResult): string | null {
+  const names = Object.keys(a.arrays)
+  if (names.join() !== Object.keys(b.arrays).join()) return `array names ${names} vs ${Object.keys(b.arrays)}`
+  for (const name of names) {
+    const x = a.arrays[name], y = b.arrays[name]
+    if (x.length !== y.length) return `${name}: length ${x.length} vs ${y.length}`
+    for (let i = 0; i < x.length; i++) if (!Object.is(x[i], y[i])) return `${name}[${i}]: ${x[i]} vs ${y[i]}`
+  }
+  return null
+}
+
+describe('two threads: whole runs bit-identical to one thread', () => {
+  for (const [name, config] of Object.entries(RUNS)) {
+    it(name, () => {
+      const one = simulateSync(config, { threads: 1 })
+      const two = simulateSync(config, { threads: 2 })
+      expect(one.status).toBe('finished')
+      expect(two.status).toBe('finished')
+      expect(firstDifference(one, two)).toBeNull()
+    })
+  }
+})
+
+/** A state of random numbers (boundary cells included), the same in both engines. */
+function fill(states: { uRe: Float64Array }[], seed: number): void {
+  let x = seed
+  const next = () => ((x = (Math.imul(x, 1103515245) + 12345) >>> 0) / 2 ** 32 - 0.5) * 1e-3
+  const keys = ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm'] as const
+  const n = states[0].uRe.length
+  for (const key of keys) for (let j = 0; j < n; j++) {
+    const v = next()
+    for (const s of states) (s as unknown as Record<string, Float64Array>)[key][j] = v
+  }
+}
+
+describe('threaded engine: any chunk size and thread count gives the one-thread bits', () => {
+  const cases: [number, number, number, number][] = [
+    // [cells, threads, nodes per chunk, loss dB/m]
+    [7, 2, 1, 30],
+    [8, 2, 2, 0],
+    [41, 3, 3, 30],
+    [40, 4, 7, 30],
+    [101, 2, 50, 0],
+  ]
+  for (const [nz, threads, chunk, lossDbPerM] of cases) {
+    it(`${nz} cells, ${threads} threads, chunks of ${chunk} node(s), loss ${lossDbPerM} dB/m`, () => {
+      const config = chipConfig({ windowNs: 1, grid: cells(nz), detuningMHz: 12, waveguide: { lossDbPerM } })
+      const m = buildModel(config, planGrid(config))
+      expect(m.nz).toBe(nz)
+      const one = new WasmSveaEngine(m)
+      const many = new ThreadedSveaEngine(m, threads, chunk)
+      try {
+        fill([one.state, many.state], nz * 7919 + threads)
+        // Large fields, so the exchange is far from the identity and every term counts.
+        for (const s of [one.state, many.state]) for (const a of [s.uRe, s.uIm]) for (let j = 0; j < a.length; j++) a[j] *= 1e3
+        for (let step = 0; step < 25; step++) {
+          one.step()
+          many.step()
+          one.transport()
+          many.transport()
+        }
+        for (const key of ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm'] as const) {
+          const a = one.state[key], b = many.state[key]
+          let bad = -1
+          for (let j = 0; j < a.length; j++) if (!Object.is(a[j], b[j])) (bad = j), (j = a.length)
+          expect(bad, `${key} first differs at node ${bad}`).toBe(-1)
+        }
+        // Not a vacuous comparison: the state moved.
+        expect(one.state.bRe.some((v) => v !== 0)).toBe(true)
+      } finally {
+        many.close()
+      }
+    })
+  }
+})
