@@ -57,7 +57,10 @@ async function render() {
   return wrapper
 }
 const note = (w: Awaited<ReturnType<typeof render>>) => w.find('.overlay-note').text()
-const shiftOf = (text: string) => Number(/shifted by ([+−±])([\d.]+)/.exec(text)!.slice(1).reduce((s, v) => (s === '−' ? -Number(v) : Number(v))))
+const shiftOf = (text: string) => {
+  const [, sign, v] = /shifted by ([+−±])([\d.]+)/.exec(text)!
+  return sign === '−' ? -Number(v) : Number(v)
+}
 const rmsOf = (text: string) => Number(/residual rms ([\d.e+-]+) W/.exec(text)![1])
 
 describe('measured-trace overlay', () => {
