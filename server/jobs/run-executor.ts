@@ -1,6 +1,8 @@
 // Executes one taken run: the solver on one of the worker's kept solver threads (solver-pool.ts), and on
 // this thread the heartbeat, throttled progress, map blocks and the final all-or-nothing write.
 import type { Pool } from 'pg'
+import { describeIssuePath } from '@shared/api/issue-path-labels'
+import '@shared/api/issue-messages'
 import { SimulationConfig } from '@shared/physics/simulation-config'
 import { chooseGrid } from '@shared/physics/grid-step'
 import { estimateResources } from '@shared/physics/resource-estimate'
@@ -61,6 +63,12 @@ export interface RunOutcome {
   manifest: SimulationManifest | null
 }
 
+/** Channels are named by number only when there are several. */
+const channelCountOf = (config: unknown) => {
+  const ch = (config as { channels?: unknown } | null)?.channels
+  return Array.isArray(ch) ? ch.length : 1
+}
+
 export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   const { pool, log, runId } = o
   const claim = await claimRun(pool, runId, o.workerId, o.jobId)
@@ -73,7 +81,7 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
   const base = { runId, attempt, authorId: claim.authorId, title: claim.title }
   const parsed = SimulationConfig.safeParse(claim.config)
   if (!parsed.success) {
-    const message = 'The stored configuration is not valid for this solver version: ' + parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')
+    const message = 'The stored configuration is not valid for this solver version: ' + parsed.error.issues.map((i) => `${describeIssuePath(i.path, channelCountOf(claim.config))}: ${i.message}`).join('; ')
     await finishFailed(pool, runId, attempt, message)
     return { ...base, status: 'failed', message, manifest: null }
   }

@@ -2,6 +2,8 @@ import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { ZodError } from 'zod'
 import type { ApiErrorBody } from '@shared/api/api-error'
 import { describeIssuePath } from '@shared/api/issue-path-labels'
+// Words every validation issue of the process in plain language with units ("must be more than 0 ns").
+import '@shared/api/issue-messages'
 import { AppError, type FieldError } from '../errors'
 import { pathParamName } from './path-param-name'
 
@@ -52,10 +54,7 @@ function invalidInputMessage(err: ZodError, body: unknown): string {
   const channelCount = Array.isArray(channels) ? channels.length : 1
   const named = err.issues.slice(0, WORDED_FIELDS).map((i) => {
     const where = describeIssuePath(i.path, channelCount)
-    // The validator's own words for a missing or mistyped value ("Invalid input: expected number, received
-    // undefined") say it in its terms; these say it in the reader's.
-    const typed = i.code === 'invalid_type' ? (/received undefined/.test(i.message) ? 'missing' : `must be a ${i.expected}`) : i.message
-    return where ? `${where}: ${typed}` : typed
+    return where ? `${where}: ${i.message}` : i.message
   })
   const more = err.issues.length > WORDED_FIELDS ? `; and ${err.issues.length - WORDED_FIELDS} more` : ''
   return `Some fields are not valid. ${named.join('; ')}${more}`

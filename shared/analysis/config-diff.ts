@@ -2,6 +2,9 @@
 // of them, named in words (shared/api/issue-path-labels.ts) with its unit, one value per run ("—" where a run
 // does not have the setting, e.g. a pulse only one run launches). Settings equal in every run are left out.
 import { describeIssuePath } from '../api/issue-path-labels'
+import { unitOfKey } from '../api/key-units'
+
+export { unitOfKey }
 
 export interface DiffRow {
   /** Dotted path, stable for keys and tests. */
@@ -10,29 +13,6 @@ export interface DiffRow {
   unit: string
   /** One text per run, in the order given. */
   values: string[]
-}
-
-/** Units from the suffix the schema's names carry (lengthM, fwhmNs, …); longest suffix first. */
-const UNIT_SUFFIXES: [RegExp, string][] = [
-  [/M2PerW$/, 'm²/W'],
-  [/MPerW$/, 'm/W'],
-  [/DbPerM$/, 'dB/m'],
-  [/MPerS$/, 'm/s'],
-  [/PerM$/, '1/m'],
-  [/Um2$/, 'µm²'],
-  [/GHz$/, 'GHz'],
-  [/MHz$/, 'MHz'],
-  [/Ns$/, 'ns'],
-  [/Ps$/, 'ps'],
-  [/Nm$/, 'nm'],
-  [/Rad$/, 'rad'],
-  [/W$/, 'W'],
-  [/K$/, 'K'],
-  [/M$/, 'm'],
-]
-
-export function unitOfKey(key: string): string {
-  return UNIT_SUFFIXES.find(([re]) => re.test(key))?.[1] ?? ''
 }
 
 type Leaf = string | number | boolean | null

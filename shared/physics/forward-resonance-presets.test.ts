@@ -7,7 +7,7 @@ import { findWaveguidePreset } from './waveguide-presets'
 describe('typical forward resonances', () => {
   it.each(FORWARD_RESONANCE_PRESETS.map((p) => [p.id, p] as const))('%s names a dated publication and says where values are recalled', (_id, p) => {
     expect(p.source).toMatch(/\b(19|20)\d\d\b/)
-    expect(p.source).toMatch(/from memory|order of magnitude/)
+    expect(p.source).toMatch(/check against the paper|order of magnitude/)
   })
 
   it('puts the fibre resonance at a few hundred MHz with a few MHz linewidth (Shelby, Levenson & Bayer 1985) and the chip one at several GHz (Kittlaus et al. 2016)', () => {

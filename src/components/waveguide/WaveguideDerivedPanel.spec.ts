@@ -60,7 +60,7 @@ describe('WaveguideDerivedPanel on the waveguide page', () => {
 
     await typeInto(area, '-3')
 
-    expect(area.closest('.v-input')!.textContent).toMatch(/Too small: expected number to be >0/)
+    expect(area.closest('.v-input')!.textContent).toMatch(/must be more than 0 µm²/)
     expect(wrapper.element.querySelector('table[aria-label="Derived quantities"]')).toBeNull()
     expect(wrapper.text()).toContain('Correct the marked waveguide fields')
 
