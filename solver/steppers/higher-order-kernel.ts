@@ -14,7 +14,11 @@
 import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
 import { noiseWeight } from './general-kernel'
-import type { NormalSource } from './seeded-random'
+import { drawNormals, type NormalSource } from './seeded-random'
+
+/** Nodes per block of draws with noise: the block's deviates are drawn first (in the general kernel's order), then used. */
+const BLOCK_NODES = 256
+const draws = new Float64Array(2 * BLOCK_NODES)
 
 /** True when the single-channel higher-order path applies (higher-order term on, no Kerr; noise either way). */
 export function higherOrderFastPathApplies(m: Model): boolean {
@@ -23,6 +27,16 @@ export function higherOrderFastPathApplies(m: Model): boolean {
 
 /** The interaction step at nodes j0..j1 of trapezoid weight `weight`; `rng` null without noise. */
 export function interactHigherOrder(m: Model, s: FieldState, j0: number, j1: number, weight: number, rng: NormalSource | null): void {
+  if (rng === null) return stepBlock(m, s, j0, j1, weight, false)
+  for (let a0 = j0; a0 <= j1; a0 += BLOCK_NODES) {
+    const a1 = Math.min(j1, a0 + BLOCK_NODES - 1)
+    drawNormals(rng, draws, 2 * (a1 - a0 + 1))
+    stepBlock(m, s, a0, a1, weight, true)
+  }
+}
+
+/** Nodes j0..j1; with `noise`, node j's Langevin force from draws[2(j − j0)], draws[2(j − j0) + 1]. */
+function stepBlock(m: Model, s: FieldState, j0: number, j1: number, weight: number, noise: boolean): void {
   const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm } = s
   const ho = m.higherOrder!
   const K = m.driveK
@@ -35,7 +49,7 @@ export function interactHigherOrder(m: Model, s: FieldState, j0: number, j1: num
   const p1br = ho.p1b[0], p1bi = ho.p1b[1], p1wr = ho.p1w[0], p1wi = ho.p1w[1]
   const qbr = p0br - p1br, qbi = p0bi - p1bi
   const qwr = p0wr - p1wr, qwi = p0wi - p1wi
-  for (let j = j0; j <= j1; j++) {
+  for (let j = j0, d = 0; j <= j1; j++, d += 2) {
     const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j], wr = wRe[j], wi = wIm[j]
     const d0r = -K * (ui * vr - ur * vi)
     const d0i = K * (ur * vr + ui * vi)
@@ -44,9 +58,9 @@ export function interactHigherOrder(m: Model, s: FieldState, j0: number, j1: num
     let tbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + p0br * g0r - p0bi * g0i
     let tbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + p0br * g0i + p0bi * g0r
     let gfr = 0, gfi = 0
-    if (rng !== null) {
-      const xr = sd * rng.normal()
-      const xi = sd * rng.normal()
+    if (noise) {
+      const xr = sd * draws[d]
+      const xi = sd * draws[d + 1]
       gfr = -f * xi
       gfi = f * xr
       tbr += p0br * gfr - p0bi * gfi
@@ -77,7 +91,7 @@ export function interactHigherOrder(m: Model, s: FieldState, j0: number, j1: num
     let nbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + qbr * g0i + qbi * g0r + p1br * g1i + p1bi * g1r
     let nwr = e10r * br - e10i * bi + e11r * wr - e11i * wi + qwr * g0r - qwi * g0i + p1wr * g1r - p1wi * g1i
     let nwi = e10r * bi + e10i * br + e11r * wi + e11i * wr + qwr * g0i + qwi * g0r + p1wr * g1i + p1wi * g1r
-    if (rng !== null) {
+    if (noise) {
       nbr += p0br * gfr - p0bi * gfi
       nbi += p0br * gfi + p0bi * gfr
       nwr += p0wr * gfr - p0wi * gfi

@@ -5,7 +5,7 @@
  */
 export class SeededRandom implements NormalSource {
   // Int32Array state: values above 2³¹ would otherwise be boxed doubles in object fields (slow).
-  private readonly s = new Int32Array(4)
+  protected readonly s = new Int32Array(4)
   private spare = 0
   private hasSpare = false
 
@@ -76,4 +76,12 @@ export class SeededRandom implements NormalSource {
 /** What the kernels need of a generator: standard normal deviates, one per call. */
 export interface NormalSource {
   normal(): number
+  /** Optional bulk form: out[0..count) gets exactly what `count` calls of normal() would return, in order. */
+  fill?(out: Float64Array, count: number): void
+}
+
+/** count deviates of `rng` into out[0..count), in the order of count calls of normal() (its bulk form if it has one). */
+export function drawNormals(rng: NormalSource, out: Float64Array, count: number): void {
+  if (rng.fill) rng.fill(out, count)
+  else for (let k = 0; k < count; k++) out[k] = rng.normal()
 }

@@ -11,7 +11,11 @@
 import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
 import { noiseWeight } from './general-kernel'
-import type { NormalSource } from './seeded-random'
+import { drawNormals, type NormalSource } from './seeded-random'
+
+/** Nodes per block of draws: the block's deviates are drawn first (in the general kernel's order), then used. */
+const BLOCK_NODES = 256
+const draws = new Float64Array(4 * BLOCK_NODES)
 
 /** True when the single-channel SVEA path with thermal noise applies (noise on, no Kerr, no higher-order term). */
 export function noiseFastPathApplies(m: Model): boolean {
@@ -29,18 +33,29 @@ export function interactSveaNoise(m: Model, s: FieldState, j0: number, j1: numbe
   const c = m.exchangePerB * weight
   const sd = m.noiseKickRms * Math.SQRT1_2 * noiseWeight(weight)
   const sdMean = m.noiseMeanRms * Math.SQRT1_2 * noiseWeight(weight)
-  for (let j = j0; j <= j1; j++) {
+  for (let a0 = j0; a0 <= j1; a0 += BLOCK_NODES) {
+    const a1 = Math.min(j1, a0 + BLOCK_NODES - 1)
+    drawNormals(rng, draws, 4 * (a1 - a0 + 1))
+    stepBlock(uRe, uIm, vRe, vIm, bRe, bIm, a0, a1, K, h, hh, Er, Ei, c, sd, sdMean)
+  }
+}
+
+function stepBlock(
+  uRe: Float64Array, uIm: Float64Array, vRe: Float64Array, vIm: Float64Array, bRe: Float64Array, bIm: Float64Array,
+  j0: number, j1: number, K: number, h: number, hh: number, Er: number, Ei: number, c: number, sd: number, sdMean: number,
+): void {
+  for (let j = j0, d = 0; j <= j1; j++, d += 4) {
     const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j]
     const d0r = -K * (ui * vr - ur * vi)
     const d0i = K * (ur * vr + ui * vi)
     const tr = br + h * d0r
     const ti = bi + h * d0i
-    const xr = sd * rng.normal()
-    const xi = sd * rng.normal()
+    const xr = sd * draws[d]
+    const xi = sd * draws[d + 1]
     const tbr = Er * tr - Ei * ti + xr
     const tbi = Er * ti + Ei * tr + xi
-    const mr = sdMean * rng.normal()
-    const mi = sdMean * rng.normal()
+    const mr = sdMean * draws[d + 2]
+    const mi = sdMean * draws[d + 3]
     const bbr = 0.5 * (br + tbr) + mr
     const bbi = 0.5 * (bi + tbi) + mi
     // Exchange with b̄ frozen.

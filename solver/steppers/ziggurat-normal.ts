@@ -20,7 +20,7 @@ const V = 9.91256303526217e-3
 const M1 = 2147483648
 
 /** k_i: acceptance bound on |j|; w_i: scale from j to x; f_i = e^{−x_i²/2} (the paper's kn, wn, fn). */
-const KN = new Float64Array(LAYERS)
+const KN = new Int32Array(LAYERS)
 const WN = new Float64Array(LAYERS)
 const FN = new Float64Array(LAYERS)
 {
@@ -50,6 +50,44 @@ export class ZigguratNormal extends SeededRandom {
     // |j| as a double: −2³¹ has no int32 magnitude, and is never below any k_i (all < 2³¹), so it falls to the slow path.
     if (Math.abs(j) < KN[i]) return j * WN[i]
     return this.slow(j, i)
+  }
+
+  /**
+   * count deviates into out[0..count), the same numbers as count calls of normal(): the fast path with the
+   * xoshiro128** state in local variables (the same steps as SeededRandom.nextInt32), the slow path as normal().
+   */
+  fill(out: Float64Array, count: number): void {
+    const st = this.s
+    let s0 = st[0], s1 = st[1], s2 = st[2], s3 = st[3]
+    for (let k = 0; k < count; k++) {
+      const m = Math.imul(s1, 5)
+      const j = Math.imul((m << 7) | (m >>> 25), 9)
+      const t = s1 << 9
+      s2 ^= s0
+      s3 ^= s1
+      s1 ^= s2
+      s0 ^= s3
+      s2 ^= t
+      s3 = (s3 << 11) | (s3 >>> 21)
+      const i = j & (LAYERS - 1)
+      if (Math.abs(j) < KN[i]) {
+        out[k] = j * WN[i]
+        continue
+      }
+      st[0] = s0
+      st[1] = s1
+      st[2] = s2
+      st[3] = s3
+      out[k] = this.slow(j, i)
+      s0 = st[0]
+      s1 = st[1]
+      s2 = st[2]
+      s3 = st[3]
+    }
+    st[0] = s0
+    st[1] = s1
+    st[2] = s2
+    st[3] = s3
   }
 
   /** Outside the rectangle: the tail (layer 0) or a wedge; on rejection a fresh draw from the top. */
