@@ -1,4 +1,4 @@
-// `npm run bench [-- --quick | --engines]`: throughput, memory, linear-cost and work–precision figures of the solver,
+// `npm run bench [-- --quick | --engines | --threads]`: throughput, memory, linear-cost and work–precision figures of the solver,
 // then the oscillation analysis's coverage table (oscillation-coverage.ts; --quick: white noise only).
 // Prints figures and never asserts; record them in benchmarks/README.md with the date and machine.
 import os from 'node:os'
@@ -21,7 +21,8 @@ interface Measured {
   peakHeapMiB: number
 }
 
-function measure(config: SimulationConfig, engine: EngineChoice = 'auto', forceGeneralKernel = false): Measured {
+/** One thread unless asked: every table but the threads table compares one-thread figures. */
+function measure(config: SimulationConfig, engine: EngineChoice = 'auto', forceGeneralKernel = false, threads = 1): Measured {
   let peakRss = 0
   let peakHeap = 0
   const sample = () => {
@@ -32,7 +33,7 @@ function measure(config: SimulationConfig, engine: EngineChoice = 'auto', forceG
   sample()
   const t0 = performance.now()
   // Throughput of the scheme itself: the error estimate's companion run would add a quarter of untimed work.
-  const result = simulateSync({ ...config, options: { ...config.options, errorEstimate: false } }, { onProgress: sample, engine, forceGeneralKernel })
+  const result = simulateSync({ ...config, options: { ...config.options, errorEstimate: false } }, { onProgress: sample, engine, forceGeneralKernel, threads })
   const seconds = (performance.now() - t0) / 1000
   sample()
   if (result.status !== 'finished') throw new Error(`benchmark run ${result.status}: ${result.message}`)
@@ -100,6 +101,31 @@ function engineTable(): void {
   }
 }
 
+/**
+ * One run on one thread and on two (the WebAssembly engine's plain SVEA path, z in chunks shared by the
+ * threads), interleaved 1, 2, 1, 2, … so a change of machine load hits both; best of 3. The load average
+ * is printed beside each row: two threads pay only while the second core is idle.
+ */
+function threadTable(): void {
+  console.log('\n## Threads on one run side by side (one channel, SVEA, WebAssembly engine; best of 3, interleaved; Mcell/s)')
+  console.log(`${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('cell-upd', 9)} ${pad('1 thread', 9)} ${pad('2 threads', 10)} ${pad('2/1', 6)} ${pad('load avg', 9)}`)
+  for (const [nz, nt] of [[1000, 40000], [2000, 40000], [4000, 20000], [8000, 20000], [16000, 10000]]) {
+    if (quick && nz * nt > QUICK_CAP) continue
+    const config = gridCase(nz, nt)
+    const best = [Infinity, Infinity]
+    let cells = 0
+    for (let rep = 0; rep < 3; rep++) {
+      for (const threads of [1, 2]) {
+        const m = measure(config, 'wasm', false, threads)
+        cells = m.result.manifest.counters.cellUpdates
+        best[threads - 1] = Math.min(best[threads - 1], m.seconds)
+      }
+    }
+    const rate = (s: number) => cells / s / 1e6
+    console.log(`${pad(nz, 6)} ${pad(nt, 7)} ${pad(fmt(cells), 9)} ${pad(fmt(rate(best[0])), 9)} ${pad(fmt(rate(best[1])), 10)} ${pad((best[0] / best[1]).toFixed(2), 6)} ${pad(os.loadavg()[0].toFixed(2), 9)}`)
+  }
+}
+
 function scalingTable(): void {
   console.log('\n## Time per cell-update vs problem size (SVEA; flat = linear cost)')
   console.log(`${pad('cell-updates', 12)} ${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('time s', 7)} ${pad('ns/cell', 8)} ${pad('peak rss MiB', 12)}`)
@@ -143,9 +169,12 @@ console.log(`# Sonoweave solver benchmark ${new Date().toISOString()}${quick ? '
 console.log(`node ${process.version}, ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, load average ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`)
 if (process.argv.includes('--engines')) {
   engineTable()
+} else if (process.argv.includes('--threads')) {
+  threadTable()
 } else {
   throughputTable()
   engineTable()
+  threadTable()
   scalingTable()
   workPrecision()
   oscillationCoverage(quick)

@@ -48,6 +48,26 @@ export const SPEED_FACTOR_NOISE = 0.11
  * there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
  */
 export const SPEED_FACTOR_KERR = 0.45
+/**
+ * Two threads on one run (solver/engine/threaded-engine.ts): the engine's plain path with z in chunks shared by
+ * the run's thread and one helper, taken automatically from THREAD_MIN_CELLS cells and THREAD_MIN_NODE_STEPS
+ * node-steps when a core is idle. Relative speed against one thread of the same engine: 1.4, the low end of
+ * 1.4–1.5× measured for two f64x2 threads with a spin barrier at N_z ≥ 8000 on the reference machine with a core
+ * idle; `npm run bench -- --threads` under a load average of 11 gave 0.6–1.1× (benchmarks/README.md), which is why
+ * the automatic choice takes the helper only while the load shows a core idle. The estimate assumes that; on a
+ * busy machine the run keeps one thread and the estimate errs short by this factor.
+ */
+export const SPEED_FACTOR_TWO_THREADS = 1.4
+/** Shortest grid (cells) at which two threads are taken: below it the per-step barriers cost more than they save. */
+export const THREAD_MIN_CELLS = 4000
+/** Node-steps below which a helper thread's start (tens of milliseconds) is not paid back. */
+export const THREAD_MIN_NODE_STEPS = 2e7
+
+/** Runs the automatic choice gives two threads when a core is idle (the rule of solver/engine/thread-choice.ts). */
+export function twoThreadsApply(config: SimulationConfig, grid: GridCounts): boolean {
+  const o = config.options
+  return wasmEngineCovers(config) && !o.kerr && !o.acousticAdvection && grid.nz >= THREAD_MIN_CELLS && (grid.nz + 1) * (grid.nt + 1) >= THREAD_MIN_NODE_STEPS
+}
 
 /** Optical waves and acoustic fields of the plain pump–Stokes scheme: pump, Stokes and one acoustic field. */
 export const PLAIN_WAVES = 2
@@ -140,7 +160,8 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr ? SPEED_FACTOR_KERR : 1) *
-    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1)
+    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1) *
+    (twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
   return {
     channels,
     waves,

@@ -1,11 +1,12 @@
 // How many threads advance one run: 1, or 2 with z cut into chunks the threads share (engine/threaded-engine.ts).
 // Automatic: two when the run is on the WebAssembly engine's plain SVEA path, the grid is long enough for the
-// per-step barriers to pay (THREAD_MIN_NZ, measured by `npm run bench -- --threads`, benchmarks/README.md),
+// per-step barriers to pay (THREAD_MIN_CELLS in shared/physics/resource-estimate.ts with the speed factor, measured by `npm run bench -- --threads`, benchmarks/README.md),
 // the run is long enough to pay the helper's start, and the machine has a core to spare: at least two cores
 // and a load average (runnable threads, this run's own included) below cores − ½. A server's solver threads
 // that are computing count in the load, so a run takes the helper only while another core idles; a busy
 // machine keeps one thread per run (and a helper would only wait for its turn at every barrier there).
 import { availableParallelism, loadavg } from 'node:os'
+import { THREAD_MIN_CELLS, THREAD_MIN_NODE_STEPS } from '@shared/physics/resource-estimate'
 import type { Model } from '../problem/coupled-modes'
 import { fastPathApplies } from '../steppers/interaction-kernel'
 import { EngineUnavailableError } from './wasm-engine'
@@ -14,10 +15,6 @@ import { EngineUnavailableError } from './wasm-engine'
 export type ThreadChoice = 'auto' | number
 /** Largest count the options accept: one helper thread beside the run's own (docs/numerics.md, "Threaded step"). */
 export const MAX_THREADS = 2
-/** Shortest grid (cells) on which two threads beat one on this machine's measurement. */
-export const THREAD_MIN_NZ = 4000
-/** Node-steps below which the helper's start (tens of ms) is not paid back. */
-const THREAD_MIN_NODE_STEPS = 2e7
 
 /** A forced thread count this run cannot use; the message is for the user. */
 export class ThreadCountError extends EngineUnavailableError {}
@@ -45,7 +42,7 @@ export function resolveThreads(choice: ThreadChoice, m: Model, engine: 'ts' | 'w
     if (problem) throw new ThreadCountError(problem)
     return choice
   }
-  if (threadProblem(m, engine, profile) || m.nz < THREAD_MIN_NZ || m.nodes * (m.nt + 1) < THREAD_MIN_NODE_STEPS) return 1
+  if (threadProblem(m, engine, profile) || m.nz < THREAD_MIN_CELLS || m.nodes * (m.nt + 1) < THREAD_MIN_NODE_STEPS) return 1
   const { cores, load } = machine()
   return cores >= 2 && load < cores - 0.5 ? 2 : 1
 }

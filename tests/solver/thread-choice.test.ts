@@ -4,7 +4,8 @@
 import { describe, expect, it } from 'vitest'
 import { planGrid, SimulationRun } from '../../solver/driver'
 import { buildModel } from '../../solver/problem/coupled-modes'
-import { resolveThreads, THREAD_MIN_NZ, ThreadCountError } from '../../solver/engine/thread-choice'
+import { resolveThreads, ThreadCountError } from '../../solver/engine/thread-choice'
+import { estimateResources, SPEED_FACTOR_TWO_THREADS, THREAD_MIN_CELLS, THREAD_MIN_NODE_STEPS } from '@shared/physics/resource-estimate'
 import { simulateSync } from '../../solver/index'
 import { chipConfig } from './chip-fixtures'
 
@@ -20,9 +21,9 @@ const busy = () => ({ cores: 2, load: 2.1 })
 const oneCore = () => ({ cores: 1, load: 0 })
 
 describe('automatic thread count', () => {
-  const large = modelOf(THREAD_MIN_NZ)
+  const large = modelOf(THREAD_MIN_CELLS)
   it('two on a long plain grid with an idle second core', () => {
-    expect(large.nodes * (large.nt + 1)).toBeGreaterThan(2e7)
+    expect(large.nodes * (large.nt + 1)).toBeGreaterThan(THREAD_MIN_NODE_STEPS)
     expect(resolveThreads('auto', large, 'wasm', false, idle)).toBe(2)
   })
   it('one on a busy machine or a single core', () => {
@@ -30,14 +31,14 @@ describe('automatic thread count', () => {
     expect(resolveThreads('auto', large, 'wasm', false, oneCore)).toBe(1)
   })
   it('one below the measured break-even grid', () => {
-    expect(resolveThreads('auto', modelOf(THREAD_MIN_NZ - 1), 'wasm', false, idle)).toBe(1)
+    expect(resolveThreads('auto', modelOf(THREAD_MIN_CELLS - 1), 'wasm', false, idle)).toBe(1)
   })
   it('one on the TypeScript engine and for options outside the plain path', () => {
     expect(resolveThreads('auto', large, 'ts', false, idle)).toBe(1)
     expect(resolveThreads('auto', large, 'wasm', true, idle)).toBe(1)
-    const kerr = modelOf(THREAD_MIN_NZ, { waveguide: { kerrN2M2PerW: 1e-17 }, options: { kerr: true } })
+    const kerr = modelOf(THREAD_MIN_CELLS, { waveguide: { kerrN2M2PerW: 1e-17 }, options: { kerr: true } })
     expect(resolveThreads('auto', kerr, 'wasm', false, idle)).toBe(1)
-    const advection = modelOf(THREAD_MIN_NZ, { options: { acousticAdvection: true } })
+    const advection = modelOf(THREAD_MIN_CELLS, { options: { acousticAdvection: true } })
     expect(resolveThreads('auto', advection, 'wasm', false, idle)).toBe(1)
   })
 })
@@ -46,7 +47,7 @@ describe('forced thread count', () => {
   const small = modelOf(41)
   it('is honoured on the plain path whatever the size and load', () => {
     expect(resolveThreads(2, small, 'wasm', false, busy)).toBe(2)
-    expect(resolveThreads(1, modelOf(THREAD_MIN_NZ), 'wasm', false, idle)).toBe(1)
+    expect(resolveThreads(1, modelOf(THREAD_MIN_CELLS), 'wasm', false, idle)).toBe(1)
   })
   it('is refused with the reason outside it, or out of range', () => {
     expect(() => resolveThreads(2, small, 'ts', false, idle)).toThrow(ThreadCountError)
@@ -64,5 +65,18 @@ describe('forced thread count', () => {
     const refused = simulateSync(config, { threads: 2, engine: 'ts' })
     expect(refused.status).toBe('failed')
     expect(refused.manifest.issues?.map((i) => i.path)).toEqual(['threads'])
+  })
+})
+
+describe('resource estimate', () => {
+  it('counts the second thread on the runs the automatic choice gives two, and only there', () => {
+    const at = (nz: number, extra: Parameters<typeof chipConfig>[0] = {}) => {
+      const config = chipConfig({ windowNs: 2, grid: cells(nz), channels: cw, ...extra })
+      return estimateResources(config, planGrid(config)).cellUpdatesPerS
+    }
+    const small = at(THREAD_MIN_CELLS - 1)
+    expect(at(THREAD_MIN_CELLS) / small).toBeCloseTo(SPEED_FACTOR_TWO_THREADS, 12)
+    const kerr = { waveguide: { kerrN2M2PerW: 1e-17 }, options: { kerr: true } }
+    expect(at(THREAD_MIN_CELLS, kerr)).toBe(at(THREAD_MIN_CELLS - 1, kerr))
   })
 })

@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { SimulationConfig } from '@shared/physics/simulation-config'
 import { simulateSync, type SimulationResult } from '../../solver/index'
-import { planGrid } from '../../solver/driver'
+import { planGrid, SimulationRun } from '../../solver/driver'
 import { buildModel } from '../../solver/problem/coupled-modes'
 import { ThreadedSveaEngine } from '../../solver/engine/threaded-engine'
 import { WasmSveaEngine } from '../../solver/engine/wasm-engine'
@@ -100,4 +100,21 @@ describe('threaded engine: any chunk size and thread count gives the one-thread 
       }
     })
   }
+})
+
+describe('two threads: stopping', () => {
+  const config = RUNS['chip, 1201 cells (odd, three chunks), lossy, crossing pulses']
+  it('a stop request ends the run at the next chunk check, as on one thread', () => {
+    let polls = 0
+    const r = simulateSync(config, { threads: 2, shouldAbort: () => ++polls > 3 })
+    expect(r.status).toBe('aborted')
+    expect(r.manifest.counters.steps).toBeGreaterThan(0)
+    expect(r.manifest.counters.steps).toBeLessThan(planGrid(config).nt)
+  })
+  it('closing a run ends its helper: the engine takes no further step', () => {
+    const run = new SimulationRun(config, planGrid(config), { threads: 2 })
+    run.advance(5)
+    run.close()
+    expect(() => run.advance(1)).toThrow('used after close')
+  })
 })
