@@ -21,6 +21,7 @@ const VARIANTS: [string, StepVariant][] = [
   ['exact rotation', { exchange: 'exact', average: 'trapezoid' }],
   ['cayley + linear-source b̄', { exchange: 'cayley', average: 'linear-source' }],
   ['exact + linear-source b̄', { exchange: 'exact', average: 'linear-source' }],
+  ['cayley + linearised b̄', { exchange: 'cayley', average: 'linearised-source' }],
 ]
 
 interface Case {

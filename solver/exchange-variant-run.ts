@@ -26,7 +26,7 @@ export function runVariant(config: SimulationConfig, variant: StepVariant, grid:
   const run = new SimulationRun(config, grid, { engine: 'ts', threads: 1 })
   const m = run.model
   if (run.profile || !fastPathApplies(m) || m.advectionCourant > 0) throw new Error('The step variants cover the one-channel SVEA case without Kerr, noise, acoustic advection or sections')
-  const mean = variant.average === 'linear-source' ? meanCoefficients(m.svea.eRe, m.svea.eIm, m.dtS) : null
+  const mean = variant.average !== 'trapezoid' ? meanCoefficients(m.svea.eRe, m.svea.eIm, m.dtS) : null
   const plan = planStorageReference(config, m.dtS)
   let reference: SimulationRun | null = null
   const t0 = performance.now()

@@ -23,12 +23,16 @@
  *       φ₁ = (e^z − 1)/z, φ₂ = (e^z − 1 − z)/z², φ₃ = (e^z − 1 − z − z²/2)/z³   (→ 1, ½, ⅙ as z → 0).
  *     The trapezoid b̄ misses the source's change over the step, Δt(D₀ − D₁)/6: an O(Δt²) error of b̄ and an
  *     O(Δt³) local error of the exchange. Costs a second exchange per node and step.
+ *  'linearised-source': the same mean with D₁ − D₀ taken from the exchange to first order instead of a first
+ *     exchange: (u₁, v₁) = (u + iβv, v + iβ*u) + O(β²) gives u₁v₁* = uv* + iβ(|v|² − |u|²) + O(β²), so
+ *       D₁ − D₀ = K·β·(|u|² − |v|²) + O(Δt²),  β = c·b̄ (trapezoid b̄),
+ *     which changes b̄ by O(Δt³) only: the same order of accuracy at one exchange per node and step.
  * The corrector of b is the default one in every variant: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  */
 import { interactSvea } from './interaction-kernel'
 
 export type ExchangeForm = 'cayley' | 'exact'
-export type SourceAverage = 'trapezoid' | 'linear-source'
+export type SourceAverage = 'trapezoid' | 'linear-source' | 'linearised-source'
 
 export interface StepVariant {
   exchange: ExchangeForm
@@ -121,9 +125,11 @@ export function interactSveaVariant(
 ): void {
   const { uRe, uIm, vRe, vIm, bRe, bIm } = f
   if (variant.exchange === 'cayley' && variant.average === 'trapezoid') return interactSvea(uRe, uIm, vRe, vIm, bRe, bIm, j0, j1, K, cHalf, Er, Ei, h)
+  if (variant.exchange === 'cayley' && variant.average === 'linearised-source') return interactSveaLinearised(f, j0, j1, K, cHalf, Er, Ei, h, mean!)
   const exact = variant.exchange === 'exact'
   const linear = variant.average === 'linear-source'
-  if (linear && !mean) throw new Error('The linear-source average needs its mean coefficients')
+  const linearised = variant.average === 'linearised-source'
+  if ((linear || linearised) && !mean) throw new Error('The linear-source average needs its mean coefficients')
   const c = 2 * cHalf
   const hh = 0.5 * h
   const m0r = mean?.m0[0] ?? 0, m0i = mean?.m0[1] ?? 0
@@ -138,6 +144,13 @@ export function interactSveaVariant(
     const ti = bi + h * d0i
     let betaR = cHalf * (br + Er * tr - Ei * ti)
     let betaI = cHalf * (bi + Er * ti + Ei * tr)
+    if (linearised) {
+      // D₁ − D₀ = K·β·(|u|² − |v|²) from the trapezoid β, then β from the linear-source mean.
+      const g = K * (ur * ur + ui * ui - vr * vr - vi * vi)
+      const er = g * betaR, ei = g * betaI
+      betaR = c * (m0r * br - m0i * bi + m1r * d0r - m1i * d0i + m2r * er - m2i * ei)
+      betaI = c * (m0r * bi + m0i * br + m1r * d0i + m1i * d0r + m2r * ei + m2i * er)
+    }
     let cs = rotationCos(betaR * betaR + betaI * betaI, exact)
     let sn = sinOverX
     let nur = cs * ur - sn * (betaR * vi + betaI * vr)
@@ -159,6 +172,59 @@ export function interactSveaVariant(
       nvr = cs * vr - sn * (betaR * ui - betaI * ur)
       nvi = cs * vi + sn * (betaR * ur + betaI * ui)
     }
+    uRe[j] = nur
+    uIm[j] = nui
+    vRe[j] = nvr
+    vIm[j] = nvi
+    const sr = br + hh * d0r
+    const si = bi + hh * d0i
+    bRe[j] = Er * sr - Ei * si - hh * K * (nui * nvr - nur * nvi)
+    bIm[j] = Er * si + Ei * sr + hh * K * (nur * nvr + nui * nvi)
+  }
+}
+
+/**
+ * Cayley exchange with the 'linearised-source' mean, written flat as interactSvea is (no branches, no calls),
+ * so that its cost per node-step is what adopting it would cost.
+ */
+function interactSveaLinearised(
+  f: { uRe: Float64Array; uIm: Float64Array; vRe: Float64Array; vIm: Float64Array; bRe: Float64Array; bIm: Float64Array },
+  j0: number,
+  j1: number,
+  K: number,
+  cHalf: number,
+  Er: number,
+  Ei: number,
+  h: number,
+  mean: MeanCoefficients,
+): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm } = f
+  const c = 2 * cHalf
+  const hh = 0.5 * h
+  // c folded into the mean's coefficients, and K into the D₁ − D₀ one.
+  const m0r = c * mean.m0[0], m0i = c * mean.m0[1]
+  const m1r = c * mean.m1[0], m1i = c * mean.m1[1]
+  const m2r = c * K * mean.m2[0], m2i = c * K * mean.m2[1]
+  for (let j = j0; j <= j1; j++) {
+    const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j]
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const tr = br + h * d0r
+    const ti = bi + h * d0i
+    // Trapezoid β, then D₁ − D₀ = K·β·(|u|² − |v|²) and the linear-source mean.
+    const b1r = cHalf * (br + Er * tr - Ei * ti)
+    const b1i = cHalf * (bi + Er * ti + Ei * tr)
+    const g = ur * ur + ui * ui - vr * vr - vi * vi
+    const er = g * b1r, ei = g * b1i
+    const betaR = m0r * br - m0i * bi + m1r * d0r - m1i * d0i + m2r * er - m2i * ei
+    const betaI = m0r * bi + m0i * br + m1r * d0i + m1i * d0r + m2r * ei + m2i * er
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + q)
+    const a = 1 - q
+    const nur = (a * ur - betaR * vi - betaI * vr) * den
+    const nui = (a * ui + betaR * vr - betaI * vi) * den
+    const nvr = (a * vr - betaR * ui + betaI * ur) * den
+    const nvi = (a * vi + betaR * ur + betaI * ui) * den
     uRe[j] = nur
     uIm[j] = nui
     vRe[j] = nvr

@@ -16,6 +16,7 @@ const VARIANTS: StepVariant[] = [
   { exchange: 'exact', average: 'trapezoid' },
   { exchange: 'cayley', average: 'linear-source' },
   { exchange: 'exact', average: 'linear-source' },
+  { exchange: 'cayley', average: 'linearised-source' },
 ]
 const name = (v: StepVariant) => `${v.exchange} exchange, ${v.average} b̄`
 
