@@ -182,7 +182,7 @@ describe('a run that cannot be computed', () => {
     const failed = await untilStatus(rows[0].id, 'failed')
 
     expect(failed.attempt).toBe(1)
-    expect(failed.error).toMatch(/stored configuration is not valid.*windowNs/)
+    expect(failed.error).toMatch(/stored configuration is not valid.*Window length: must be at least 0.0002 ns/)
   })
 })
 
