@@ -59,15 +59,16 @@ function takeChunks(ctrl, stepper, chunks, word) {
     if (phase & 1) stepper.transport(k)
     else stepper.step(k)
     done++
-    // ctrl[1] counts the chunks finished in this phase; the run's thread waits for all of them.
-    if (Atomics.add(ctrl, 1, 1) + 1 === chunks && Atomics.load(ctrl, 3) === 1) Atomics.notify(ctrl, 1)
+    // ctrl[16] counts the chunks finished in this phase; the run's thread waits for all of them.
+    if (Atomics.add(ctrl, 16, 1) + 1 === chunks && Atomics.load(ctrl, 48) === 1) Atomics.notify(ctrl, 16)
   }
 }`
 
 /*
  * A helper thread: takes chunks whenever a phase has some left; otherwise spins a bounded number of times,
- * then sleeps in Atomics.wait with its "asleep" flag (ctrl[2]) raised, so the run's thread knows to notify it.
- * ctrl: [0] phase word, [1] chunks finished, [2] helpers asleep, [3] run's thread asleep, [4] exit.
+ * then sleeps in Atomics.wait with its "asleep" count (ctrl[32]) raised, so the run's thread knows to notify it.
+ * ctrl (Int32, one 64-byte line each): [0] phase word, [16] chunks finished, [32] helpers asleep, [48] run's
+ * thread asleep, [64] exit.
  */
 export const HELPER_SOURCE = `${CHUNK_STEPPER_SOURCE}
 const { workerData: d } = require('node:worker_threads')
@@ -75,16 +76,16 @@ const fn = new WebAssembly.Instance(d.module, { env: { memory: d.memory } }).exp
 const ctrl = new Int32Array(d.ctrl)
 const stepper = chunkStepper(fn, new Float64Array(d.memory.buffer), { ...d, edges: new Float64Array(d.edges) })
 let spins = 0
-while (Atomics.load(ctrl, 4) === 0) {
+while (Atomics.load(ctrl, 64) === 0) {
   const w = Atomics.load(ctrl, 0)
   if ((w & 0xffff) < d.chunks && takeChunks(ctrl, stepper, d.chunks, w) > 0) {
     spins = 0
     continue
   }
   if (++spins < d.spins) continue
-  Atomics.add(ctrl, 2, 1)
+  Atomics.add(ctrl, 32, 1)
   Atomics.wait(ctrl, 0, w)
-  Atomics.sub(ctrl, 2, 1)
+  Atomics.sub(ctrl, 32, 1)
   spins = 0
 }
 `

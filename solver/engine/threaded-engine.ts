@@ -47,12 +47,14 @@ const SPINS = 20_000
 const STALL_MS = 30_000
 const OP_STEP = 0
 const OP_TRANSPORT = 1
-// ctrl slots (engine/block-step-source.ts).
+// ctrl slots (engine/block-step-source.ts), each on its own 64-byte cache line so that claiming a chunk and
+// counting finished ones do not contend for one line.
 const WORD = 0
-const FINISHED = 1
-const HELPERS_ASLEEP = 2
-const MAIN_ASLEEP = 3
-const EXIT = 4
+const FINISHED = 16
+const HELPERS_ASLEEP = 32
+const MAIN_ASLEEP = 48
+const EXIT = 64
+const CTRL_INTS = 80
 
 export class ThreadedSveaEngine {
   readonly state: FieldState
@@ -62,6 +64,9 @@ export class ThreadedSveaEngine {
   private readonly chunks: number
   private phase = 0
   private closed = false
+  /** Chunks the run's own thread did, and all chunks handed out (the helpers did the rest): for the benchmark. */
+  ownChunks = 0
+  allChunks = 0
 
   /** `threads` − 1 helpers start here; `chunkNodes` is a testing aid (any value gives the same bits). */
   constructor(
@@ -81,7 +86,7 @@ export class ThreadedSveaEngine {
     const view = (i: number) => new Float64Array(memory.buffer, at[i], n)
     const none = new Float64Array(0)
     this.state = { uRe: view(0), uIm: view(1), vRe: view(2), vIm: view(3), bRe: view(4), bIm: view(5), wRe: none, wIm: none, scratch: none }
-    const ctrl = new SharedArrayBuffer(4 * 8)
+    const ctrl = new SharedArrayBuffer(4 * CTRL_INTS)
     const edges = new SharedArrayBuffer(8 * 4 * this.chunks)
     this.ctrl = new Int32Array(ctrl)
     // Chunk index = chunks: no work until the first phase.
@@ -125,7 +130,8 @@ export class ThreadedSveaEngine {
     Atomics.store(c, FINISHED, 0)
     Atomics.store(c, WORD, word)
     if (Atomics.load(c, HELPERS_ASLEEP) > 0) Atomics.notify(c, WORD)
-    takeChunks(c, this.stepper, this.chunks, word)
+    this.ownChunks += takeChunks(c, this.stepper, this.chunks, word)
+    this.allChunks += this.chunks
     this.barrier()
   }
 
