@@ -59,6 +59,18 @@ describe('sweepAnalyses', () => {
     expect(a.nominalEnergyLifetimeNs).toBeCloseTo(4.6810, 3)
   })
 
+  it('fits against the axis itself when it is the write–read delay', () => {
+    const cfg = example('storage')
+    const gammaPerNs = 2 * Math.PI * 0.034
+    const tau = [1, 2, 3, 4]
+    const s = sweepOf(cfg, { field: 'storageDelayNs', values: { kind: 'list', values: tau } }, tau, (t) => 0.08 * Math.exp(-gammaPerNs * t), 'retrievalEfficiency')
+    const [a] = sweepAnalyses(s)
+    if (a?.kind !== 'lifetime' || !a.result.ok) throw new Error('no lifetime fit')
+    expect([a.anchor, a.offsetNs]).toEqual(['axis', 0])
+    expect(a.result.fit.rate).toBeCloseTo(gammaPerNs, 9)
+    expect(a.result.fit.amplitude).toBeCloseTo(0.08, 9)
+  })
+
   it('offers no lifetime fit when the swept pulse is not the read pulse', () => {
     const cfg = example('storage')
     const s = sweepOf(cfg, { field: 'pulseCentreNs', pulseLabel: 'write', values: { kind: 'list', values: [0.5, 1, 1.5] } }, [0.5, 1, 1.5], () => 0.05, 'retrievalEfficiency')
@@ -79,6 +91,21 @@ describe('sweepAnalyses', () => {
     expect(a.nominalSlopeDbPerW).toBeCloseTo(closedForm, 9)
     expect(closedForm).toBeCloseTo(135.6, 1)
     expect(a.result.fit.slope).toBeCloseTo(closedForm, 9)
+  })
+
+  it('gives the slope in dB/W for an axis in units of the critical power', () => {
+    // P_cr = 21·A_eff/(η g_B L_eff) (Smith 1972): 21·80e-12/(5e-11·L_eff) ≈ 0.673 W for 50 m.
+    const cfg = example('amplifier')
+    const alpha = 0.0002 / (10 / Math.LN10)
+    const lEff = (1 - Math.exp(-alpha * 50)) / alpha
+    const pCr = (21 * 80e-12) / (5e-11 * lEff)
+    const x = [0.05, 0.1, 0.15, 0.2]
+    const s = sweepOf(cfg, { field: 'pumpPowerCritical', values: { kind: 'list', values: x } }, x, (u) => 120 * u * pCr, 'peakStokesGainDb')
+    const [a] = sweepAnalyses(s)
+    if (a?.kind !== 'gainSlope' || !a.result.ok) throw new Error('no gain fit')
+    expect(a.wattsPerAxisUnit).toBeCloseTo(pCr, 9)
+    expect(a.result.fit.slope).toBeCloseTo(120, 9)
+    expect(a.result.fit.maxPowerUsedW).toBeCloseTo(0.2 * pCr, 12)
   })
 
   it('leaves out points that did not finish', () => {

@@ -10,6 +10,7 @@
 import type { SweepDetail } from '../api/sweeps'
 import { channelScheme, storageRoles } from '../physics/pulse-roles'
 import { smallSignalExponent } from '../physics/gain-spectrum'
+import { criticalPowerOf } from '../physics/sweep-derived'
 import { DB_PER_NEPER_POWER } from '../physics/units'
 import { fitExponentialDecay, type ExponentialDecayResult } from './exponential-decay-fit'
 import { fitSmallSignalGainSlope, type GainSlopeResult } from './gain-slope-fit'
@@ -19,10 +20,13 @@ type Sweep = Pick<SweepDetail, 'axes' | 'baseConfig' | 'metrics' | 'points'>
 export interface LifetimeAnalysis {
   kind: 'lifetime'
   metricKey: string
-  /** τ = axis value − offsetNs: the delay after the write pulse (or the data pulse when none is labelled write). */
+  /**
+   * τ = axis value − offsetNs: the delay after the write pulse (or the data pulse when none is labelled write);
+   * 0 when the axis is the write–read delay itself.
+   */
   offsetNs: number
-  /** Which pulse's centre offsetNs is. */
-  anchor: 'write' | 'data'
+  /** Which pulse's centre offsetNs is, or 'axis' when the axis is τ. */
+  anchor: 'write' | 'data' | 'axis'
   result: ExponentialDecayResult
   /** 1/Γ_B of the waveguide (ns). */
   nominalEnergyLifetimeNs: number
@@ -32,6 +36,8 @@ export interface GainSlopeAnalysis {
   kind: 'gainSlope'
   metricKey: string
   result: GainSlopeResult
+  /** Watts per unit of the axis: 1, or P_cr for an axis in units of the critical power. */
+  wattsPerAxisUnit: number
   /** The CW closed form (dB/W), or null when the pump is pulsed. */
   nominalSlopeDbPerW: number | null
 }
@@ -64,28 +70,33 @@ export function sweepAnalyses(s: Sweep): SweepAnalysis[] {
   const out: SweepAnalysis[] = []
   cfg.channels.forEach((ch, ci) => {
     const scheme = channelScheme(ch)
-    if (scheme === 'storage' && axis.field === 'pulseCentreNs') {
-      const roles = storageRoles(ch)!
-      if (!sameLabel(roles.read.label, axis.pulseLabel)) return
+    const roles = scheme === 'storage' ? storageRoles(ch) : null
+    const readAxis = roles !== null && axis.field === 'pulseCentreNs' && sameLabel(roles.read.label, axis.pulseLabel)
+    // The write–read delay axis moves the read pulse of every channel with a write pulse (sweep-derived.ts).
+    const delayAxis = roles !== null && roles.write !== null && axis.field === 'storageDelayNs'
+    if (roles && (readAxis || delayAxis)) {
       // A write pulse sharing the read's label would move with it; then τ is measured from the data pulse.
       const byWrite = roles.write !== null && !sameLabel(roles.write.label, axis.pulseLabel)
-      const anchor = byWrite ? roles.write! : roles.data
+      const anchor = delayAxis ? 'axis' : byWrite ? 'write' : 'data'
+      const offsetNs = delayAxis ? 0 : byWrite ? roles.write!.centreNs : roles.data.centreNs
       const key = metricKey(s, ci, 'retrievalEfficiency')
       const { x, y } = series(s, key)
-      const offsetNs = anchor.centreNs
-      out.push({ kind: 'lifetime', metricKey: key, offsetNs, anchor: byWrite ? 'write' : 'data', result: fitExponentialDecay(x.map((v) => v - offsetNs), y), nominalEnergyLifetimeNs: 1e3 / (2 * Math.PI * w.linewidthMHz) })
+      out.push({ kind: 'lifetime', metricKey: key, offsetNs, anchor, result: fitExponentialDecay(x.map((v) => v - offsetNs), y), nominalEnergyLifetimeNs: 1e3 / (2 * Math.PI * w.linewidthMHz) })
     }
     const pumpPowerAxis =
       axis.field === 'pumpPowerW' ||
+      axis.field === 'pumpPowerCritical' ||
       (axis.field === 'pulsePeakPowerW' && ch.pump.pulses.some((p) => sameLabel(p.label, axis.pulseLabel)) && !ch.stokes.pulses.some((p) => sameLabel(p.label, axis.pulseLabel)))
     if (scheme === 'amplifier' && pumpPowerAxis) {
       const key = metricKey(s, ci, 'peakStokesGainDb')
       const { x, y } = series(s, key)
+      const wattsPerAxisUnit = axis.field === 'pumpPowerCritical' ? criticalPowerOf(cfg) : 1
       // The closed form holds for CW pump and Stokes; pulses shorter than the phonon lifetime see less gain.
-      const cw = axis.field === 'pumpPowerW' && ch.pump.pulses.length === 0 && ch.stokes.pulses.length === 0
+      const cw = (axis.field === 'pumpPowerW' || axis.field === 'pumpPowerCritical') && ch.pump.pulses.length === 0 && ch.stokes.pulses.length === 0
       // The exponent is linear in P: its value at 1 W is the slope in nepers per watt.
       const nominal = cw ? DB_PER_NEPER_POWER * smallSignalExponent(w, 1, cfg.detuningMHz) : null
-      out.push({ kind: 'gainSlope', metricKey: key, result: fitSmallSignalGainSlope(x, y), nominalSlopeDbPerW: nominal })
+      const result = fitSmallSignalGainSlope(x.map((v) => v * wattsPerAxisUnit), y)
+      out.push({ kind: 'gainSlope', metricKey: key, result, wattsPerAxisUnit, nominalSlopeDbPerW: nominal })
     }
   })
   return out

@@ -35,10 +35,16 @@ export function fitCurve(a: SweepAnalysis, lo: number, hi: number): [number, num
     }
     return out
   }
-  // The straight line over the points it was fitted to: beyond them the gain saturates.
+  // The straight line over the points it was fitted to (beyond them the gain saturates), in the axis' unit.
   const { slope, intercept, maxPowerUsedW } = a.result.fit
-  const end = Math.min(hi, maxPowerUsedW)
-  return [lo, end].map((x) => [x, intercept + slope * x] as [number, number])
+  const k = a.wattsPerAxisUnit
+  const end = Math.min(hi, maxPowerUsedW / k)
+  // Sampled, not two end points: on a log power axis the straight line is a curve.
+  for (let i = 0; i < CURVE_SAMPLES; i++) {
+    const x = lo + ((end - lo) * i) / (CURVE_SAMPLES - 1)
+    out.push([x, intercept + slope * x * k])
+  }
+  return out
 }
 
 /** The chart with each analysis' fitted curve drawn beside its plotted metric. */
@@ -71,12 +77,11 @@ export const logXPossible = (axisValues: number[]) => axisValues.length > 0 && a
 
 const positiveOrNull = (v: unknown) => (typeof v === 'number' && v > 0 ? v : null)
 
-/** The chart with log axes as asked; points at or below zero become gaps on a log y-axis. */
+/** The chart with log axes as asked (a linear x-axis too, whatever the axis' spacing); points at or below zero become gaps on a log y-axis. */
 export function withLogAxes<T extends LineChartOption>(option: T, logX: boolean, logY: boolean): T {
-  if (!logX && !logY) return option
   return {
     ...option,
-    xAxis: logX ? { ...option.xAxis, type: 'log', logBase: 10, scale: false } : option.xAxis,
+    xAxis: logX ? { ...option.xAxis, type: 'log', logBase: 10, scale: false } : { ...option.xAxis, type: 'value' },
     yAxis: logY ? option.yAxis.map((y) => ({ ...y, type: 'log', logBase: 10, scale: false })) : option.yAxis,
     series: logY
       ? option.series.map((s) => ({ ...s, data: (s.data ?? []).map((d) => (Array.isArray(d) ? [d[0], positiveOrNull(d[1]), ...d.slice(2)] : d)) }))
