@@ -55,8 +55,11 @@ function stepBlock(m: Model, s: FieldState, j0: number, j1: number, weight: numb
     const d0i = K * (ur * vr + ui * vi)
     const g0r = -f * d0i
     const g0i = f * d0r
-    let tbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + p0br * g0r - p0bi * g0i
-    let tbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + p0br * g0i + p0bi * g0r
+    // E₀₀b + E₀₁w, the free part of both the predictor and the corrector (the same partial sums there).
+    const ebr = e00r * br - e00i * bi + e01r * wr - e01i * wi
+    const ebi = e00r * bi + e00i * br + e01r * wi + e01i * wr
+    let tbr = ebr + p0br * g0r - p0bi * g0i
+    let tbi = ebi + p0br * g0i + p0bi * g0r
     let gfr = 0, gfi = 0
     if (noise) {
       const xr = sd * draws[d]
@@ -87,8 +90,8 @@ function stepBlock(m: Model, s: FieldState, j0: number, j1: number, weight: numb
     const d1i = K * (nur * nvr + nui * nvi)
     const g1r = -f * d1i
     const g1i = f * d1r
-    let nbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + qbr * g0r - qbi * g0i + p1br * g1r - p1bi * g1i
-    let nbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + qbr * g0i + qbi * g0r + p1br * g1i + p1bi * g1r
+    let nbr = ebr + qbr * g0r - qbi * g0i + p1br * g1r - p1bi * g1i
+    let nbi = ebi + qbr * g0i + qbi * g0r + p1br * g1i + p1bi * g1r
     let nwr = e10r * br - e10i * bi + e11r * wr - e11i * wi + qwr * g0r - qwi * g0i + p1wr * g1r - p1wi * g1i
     let nwi = e10r * bi + e10i * br + e11r * wi + e11i * wr + qwr * g0i + qwi * g0r + p1wr * g1i + p1wi * g1r
     if (noise) {
