@@ -19,6 +19,7 @@ import { tracesRoutes } from './modules/traces/traces.routes'
 import { fitsRoutes } from './modules/fits/fits.routes'
 import { startSweeps } from './modules/sweeps'
 import { waveguidesRoutes } from './modules/waveguides/waveguides.routes'
+import { startQueueSampler } from './modules/queue/queue-history'
 
 const config = loadEnv()
 const log = createLogger(config.logLevel)
@@ -62,6 +63,9 @@ const jobRoutes: Array<[string, Router]> = [
 const sweeps = await startSweeps({ db, pool, log, boss: jobs.boss, quotas: config.quotas })
 jobRoutes.push(['/sweeps', sweeps.routes])
 stoppers.unshift(sweeps.stop)
+
+// The admin page's chart: queue depth and busy solver threads sampled every 30 s (modules/queue/queue-history.ts).
+stoppers.push(startQueueSampler(pool, log))
 
 // A group's own waveguides (the presets live in shared/ and need no route).
 jobRoutes.push(['/waveguides', waveguidesRoutes({ db })])

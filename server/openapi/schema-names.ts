@@ -6,13 +6,14 @@ import * as auth from '@shared/api/auth'
 import * as fits from '@shared/api/fits'
 import * as groups from '@shared/api/groups'
 import * as health from '@shared/api/health'
+import * as queue from '@shared/api/queue'
 import * as runs from '@shared/api/runs'
 import * as shares from '@shared/api/shares'
 import * as sweeps from '@shared/api/sweeps'
 import * as traces from '@shared/api/traces'
 import * as waveguidesApi from '@shared/api/waveguides-api'
 
-const MODULES: Record<string, unknown>[] = [apiError, auth, fits, groups, health, runs, shares, sweeps, traces, waveguidesApi]
+const MODULES: Record<string, unknown>[] = [apiError, auth, fits, groups, health, queue, runs, shares, sweeps, traces, waveguidesApi]
 
 let names: Map<unknown, string> | null = null
 

@@ -1,3 +1,4 @@
+import { QueueActivity } from '@shared/api/queue'
 import { QueueStatus } from '@shared/api/runs'
 import { z } from 'zod'
 import { api } from './client'
@@ -27,3 +28,6 @@ export const setUserAdmin = (id: string, isAdmin: boolean) =>
 
 // Unlike api/queue.ts (which turns 403 into null for the dashboard card), the admin page needs the 403 itself.
 export const fetchQueueStatus = () => api.get('/queue', { schema: QueueStatus })
+
+/** The last hour of queue depth and busy solver threads, and each worker with the runs it has finished. */
+export const fetchQueueActivity = () => api.get('/queue/activity', { schema: QueueActivity })

@@ -10,10 +10,11 @@ import { accountRows } from './authz-matrix.accounts'
 import { waveguideRows } from './authz-matrix.waveguides'
 import { traceRows } from './authz-matrix.traces'
 import { sensingRows } from './authz-matrix.sensing'
+import { queueRows } from './authz-matrix.queue'
 import { ACTORS, buildFixture, headersFor, type MatrixRowSet } from './authz-matrix.fixture'
 import { silentLog, useTestDb } from './helpers'
 
-const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows, traceRows, sensingRows]
+const ROW_SETS: MatrixRowSet[] = [accountRows, waveguideRows, traceRows, sensingRows, queueRows]
 
 const { db, pool } = useTestDb()
 const app = createApp({

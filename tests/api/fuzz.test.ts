@@ -91,6 +91,7 @@ const ROUTES: Record<string, RouteSpec> = {
   'GET /api/runs/:id/arrays/:name': { path: (w) => `/api/runs/${w.runId}/arrays/time_ns`, query: () => ({ maxPoints: '100' }) },
   'GET /api/runs/:id/download': { path: (w) => `/api/runs/${w.runId}/download`, note: 'a ZIP stream; ids are fuzzed' },
   'GET /api/queue': { path: () => '/api/queue' },
+  'GET /api/queue/activity': { path: () => '/api/queue/activity' },
   'POST /api/traces': { path: () => '/api/traces', note: 'multipart upload; its fuzz belongs to the upload tests' },
   'GET /api/traces': { path: () => '/api/traces', query: (w) => ({ groupId: w.groupId, q: 'fuzz', page: '1', pageSize: '50' }) },
   'GET /api/traces/:id': { path: (w) => `/api/traces/${w.traceId}` },

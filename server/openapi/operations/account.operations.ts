@@ -17,6 +17,7 @@ import {
   UpdateMeBody,
 } from '@shared/api/auth'
 import { HealthStatus } from '@shared/api/health'
+import { QueueActivity } from '@shared/api/queue'
 import { QueueStatus } from '@shared/api/runs'
 import type { ApiOperation } from '../registry'
 
@@ -56,5 +57,13 @@ export const accountOperations: ApiOperation[] = [
   { method: 'GET', path: '/api/admin/held-mail', tag: 'Administration', auth: 'admin', summary: 'Mail held by the in-process catcher when no SMTP server is set', response: { status: 200, description: 'Held messages', contentType: 'application/json' } },
   { method: 'DELETE', path: '/api/admin/held-mail', tag: 'Administration', auth: 'admin', summary: 'Empty the held mail', response: noContent },
   { method: 'GET', path: '/api/queue', tag: 'Administration', auth: 'admin', summary: 'Queue depth, workers and their runs', response: { status: 200, description: 'Queue status', schema: QueueStatus } },
+  {
+    method: 'GET',
+    path: '/api/queue/activity',
+    tag: 'Administration',
+    auth: 'admin',
+    summary: 'Queue depth and busy solver threads over the last hour (sampled every 30 s), and each worker with the runs it has finished',
+    response: { status: 200, description: 'Samples, oldest first, and workers seen in the last minute', schema: QueueActivity },
+  },
 ]
 
