@@ -21,6 +21,7 @@ import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
 import { interactProfile, transportProfile } from './steppers/profile-kernel'
 import { ThreadedSveaEngine } from './engine/threaded-engine'
 import { resolveThreads, type ThreadChoice } from './engine/thread-choice'
+import type { CoreLease } from './engine/core-lease'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -56,6 +57,8 @@ export class SimulationRun {
   private readonly wasm: WasmSveaEngine | ThreadedSveaEngine | null
   /** Threads advancing this run (engine/thread-choice.ts); more than one only on the threaded engine. */
   readonly threads: number
+  /** Where this run's helper is counted (server solver threads), until close() gives it back. */
+  private lease: CoreLease | null
   /** Storage runs: the same run without the read pulses, forked at plan.forkN (storage-reference.ts). */
   private referencePlan: ReferencePlan | null = null
   private reference: SimulationRun | null = null
@@ -65,7 +68,7 @@ export class SimulationRun {
   constructor(
     readonly config: SimulationConfig,
     readonly grid: GridChoice,
-    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice; threads?: ThreadChoice } = {},
+    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice; threads?: ThreadChoice; coreLease?: CoreLease } = {},
   ) {
     const m = (this.model = buildModel(config, grid))
     this.forceGeneral = options.forceGeneralKernel ?? false
@@ -74,7 +77,8 @@ export class SimulationRun {
     // A forced engine never falls back silently (engine/wasm-engine.ts).
     if (this.profile && this.engineChoice === 'wasm' && !this.forceGeneral) throw new EngineUnavailableError('The WebAssembly engine computes a uniform waveguide only; sections along the length run in TypeScript')
     const engine = !this.profile && resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? 'wasm' : 'ts'
-    this.threads = resolveThreads(options.threads ?? 'auto', m, engine, this.profile !== null)
+    this.threads = resolveThreads(options.threads ?? 'auto', m, engine, this.profile !== null, undefined, options.coreLease)
+    this.lease = this.threads > 1 ? (options.coreLease ?? null) : null
     this.wasm = engine === 'ts' ? null : this.threads > 1 ? new ThreadedSveaEngine(m, this.threads) : new WasmSveaEngine(m)
     this.state = this.wasm?.state ?? allocateState(m)
     this.traces = config.channels.map((ch) => ({
@@ -109,6 +113,8 @@ export class SimulationRun {
   /** Ends the helper threads of a threaded run (done by itself at the end of the run; call it on abort). */
   close(): void {
     if (this.wasm instanceof ThreadedSveaEngine) this.wasm.close()
+    this.lease?.giveHelper()
+    this.lease = null
   }
 
   get done(): boolean {

@@ -16,9 +16,10 @@ import { postRunWarnings } from './observers/warnings'
 import { portSpectra, portTracesOf } from './observers/port-spectra'
 import { ENGINE_CHOICES, EngineUnavailableError, type EngineChoice } from './engine/wasm-engine'
 import { ThreadCountError, type ThreadChoice } from './engine/thread-choice'
+import { CoreLease } from './engine/core-lease'
 
 export const SOLVER_VERSION = '0.1.0'
-export { SOLVER_LIMITS, SimulationRun, ENGINE_CHOICES, type EngineChoice }
+export { SOLVER_LIMITS, SimulationRun, ENGINE_CHOICES, CoreLease, type EngineChoice }
 export type { ChannelTraces, ChannelFigures, FiguresOfMerit, SimulationManifest, SolverWarning }
 // What the server needs to store a run and write its files (the server reaches the solver only here).
 export { arrayFileName, buildRunManifest, npyDescrOf, MANIFEST_FILE, type RunManifest, type RunTimings, type StoredArray } from './io/manifest'
@@ -49,6 +50,8 @@ export interface SimulateOptions {
   engine?: EngineChoice
   /** 'auto' (default): two threads on a large plain run when the machine has a second core; 1 or 2 to force (engine/thread-choice.ts). */
   threads?: ThreadChoice
+  /** The server's count of computing threads per core (engine/core-lease.ts): a helper is taken only from a free core. */
+  coreLease?: CoreLease
 }
 
 export interface SimulationResult {
@@ -102,7 +105,7 @@ function prepare(input: unknown, opts: SimulateOptions): Prepared {
       if (opts.engine === 'wasm') throw new EngineUnavailableError('The WebAssembly engine computes the plain pump–Stokes pair only; co-propagating probes, further or forward resonances and cascades run in TypeScript')
       return { run: new NetworkRun(config, grid), failure: null }
     }
-    return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine, threads: opts.threads }), failure: null }
+    return { run: new SimulationRun(config, grid, { forceGeneralKernel: opts.forceGeneralKernel ?? false, engine: opts.engine, threads: opts.threads, coreLease: opts.coreLease }), failure: null }
   } catch (err) {
     if (err instanceof ThreadCountError) return { run: null, failure: failed(err.message, [{ path: 'threads', message: 'choose one thread or the automatic choice for this configuration' }]) }
     if (err instanceof EngineUnavailableError) return { run: null, failure: failed(err.message, [{ path: 'engine', message: 'choose the TypeScript engine (ts) or the automatic choice (auto) for this configuration' }]) }

@@ -2,7 +2,9 @@
 // run at a time. Starting a thread and loading the solver's TypeScript is about half a second, as long
 // as a short run itself, so threads are started once and reused. A thread that crashes, or does not stop
 // within the grace period after an abort, is dropped and a fresh one takes its place.
+import { availableParallelism } from 'node:os'
 import { Worker } from 'node:worker_threads'
+import { CoreLease } from '../../solver/index'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import type { SolverThreadInput, SolverThreadMessage, SolverThreadRequest } from './solver-thread'
 
@@ -55,7 +57,10 @@ class Slot {
   private readonly abortFlag = new SharedArrayBuffer(4)
   private readyWaiters: Array<{ ok: () => void; fail: (err: Error) => void }> = []
 
-  constructor(private readonly pool: SolverPool) {
+  constructor(
+    private readonly pool: SolverPool,
+    private readonly index: number,
+  ) {
     this.flag = new Int32Array(this.abortFlag)
   }
 
@@ -63,7 +68,7 @@ class Slot {
   start(): void {
     if (this.thread) return
     this.ready = false
-    const thread = new Worker(bootSource(this.pool.threadFile), { eval: true, workerData: { abortFlag: this.abortFlag } satisfies SolverThreadInput })
+    const thread = new Worker(bootSource(this.pool.threadFile), { eval: true, workerData: { abortFlag: this.abortFlag, cores: this.pool.cores, slot: this.index } satisfies SolverThreadInput })
     // An idle pool must not keep its process alive; a run in hand keeps it alive by its own timers.
     thread.unref()
     this.thread = thread
@@ -83,6 +88,8 @@ class Slot {
       crash = err
     })
     thread.on('exit', () => {
+      // A thread terminated mid-run never said it was done: its run (and helper) stop counting here.
+      CoreLease.release(this.pool.cores, this.index)
       if (this.thread !== thread) return
       const wasReady = this.ready
       this.thread = null
@@ -156,6 +163,8 @@ export class SolverPool {
   readonly abortGraceMs: number
   readonly threadFile: string
   closed = false
+  /** Threads computing per core, shared with every solver thread (a run takes a helper thread only from a free core). */
+  readonly cores: SharedArrayBuffer
   private readonly slots: Slot[]
   private readonly waiting: Waiter[] = []
   private seq = 0
@@ -164,7 +173,8 @@ export class SolverPool {
     if (!(o.size >= 1)) throw new Error('a solver pool needs at least one thread')
     this.abortGraceMs = o.abortGraceMs ?? 500
     this.threadFile = o.threadFile ?? THREAD_FILE
-    this.slots = Array.from({ length: o.size }, () => new Slot(this))
+    this.cores = CoreLease.buffer(availableParallelism(), o.size)
+    this.slots = Array.from({ length: o.size }, (_, i) => new Slot(this, i))
   }
 
   /** Starts every thread now and resolves once all are loaded, so the first run does not pay for the start either. */

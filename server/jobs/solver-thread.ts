@@ -3,12 +3,15 @@
 // solver's TypeScript costs about half a second, so the thread is kept and reused between runs.
 import { parentPort, workerData } from 'node:worker_threads'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
-import { simulateSync, type MapFrame } from '../../solver/index'
+import { CoreLease, simulateSync, type MapFrame } from '../../solver/index'
 import { solverEngine } from '../env'
 
 export interface SolverThreadInput {
   /** Int32 flag: non-zero asks the solver to stop at its next chunk (a few ms). The pool clears it before each run. */
   abortFlag: SharedArrayBuffer
+  /** The pool's count of computing threads per core (solver/engine/core-lease.ts) and this thread's slot in it. */
+  cores: SharedArrayBuffer
+  slot: number
 }
 
 /** What the pool sends: one run; the thread answers with progress and frames, then exactly one result. */
@@ -32,22 +35,33 @@ export const FRAME_INTERVAL_MS = 500
 
 const port = parentPort
 if (!port) throw new Error('solver-thread.ts runs as a worker thread')
-const flag = new Int32Array((workerData as SolverThreadInput).abortFlag)
+const input = workerData as SolverThreadInput
+const flag = new Int32Array(input.abortFlag)
+// A run counts its own thread while it computes, and a helper thread only when a core is free.
+const lease = new CoreLease(input.cores, input.slot)
 /** The step engine, from SOLVER_ENGINE (the thread inherits the process's environment). */
 const engine = solverEngine()
 const post = (m: SolverThreadMessage, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer)
 
 function runOne({ seq, config }: SolverThreadRequest): void {
-  const result = simulateSync(config, {
-    onProgress: (fraction) => post({ type: 'progress', seq, fraction }),
-    onFrame: (frame) => {
-      const m = frame.maps
-      post({ type: 'frame', seq, frame }, [m.pumpPowerW.buffer, m.stokesPowerW.buffer, m.acousticPhononsPerM.buffer] as ArrayBuffer[])
-    },
-    shouldAbort: () => Atomics.load(flag, 0) !== 0,
-    yieldEveryMs: FRAME_INTERVAL_MS,
-    engine,
-  })
+  // Counted from start to end of the computation; the result goes out after, so the next run sees the core free.
+  lease.enter()
+  let result: ReturnType<typeof simulateSync>
+  try {
+    result = simulateSync(config, {
+      onProgress: (fraction) => post({ type: 'progress', seq, fraction }),
+      onFrame: (frame) => {
+        const m = frame.maps
+        post({ type: 'frame', seq, frame }, [m.pumpPowerW.buffer, m.stokesPowerW.buffer, m.acousticPhononsPerM.buffer] as ArrayBuffer[])
+      },
+      shouldAbort: () => Atomics.load(flag, 0) !== 0,
+      yieldEveryMs: FRAME_INTERVAL_MS,
+      engine,
+      coreLease: lease,
+    })
+  } finally {
+    lease.leave()
+  }
   // Transferred, not copied: the thread keeps no reference to a finished run's arrays. Each buffer once in
   // the transfer list (two views may share one).
   const buffers = new Set<ArrayBuffer>(Object.values(result.arrays).map((a) => a.buffer as ArrayBuffer))

@@ -10,6 +10,7 @@ import { THREAD_MIN_CELLS, THREAD_MIN_NODE_STEPS } from '@shared/physics/resourc
 import type { Model } from '../problem/coupled-modes'
 import { fastPathApplies } from '../steppers/interaction-kernel'
 import { EngineUnavailableError } from './wasm-engine'
+import type { CoreLease } from './core-lease'
 
 /** 'auto' (default) or a forced thread count. */
 export type ThreadChoice = 'auto' | number
@@ -34,15 +35,21 @@ export interface MachineLoad {
 }
 const machineNow = (): MachineLoad => ({ cores: availableParallelism(), load: loadavg()[0] })
 
-/** The thread count of a run; a forced count above 1 that cannot run throws ThreadCountError. */
-export function resolveThreads(choice: ThreadChoice, m: Model, engine: 'ts' | 'wasm', profile: boolean, machine: () => MachineLoad = machineNow): number {
+/**
+ * The thread count of a run; a forced count above 1 that cannot run throws ThreadCountError. With a lease (the
+ * server's solver threads, engine/core-lease.ts) a helper is counted there, and the automatic choice takes one
+ * only while a core is free in it; the caller gives it back when the run ends.
+ */
+export function resolveThreads(choice: ThreadChoice, m: Model, engine: 'ts' | 'wasm', profile: boolean, machine: () => MachineLoad = machineNow, lease?: CoreLease): number {
   if (choice !== 'auto') {
     if (!Number.isInteger(choice) || choice < 1 || choice > MAX_THREADS) throw new ThreadCountError(`The thread count is 1 or ${MAX_THREADS}`)
     const problem = choice > 1 ? threadProblem(m, engine, profile) : null
     if (problem) throw new ThreadCountError(problem)
+    if (choice > 1) lease?.takeHelper()
     return choice
   }
   if (threadProblem(m, engine, profile) || m.nz < THREAD_MIN_CELLS || m.nodes * (m.nt + 1) < THREAD_MIN_NODE_STEPS) return 1
   const { cores, load } = machine()
-  return cores >= 2 && load < cores - 0.5 ? 2 : 1
+  if (cores < 2 || load >= cores - 0.5) return 1
+  return !lease || lease.tryTakeHelper() ? 2 : 1
 }

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest'
 import { planGrid, SimulationRun } from '../../solver/driver'
 import { buildModel } from '../../solver/problem/coupled-modes'
 import { resolveThreads, ThreadCountError } from '../../solver/engine/thread-choice'
+import { CoreLease } from '../../solver/engine/core-lease'
 import { estimateResources, SPEED_FACTOR_TWO_THREADS, THREAD_MIN_CELLS, THREAD_MIN_NODE_STEPS } from '@shared/physics/resource-estimate'
 import { simulateSync } from '../../solver/index'
 import { chipConfig } from './chip-fixtures'
@@ -78,5 +79,52 @@ describe('resource estimate', () => {
     expect(at(THREAD_MIN_CELLS) / small).toBeCloseTo(SPEED_FACTOR_TWO_THREADS, 12)
     const kerr = { waveguide: { kerrN2M2PerW: 1e-17 }, options: { kerr: true } }
     expect(at(THREAD_MIN_CELLS, kerr)).toBe(at(THREAD_MIN_CELLS - 1, kerr))
+  })
+})
+
+describe('core lease: one count of computing threads for all solver threads of a server', () => {
+  const large = modelOf(THREAD_MIN_CELLS)
+  it('a run takes a helper only from a free core, and gives it back', () => {
+    const buffer = CoreLease.buffer(2, 2)
+    const a = new CoreLease(buffer, 0)
+    const b = new CoreLease(buffer, 1)
+    a.enter()
+    expect(resolveThreads('auto', large, 'wasm', false, idle, a)).toBe(2)
+    expect(a.inUse).toBe(2)
+    b.enter()
+    // Both cores are taken (a run and its helper): the second run keeps to its own thread.
+    expect(resolveThreads('auto', large, 'wasm', false, idle, b)).toBe(1)
+    expect(b.inUse).toBe(3)
+    a.giveHelper()
+    a.leave()
+    expect(resolveThreads('auto', large, 'wasm', false, idle, b)).toBe(2)
+    expect(b.inUse).toBe(2)
+  })
+  it('a forced helper is counted even without a free core', () => {
+    const buffer = CoreLease.buffer(1, 1)
+    const a = new CoreLease(buffer, 0)
+    a.enter()
+    expect(resolveThreads(2, large, 'wasm', false, idle, a)).toBe(2)
+    expect(a.inUse).toBe(2)
+  })
+  it('a solver thread that ended mid-run gives back all it held', () => {
+    const buffer = CoreLease.buffer(4, 2)
+    const a = new CoreLease(buffer, 0)
+    const b = new CoreLease(buffer, 1)
+    a.enter()
+    b.enter()
+    expect(resolveThreads('auto', large, 'wasm', false, idle, a)).toBe(2)
+    CoreLease.release(buffer, 0)
+    expect(b.inUse).toBe(1)
+  })
+  it('a run gives its helper back when it closes', () => {
+    const config = chipConfig({ windowNs: 2, grid: cells(41), channels: cw })
+    const lease = new CoreLease(CoreLease.buffer(2, 1), 0)
+    lease.enter()
+    const run = new SimulationRun(config, planGrid(config), { threads: 2, coreLease: lease })
+    expect(lease.inUse).toBe(2)
+    run.close()
+    run.close()
+    expect(lease.inUse).toBe(1)
   })
 })
