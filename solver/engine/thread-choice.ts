@@ -1,10 +1,11 @@
 // How many threads advance one run: 1, or 2 with z cut into chunks the threads share (engine/threaded-engine.ts).
 // Automatic: two when the run is on the WebAssembly engine's plain SVEA path, the grid is long enough for the
-// per-step barriers to pay (THREAD_MIN_CELLS in shared/physics/resource-estimate.ts with the speed factor, measured by `npm run bench -- --threads`, benchmarks/README.md),
-// the run is long enough to pay the helper's start, and the machine has a core to spare: at least two cores
-// and a load average (runnable threads, this run's own included) below cores − ½. A server's solver threads
-// that are computing count in the load, so a run takes the helper only while another core idles; a busy
-// machine keeps one thread per run (and a helper would only wait for its turn at every barrier there).
+// per-step barriers to pay and the run long enough to pay the helper's start (THREAD_MIN_CELLS and
+// THREAD_MIN_NODE_STEPS in shared/physics/resource-estimate.ts, beside the speed factor; `npm run bench --
+// --threads` measures them, benchmarks/README.md), and the machine has a core to spare: at least two cores, a
+// load average (runnable threads, this run's own included) below cores − ½, and, in the server, a free core in
+// the count its solver threads share (engine/core-lease.ts). A busy machine keeps one thread per run: there a
+// helper would only wait for its turn at every barrier.
 import { availableParallelism, loadavg } from 'node:os'
 import { THREAD_MIN_CELLS, THREAD_MIN_NODE_STEPS } from '@shared/physics/resource-estimate'
 import type { Model } from '../problem/coupled-modes'
