@@ -37,10 +37,20 @@ export const SPEED_FACTOR_WASM_ENGINE = 2
  * never use the WebAssembly engine.
  */
 export const SPEED_FACTOR_PROFILE = 0.8
-/** Relative speed with the second-order acoustic equation (2×2 propagator per cell); benchmark: 0.20–0.31. */
-export const SPEED_FACTOR_HIGHER_ORDER = 0.25
-/** Relative speed with thermal noise (one complex normal deviate per cell and step); benchmark idle: 0.10–0.12. */
-export const SPEED_FACTOR_NOISE = 0.11
+/**
+ * Relative speed with the second-order acoustic equation (2×2 propagator per cell), one channel, on its flat
+ * kernel (solver/steppers/higher-order-kernel.ts) against the plain TypeScript path: benchmark 2026-12-03,
+ * interleaved side by side with the machine loaded (benchmarks/README.md, "Options on the fast path"), 0.48–1.15;
+ * about the low end, so estimates err long. Several channels take the general kernel: 0.20–0.31 there.
+ */
+export const SPEED_FACTOR_HIGHER_ORDER = 0.5
+/**
+ * Relative speed with thermal noise (four normal deviates per cell and step by the ziggurat), one channel, on
+ * its flat kernel (solver/steppers/svea-noise-kernel.ts) against the plain TypeScript path: benchmark
+ * 2026-12-03, side by side with the machine loaded, 0.22–0.34. Several channels or Kerr with noise take the
+ * general kernel, which measured 0.10–0.12 with the former generator.
+ */
+export const SPEED_FACTOR_NOISE = 0.25
 /**
  * Relative speed with Kerr phases (four Cayley rotations, nine divisions per cell), on the WebAssembly engine's
  * Kerr path against its plain one: benchmark 2026-12-03 (benchmarks/README.md), 0.46–0.51 (0.30–0.70 with the
