@@ -8,6 +8,7 @@ import { brillouinRates } from '@shared/physics/grid-step'
 import { exactDepletion } from '../tests/solver/closed-forms'
 import { cwDepletionCase, gridCase } from './cases'
 import { oscillationCoverage } from './oscillation-coverage'
+import { optionKernelTable } from './option-kernels'
 
 const quick = process.argv.includes('--quick')
 /** --quick skips every run above this many cell-updates. */
@@ -169,11 +170,13 @@ console.log(`# Sonoweave solver benchmark ${new Date().toISOString()}${quick ? '
 console.log(`node ${process.version}, ${os.cpus()[0]?.model ?? 'unknown CPU'} × ${os.cpus().length}, load average ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`)
 if (process.argv.includes('--engines')) {
   engineTable()
+  optionKernelTable()
 } else if (process.argv.includes('--threads')) {
   threadTable()
 } else {
   throughputTable()
   engineTable()
+  optionKernelTable()
   threadTable()
   scalingTable()
   workPrecision()
