@@ -3,7 +3,7 @@
  * Method for Generating Random Variables"), 128 layers, on the xoshiro128** stream of SeededRandom
  * (Blackman & Vigna 2018). The density f(x) = e^{−x²/2} is covered by 127 rectangles of equal area v and a
  * base strip (a rectangle plus the tail beyond r); a layer i is picked by 7 bits of a 32-bit draw j, and
- *   x = j·w_i                  accepted at once when |j| < k_i (the point lies inside the next layer up: ~98.8 %),
+ *   x = j·w_i                  accepted at once when |j| < k_i (inside the layer above: 97.2 %, Σk_i/(128·2³¹)),
  *   else, layer 0 (the tail):  x = r + e₁/r with e₁, e₂ exponential, accepted when 2e₂ > (e₁/r)² (Marsaglia 1964),
  *   else (a wedge):            accepted when f_i + U·(f_{i−1} − f_i) < e^{−x²/2}, otherwise draw again.
  * Constants from the paper: r = 3.442619855899, v = 9.91256303526217e-3; the tables are built at load with
@@ -41,6 +41,12 @@ const FN = new Float64Array(LAYERS)
     WN[i] = dn / M1
   }
 }
+/** k_i and w_i interleaved, [k₀, w₀, k₁, w₁, …]: the fast path reads both from one cache line. */
+const KW = new Float64Array(2 * LAYERS)
+for (let i = 0; i < LAYERS; i++) {
+  KW[2 * i] = KN[i]
+  KW[2 * i + 1] = WN[i]
+}
 
 /** Seeded standard normal deviates by the ziggurat (the solver's default NormalSource). */
 export class ZigguratNormal extends SeededRandom {
@@ -69,16 +75,14 @@ export class ZigguratNormal extends SeededRandom {
       s0 ^= s3
       s2 ^= t
       s3 = (s3 << 11) | (s3 >>> 21)
-      const i = j & (LAYERS - 1)
-      if (Math.abs(j) < KN[i]) {
-        out[k] = j * WN[i]
-        continue
-      }
+      const i2 = (j & (LAYERS - 1)) << 1
+      out[k] = j * KW[i2 + 1]
+      if (Math.abs(j) < KW[i2]) continue
       st[0] = s0
       st[1] = s1
       st[2] = s2
       st[3] = s3
-      out[k] = this.slow(j, i)
+      out[k] = this.slow(j, i2 >> 1)
       s0 = st[0]
       s1 = st[1]
       s2 = st[2]
