@@ -45,6 +45,14 @@ export const CHUNK_NODES = 512
 const SPINS = 200_000
 /** A helper that has not finished its chunk in this time has died: the run fails rather than hangs. */
 const STALL_MS = 30_000
+/**
+ * Helpers that took under this share of the chunks over TRIAL_PHASES phases are not getting a core (a loaded
+ * machine): the run's thread then computes SOLO_PHASES phases alone, and tries again. Waiting at each barrier for
+ * a chunk held by a descheduled helper would otherwise make two threads slower than one.
+ */
+const MIN_HELPER_SHARE = 0.2
+const TRIAL_PHASES = 256
+const SOLO_PHASES = 4096
 const OP_STEP = 0
 const OP_TRANSPORT = 1
 // ctrl slots (engine/block-step-source.ts), each on its own 64-byte cache line so that claiming a chunk and
@@ -67,6 +75,9 @@ export class ThreadedSveaEngine {
   /** Chunks the run's own thread did, and all chunks handed out (the helpers did the rest): for the benchmark. */
   ownChunks = 0
   allChunks = 0
+  private trialOwn = 0
+  private trialPhases = 0
+  private solo = 0
 
   /** `threads` − 1 helpers start here; `chunkNodes` is a testing aid (any value gives the same bits). */
   constructor(
@@ -124,15 +135,29 @@ export class ThreadedSveaEngine {
 
   private run(op: number): void {
     if (this.closed) throw new Error('ThreadedSveaEngine: used after close()')
+    if (this.solo > 0) {
+      // Alone: the same chunks in order, nothing published (a helper finds no phase to take from and sleeps).
+      this.solo--
+      for (let k = 0; k < this.chunks; k++) (op === OP_STEP ? this.stepper.step(k) : this.stepper.transport(k))
+      this.ownChunks += this.chunks
+      this.allChunks += this.chunks
+      return
+    }
     const c = this.ctrl
     this.phase = (this.phase + 1) & 0x7fff
     const word = ((this.phase << 17) | (op << 16)) | 0
     Atomics.store(c, FINISHED, 0)
     Atomics.store(c, WORD, word)
     if (Atomics.load(c, HELPERS_ASLEEP) > 0) Atomics.notify(c, WORD)
-    this.ownChunks += takeChunks(c, this.stepper, this.chunks, word)
+    const own = takeChunks(c, this.stepper, this.chunks, word)
+    this.ownChunks += own
     this.allChunks += this.chunks
     this.barrier()
+    this.trialOwn += own
+    if (++this.trialPhases < TRIAL_PHASES) return
+    if (1 - this.trialOwn / (TRIAL_PHASES * this.chunks) < MIN_HELPER_SHARE && this.threads > 1) this.solo = SOLO_PHASES
+    this.trialOwn = 0
+    this.trialPhases = 0
   }
 
   /** Waits until every chunk of the present phase is finished (some may still be in a helper's hands). */
