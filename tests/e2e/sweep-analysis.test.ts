@@ -34,12 +34,22 @@ beforeAll(async () => {
   const me = await (await page.request.get('/api/me')).json()
   const groupId = me.currentGroupId ?? me.memberships[0].groupId
 
-  // Lossless, so nothing but the phonon decay depends on the delay; the window holds the latest echo.
+  // Lossless, so nothing but the phonon decay depends on the delay. The write–read delay axis moves the read
+  // pulse; a second, one-value axis ties the data and write widths together; the 6 ns base window is too short for
+  // the longer delays' echoes, so those points get a longer window.
   const storage = example('store-and-retrieve-chalcogenide-rib')
   storage.waveguide.lossDbPerM = 0
-  Object.assign(storage, { windowNs: 9, energyWindows: [] })
+  Object.assign(storage, { windowNs: 6, energyWindows: [] })
   const s1 = await page.request.post('/api/sweeps', {
-    data: { groupId, title: 'E2E storage time', baseConfig: storage, axes: [{ field: 'pulseCentreNs', pulseLabel: 'read', values: { kind: 'linear', start: 2, stop: 6, count: 5 } }] },
+    data: {
+      groupId,
+      title: 'E2E storage time',
+      baseConfig: storage,
+      axes: [
+        { field: 'storageDelayNs', values: { kind: 'linear', start: 1, stop: 5, count: 5 } },
+        { field: 'pulseFwhmNs', pulseLabel: 'data', tiedLabels: ['write'], values: { kind: 'list', values: [0.15] } },
+      ],
+    },
   })
   expect(s1.status()).toBe(202)
   ids.storage = (await s1.json()).id
@@ -93,9 +103,19 @@ describe('sweep analysis', () => {
     const rows = page.locator('.sweep-points tbody tr')
     expect(await rows.first().locator('td').first().innerText()).toBe('1')
     expect(await rows.last().locator('td').first().innerText()).toBe('5')
+    // The tied widths are one value for the whole sweep, said above the chart; the longest delays ran in a
+    // lengthened window (the 6 ns base window ends before their echoes).
+    expect(await page.getByTestId('sweep-constant-axis').innerText()).toBe('The same for every point: Pulse width [data = write] (ns) = 0.15')
+    const detail = await (await page.request.get(`/api/sweeps/${ids.storage}`)).json()
+    const windowOf = async (i: number) => (await (await page.request.get(`/api/runs/${detail.points[i].runId}`)).json()).config.windowNs as number
+    expect(await windowOf(0)).toBe(6)
+    expect(await windowOf(4)).toBeGreaterThan(6.5)
+    const firstRun = await (await page.request.get(`/api/runs/${detail.points[0].runId}`)).json()
+    expect(firstRun.config.channels[0].pump.pulses[0].fwhmNs).toBe(0.15)
+    expect(firstRun.config.channels[0].stokes.pulses.map((p: { fwhmNs: number }) => p.fwhmNs)).toEqual([0.15, 0.2])
     await page.getByRole('row', { name: 'Open the run of point 1' }).click()
     await page.getByText('Point 1 of a sweep').waitFor()
-    expect(await page.locator('h1').innerText()).toBe('E2E storage time · point 1 (Pulse centre (e.g. write–read delay) [read] = 2)')
+    expect(await page.locator('h1').innerText()).toBe('E2E storage time · point 1 (Write–read delay = 1, Pulse width [data = write] = 0.15)')
   })
 
   it('gives the small-signal gain slope of a CW pump-power sweep beside the closed form and switches the x-axis to log', async () => {
@@ -140,6 +160,6 @@ describe('sweep analysis', () => {
 
     // The "Sweep points" filter lists the point runs themselves.
     await page.getByRole('button', { name: 'Sweep points' }).click()
-    await table.getByText('E2E storage time · point 1 (Pulse centre (e.g. write–read delay) [read] = 2)').waitFor()
+    await table.getByText('E2E storage time · point 1 (Write–read delay = 1, Pulse width [data = write] = 0.15)').waitFor()
   })
 })
