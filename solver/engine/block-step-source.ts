@@ -68,13 +68,15 @@ function takeChunks(ctrl, stepper, chunks, word) {
  * A helper thread: takes chunks whenever a phase has some left; otherwise spins a bounded number of times,
  * then sleeps in Atomics.wait with its "asleep" count (ctrl[32]) raised, so the run's thread knows to notify it.
  * ctrl (Int32, one 64-byte line each): [0] phase word, [16] chunks finished, [32] helpers asleep, [48] run's
- * thread asleep, [64] exit.
+ * thread asleep, [64] exit, [72] helpers ready.
  */
 export const HELPER_SOURCE = `${CHUNK_STEPPER_SOURCE}
 const { workerData: d } = require('node:worker_threads')
 const fn = new WebAssembly.Instance(d.module, { env: { memory: d.memory } }).exports
 const ctrl = new Int32Array(d.ctrl)
 const stepper = chunkStepper(fn, new Float64Array(d.memory.buffer), { ...d, edges: new Float64Array(d.edges) })
+Atomics.add(ctrl, 72, 1)
+Atomics.notify(ctrl, 72)
 let spins = 0
 while (Atomics.load(ctrl, 64) === 0) {
   const w = Atomics.load(ctrl, 0)

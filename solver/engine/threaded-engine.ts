@@ -62,6 +62,8 @@ const FINISHED = 16
 const HELPERS_ASLEEP = 32
 const MAIN_ASLEEP = 48
 const EXIT = 64
+/** Helpers started and ready to take chunks (a helper starts in tens of ms; until then the run's thread works alone). */
+const READY = 72
 const CTRL_INTS = 80
 
 export class ThreadedSveaEngine {
@@ -79,11 +81,15 @@ export class ThreadedSveaEngine {
   private trialPhases = 0
   private solo = 0
 
-  /** `threads` − 1 helpers start here; `chunkNodes` is a testing aid (any value gives the same bits). */
+  /**
+   * `threads` − 1 helpers start here. Testing aids: `chunkNodes` (any value gives the same bits), and
+   * `helpersOnly`, which leaves every chunk to the helpers so that the tests see each one computed off the run's thread.
+   */
   constructor(
     m: Model,
     readonly threads: number,
     chunkNodes = CHUNK_NODES,
+    private readonly helpersOnly = false,
   ) {
     const n = m.nodes
     const size = Math.max(chunkNodes, Math.ceil(n / 0xffff))
@@ -135,29 +141,39 @@ export class ThreadedSveaEngine {
 
   private run(op: number): void {
     if (this.closed) throw new Error('ThreadedSveaEngine: used after close()')
-    if (this.solo > 0) {
+    const c = this.ctrl
+    if (this.helpersOnly) this.waitForHelpers()
+    else if (this.solo > 0 || Atomics.load(c, READY) < this.threads - 1) {
       // Alone: the same chunks in order, nothing published (a helper finds no phase to take from and sleeps).
-      this.solo--
+      if (this.solo > 0) this.solo--
       for (let k = 0; k < this.chunks; k++) (op === OP_STEP ? this.stepper.step(k) : this.stepper.transport(k))
       this.ownChunks += this.chunks
       this.allChunks += this.chunks
       return
     }
-    const c = this.ctrl
     this.phase = (this.phase + 1) & 0x7fff
     const word = ((this.phase << 17) | (op << 16)) | 0
     Atomics.store(c, FINISHED, 0)
     Atomics.store(c, WORD, word)
     if (Atomics.load(c, HELPERS_ASLEEP) > 0) Atomics.notify(c, WORD)
-    const own = takeChunks(c, this.stepper, this.chunks, word)
+    const own = this.helpersOnly ? 0 : takeChunks(c, this.stepper, this.chunks, word)
     this.ownChunks += own
     this.allChunks += this.chunks
     this.barrier()
     this.trialOwn += own
-    if (++this.trialPhases < TRIAL_PHASES) return
+    if (++this.trialPhases < TRIAL_PHASES || this.helpersOnly) return
     if (1 - this.trialOwn / (TRIAL_PHASES * this.chunks) < MIN_HELPER_SHARE && this.threads > 1) this.solo = SOLO_PHASES
     this.trialOwn = 0
     this.trialPhases = 0
+  }
+
+  /** Blocks until every helper has started (testing aid; a run never waits for them). */
+  private waitForHelpers(): void {
+    const since = Date.now()
+    for (let ready; (ready = Atomics.load(this.ctrl, READY)) < this.threads - 1; ) {
+      Atomics.wait(this.ctrl, READY, ready, 50)
+      if (Date.now() - since > STALL_MS) throw new Error('A solver helper thread did not start')
+    }
   }
 
   /** Waits until every chunk of the present phase is finished (some may still be in a helper's hands). */

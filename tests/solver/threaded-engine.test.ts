@@ -72,13 +72,14 @@ describe('threaded engine: any chunk size and thread count gives the one-thread 
     // Past the engine's first trial of the helpers' share (256 phases), after which the run's thread may go on alone.
     [41, 2, 4, 30, 700],
   ]
-  for (const [nz, threads, chunk, lossDbPerM, steps] of cases) {
-    it(`${nz} cells, ${threads} threads, chunks of ${chunk} node(s), loss ${lossDbPerM} dB/m, ${steps} steps`, () => {
+  for (const [nz, threads, chunk, lossDbPerM, steps] of cases) for (const helpersOnly of [false, true]) {
+    const who = helpersOnly ? 'every chunk on a helper' : 'chunks taken by whichever thread is free'
+    it(`${nz} cells, ${threads} threads, chunks of ${chunk} node(s), loss ${lossDbPerM} dB/m, ${steps} steps, ${who}`, () => {
       const config = chipConfig({ windowNs: 1, grid: cells(nz), detuningMHz: 12, waveguide: { lossDbPerM } })
       const m = buildModel(config, planGrid(config))
       expect(m.nz).toBe(nz)
       const one = new WasmSveaEngine(m)
-      const many = new ThreadedSveaEngine(m, threads, chunk)
+      const many = new ThreadedSveaEngine(m, threads, chunk, helpersOnly)
       try {
         fill([one.state, many.state], nz * 7919 + threads)
         // Large fields, so the exchange is far from the identity and every term counts.
@@ -98,6 +99,7 @@ describe('threaded engine: any chunk size and thread count gives the one-thread 
         // Not a vacuous comparison: the state moved.
         expect(one.state.bRe.some((v) => v !== 0)).toBe(true)
         for (const key of ['uRe', 'vRe', 'bRe'] as const) expect(one.state[key].every(Number.isFinite), key).toBe(true)
+        if (helpersOnly) expect([many.ownChunks, many.allChunks]).toEqual([0, 2 * steps * Math.ceil((nz + 1) / chunk)])
       } finally {
         many.close()
       }
