@@ -5,6 +5,7 @@
 import { chooseGrid } from '@shared/physics/grid-step'
 import { estimateResources } from '@shared/physics/resource-estimate'
 import { SimulationConfig } from '@shared/physics/simulation-config'
+import { percentText } from '../sweep/sweep-format'
 
 /** The run's own share of the progress fraction: 1 when there is no companion run. */
 export function mainRunShare(config: unknown): number {
@@ -16,7 +17,8 @@ export function mainRunShare(config: unknown): number {
 }
 
 export function runProgressLabel(fraction: number, rowsFilled: number, rows: number, share: number): string {
-  const pct = `${Math.round(100 * fraction)} %`
+  // Below 10 % the digit after the point shows (a long run at 0.4 % is not "0 %").
+  const pct = fraction > 0 && fraction < 0.1 ? percentText(fraction) : `${Math.round(100 * fraction)} %`
   // The run's last progress event lands a hair under its share; all its rows being in settles it.
   const companion = share < 1 && (fraction > share + 1e-9 || (rows > 0 && rowsFilled >= rows && fraction >= share - 1e-3))
   return companion ? `${pct} · computing the error estimate` : `${pct} · ${rowsFilled} of ${rows} map rows`

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatToError, formatValue } from './sweep-format'
+import { formatToError, formatValue, percentText, progressOf } from './sweep-format'
 
 describe('formatToError', () => {
   it('quotes a figure down to the second significant digit of its estimated error (common practice)', () => {
@@ -20,5 +20,22 @@ describe('formatToError', () => {
     expect(formatToError(0.0778634, null)).toBe(formatValue(0.0778634))
     expect(formatToError(0.0778634, null)).toBe('0.07786')
     expect(formatToError(null, 0.1)).toBe('—')
+  })
+})
+
+describe('sweep progress', () => {
+  const counts = { queued: 8, running: 2, succeeded: 0, failed: 0, cancelled: 0 }
+  it('counts the running points’ own progress, so the bar moves before the first point finishes', () => {
+    const points = [
+      { status: 'running' as const, progress: 0.3 },
+      { status: 'running' as const, progress: 0.1 },
+      ...Array.from({ length: 8 }, () => ({ status: 'queued' as const, progress: 0 })),
+    ]
+    expect(progressOf({ counts, pointCount: 10, points })).toBeCloseTo(0.04, 15)
+    expect(progressOf({ counts, pointCount: 10 })).toBe(0)
+  })
+
+  it('writes small fractions with their digit instead of rounding them to zero', () => {
+    expect([0, 0.0004, 0.004, 0.04, 0.4, 0.999, 1].map(percentText)).toEqual(['0 %', '< 0.1 %', '0.4 %', '4 %', '40 %', '99 %', '100 %'])
   })
 })

@@ -42,7 +42,19 @@ export function defaultMetrics(s: SweepDetail, n = 2): string[] {
   return [...have].sort((a, b) => rank(a.key) - rank(b.key)).slice(0, n).map((m) => m.key)
 }
 
-export function progressOf(s: Pick<SweepDetail, 'counts' | 'pointCount'>): number {
+/** Share of the sweep done: finished points, plus the running points' own progress when the points are known. */
+export function progressOf(s: Pick<SweepDetail, 'counts' | 'pointCount'> & { points?: Pick<SweepDetail['points'][number], 'status' | 'progress'>[] }): number {
   const c = s.counts
-  return s.pointCount ? (c.succeeded + c.failed + c.cancelled) / s.pointCount : 0
+  if (!s.pointCount) return 0
+  const running = (s.points ?? []).reduce((sum, p) => sum + (p.status === 'running' ? Math.min(1, Math.max(0, p.progress)) : 0), 0)
+  return Math.min(1, (c.succeeded + c.failed + c.cancelled + running) / s.pointCount)
+}
+
+/** A percentage that stays true when small: "0.4 %" rather than "0 %", "< 0.1 %" once anything has started. */
+export function percentText(fraction: number): string {
+  const pct = 100 * fraction
+  if (pct <= 0) return '0 %'
+  if (pct < 0.1) return '< 0.1 %'
+  if (pct < 10) return `${Number(pct.toFixed(1))} %`
+  return `${Math.floor(pct)} %`
 }
