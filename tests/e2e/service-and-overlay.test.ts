@@ -126,3 +126,30 @@ describe('measured-trace overlay', () => {
     }
   })
 })
+
+describe('words a user reads', () => {
+  for (const theme of ['light', 'dark'] as const) {
+    for (const width of [1440, 390]) {
+      it(`names a pulse field for screen readers and says what is wrong with its unit; presets say their values are typical (${theme}, ${width} px)`, async () => {
+        const page = await freshPage(theme, width)
+        await signIn(page, DEMO.editor)
+        await page.goto('/simulations/new')
+        const power = page.getByRole('textbox', { name: 'Pump pulse 1 peak power, W', exact: true }).first()
+        await power.fill('-1')
+        await power.blur()
+        const row = power.locator('xpath=ancestor::li[1]')
+        await row.locator('.v-messages__message', { hasText: 'must be at least 0 W' }).waitFor()
+        await page.getByText(/[Pp]ump pulse 1, peak power: must be at least 0 W/).first().waitFor()
+        expect(await page.locator('main').innerText()).not.toMatch(/Too small|expected number|Invalid input|channels\.\d/)
+        await row.scrollIntoViewIfNeeded()
+        await screenshot(page, `words-pulse-field-${theme}-${width}`)
+
+        await page.goto('/waveguides')
+        const source = page.locator('.waveguides-page__source')
+        await source.getByText(/typical values; check against the paper/i).waitFor()
+        expect(await source.innerText()).not.toMatch(/from memory|validation case|docs\//)
+        await screenshot(page, `words-waveguide-source-${theme}-${width}`)
+      })
+    }
+  }
+})
