@@ -40,17 +40,19 @@ export const SPEED_FACTOR_PROFILE = 0.8
 /**
  * Relative speed with the second-order acoustic equation (2×2 propagator per cell), one channel, on its flat
  * kernel (solver/steppers/higher-order-kernel.ts) against the plain TypeScript path: benchmark 2026-12-03,
- * interleaved side by side with the machine loaded (benchmarks/README.md, "Options on the fast path"), 0.48–1.15;
- * about the low end, so estimates err long. Several channels take the general kernel: 0.20–0.31 there.
+ * interleaved side by side (benchmarks/README.md, "Options on the fast path"), 0.61–0.69 at load average 2.5–4.9
+ * (0.48–1.15 heavily loaded); a little under, so estimates err long. Several channels take the general kernel:
+ * 0.20–0.31 there.
  */
-export const SPEED_FACTOR_HIGHER_ORDER = 0.5
+export const SPEED_FACTOR_HIGHER_ORDER = 0.55
 /**
  * Relative speed with thermal noise (four normal deviates per cell and step by the ziggurat), one channel, on
  * its flat kernel (solver/steppers/svea-noise-kernel.ts) against the plain TypeScript path: benchmark
- * 2026-12-03, side by side with the machine loaded, 0.22–0.34. Several channels or Kerr with noise take the
- * general kernel, which measured 0.10–0.12 with the former generator.
+ * 2026-12-03, side by side, 0.37–0.44 at load average 2.5–4.9 (0.22–0.34 heavily loaded, before the last change of the
+ * generator's fill). Several channels or Kerr with noise take the general kernel, which measured 0.10–0.12 with
+ * the former generator.
  */
-export const SPEED_FACTOR_NOISE = 0.25
+export const SPEED_FACTOR_NOISE = 0.35
 /**
  * Relative speed with Kerr phases (four Cayley rotations, nine divisions per cell), on the WebAssembly engine's
  * Kerr path against its plain one: benchmark 2026-12-03 (benchmarks/README.md), 0.46–0.51 (0.30–0.70 with the
