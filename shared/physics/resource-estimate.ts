@@ -64,10 +64,11 @@ export const SPEED_FACTOR_KERR = 0.45
  * Two threads on one run (solver/engine/threaded-engine.ts): the engine's plain path with z in chunks shared by
  * the run's thread and one helper, taken automatically from THREAD_MIN_CELLS cells and THREAD_MIN_NODE_STEPS
  * node-steps when a core is idle. Relative speed against one thread of the same engine: 1.4, the low end of
- * 1.4–1.5× measured for two f64x2 threads with a spin barrier at N_z ≥ 8000 on the reference machine with a core
- * idle; `npm run bench -- --threads` under a load average of 11 gave 0.6–1.1× (benchmarks/README.md), which is why
- * the automatic choice takes the helper only while the load shows a core idle. The estimate assumes that; on a
- * busy machine the run keeps one thread and the estimate errs short by this factor.
+ * 1.4–1.5× measured in research runs for two f64x2 threads with a spin barrier at N_z ≥ 8000 on the reference
+ * machine with a core idle. `npm run bench -- --threads` has so far run only without a core to spare (load
+ * average 1.7–12): 0.66–1.14× (benchmarks/README.md), which is why the automatic choice takes the helper only
+ * while a core is idle. The estimate assumes that; on a busy machine the run keeps one thread and the estimate
+ * errs short by this factor. To be replaced by the benchmark's figure on an idle machine.
  */
 export const SPEED_FACTOR_TWO_THREADS = 1.4
 /** Shortest grid (cells) at which two threads are taken: below it the per-step barriers cost more than they save. */
