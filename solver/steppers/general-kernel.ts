@@ -1,7 +1,10 @@
 /*
  * The general interaction kernel: any number of channels, optional higher-order acoustics, Kerr and thermal
  * noise. It implements steps 1–5 of the contract at the top of interaction-kernel.ts (equations there), one
- * named function per step; interactSvea is the same arithmetic written flat for the plain one-channel case.
+ * named function per step; interactSvea is the same arithmetic written flat for the plain one-channel case, and
+ * interactSveaKerr, interactSveaNoise and interactHigherOrder for one channel with Kerr, with thermal noise and
+ * with the higher-order term (svea-kerr-kernel.ts, svea-noise-kernel.ts, higher-order-kernel.ts): a change of
+ * rounding order or of the order of draws here must be made there too (tests/solver/flat-kernels.test.ts).
  */
 import type { Model } from '../problem/coupled-modes'
 import type { NormalSource } from './seeded-random'
