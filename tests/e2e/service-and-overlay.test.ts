@@ -27,7 +27,11 @@ async function freshPage(theme: 'light' | 'dark', width = 1440): Promise<Page> {
 
 /** Nothing sticks out past the right edge of the viewport. */
 async function overflowPx(page: Page): Promise<number> {
-  return page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+  // The test side has no DOM types: the page's root is described by the two widths read.
+  return page.locator('html').evaluate((node) => {
+    const root = node as unknown as { scrollWidth: number; clientWidth: number }
+    return root.scrollWidth - root.clientWidth
+  })
 }
 
 beforeAll(async () => {
