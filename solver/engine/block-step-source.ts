@@ -19,6 +19,7 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
   const nz = d.nz, size = d.size, e = d.edges, loss = d.loss
   const K = d.K, Er = d.Er, Ei = d.Ei, h = d.h, cInner = 0.5 * d.c, cFacet = 0.25 * d.c
   return {
+    chunks: d.chunks,
     step(k) {
       const a = k * size, b = Math.min(nz, a + size - 1)
       const j0 = Math.max(a, 1), j1 = Math.min(b, nz - 1)
@@ -46,21 +47,25 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
 }
 
 /* Takes chunks of the present phase until none is left; returns how many it did. ctrl[0] is the phase word:
- * bits 31..17 the phase number, bit 16 the operation (0 step, 1 transport), bits 15..0 the next chunk. A
- * compare-exchange claims one chunk, so a thread that wakes up late cannot take a chunk of a phase gone by. */
-function takeChunks(ctrl, stepper, chunks, word) {
+ * bits 31..17 the phase number, bit 16 the operation (0 step, 1 transport), bits 15..8 the first chunk not yet
+ * taken, bits 7..0 one past the last. The run's thread takes from the front, helpers from the back, so each
+ * thread keeps about the same nodes (in its own core's cache) from phase to phase while the split still follows
+ * who is faster. A compare-exchange claims one chunk, so a thread that wakes up late cannot take a chunk of a
+ * phase gone by. */
+function takeChunks(ctrl, stepper, word, fromBack) {
   const phase = word >>> 16
   let done = 0
   for (;;) {
     const w = Atomics.load(ctrl, 0)
-    const k = w & 0xffff
-    if (w >>> 16 !== phase || k >= chunks) return done
-    if (Atomics.compareExchange(ctrl, 0, w, w + 1) !== w) continue
+    const front = (w >>> 8) & 0xff, back = w & 0xff
+    if (w >>> 16 !== phase || front >= back) return done
+    const k = fromBack ? back - 1 : front
+    if (Atomics.compareExchange(ctrl, 0, w, fromBack ? w - 1 : w + 0x100) !== w) continue
     if (phase & 1) stepper.transport(k)
     else stepper.step(k)
     done++
     // ctrl[16] counts the chunks finished in this phase; the run's thread waits for all of them.
-    if (Atomics.add(ctrl, 16, 1) + 1 === chunks && Atomics.load(ctrl, 48) === 1) Atomics.notify(ctrl, 16)
+    if (Atomics.add(ctrl, 16, 1) + 1 === stepper.chunks && Atomics.load(ctrl, 48) === 1) Atomics.notify(ctrl, 16)
   }
 }`
 
@@ -80,7 +85,7 @@ Atomics.notify(ctrl, 72)
 let spins = 0
 while (Atomics.load(ctrl, 64) === 0) {
   const w = Atomics.load(ctrl, 0)
-  if ((w & 0xffff) < d.chunks && takeChunks(ctrl, stepper, d.chunks, w) > 0) {
+  if (((w >>> 8) & 0xff) < (w & 0xff) && takeChunks(ctrl, stepper, w, true) > 0) {
     spins = 0
     continue
   }

@@ -27,11 +27,12 @@ interface WasmApi {
 const wasm = (globalThis as unknown as { WebAssembly: WasmApi }).WebAssembly
 
 interface Stepper {
+  readonly chunks: number
   step(k: number): void
   transport(k: number): void
 }
 type StepperFactory = (fn: unknown, f64: Float64Array, d: object) => Stepper
-type TakeChunks = (ctrl: Int32Array, stepper: Stepper, chunks: number, word: number) => number
+type TakeChunks = (ctrl: Int32Array, stepper: Stepper, word: number, fromBack: boolean) => number
 const [chunkStepper, takeChunks] = new Function(`${CHUNK_STEPPER_SOURCE}; return [chunkStepper, takeChunks]`)() as [StepperFactory, TakeChunks]
 
 let compiled: object | null = null
@@ -39,7 +40,7 @@ const sharedModule = () => (compiled ??= new wasm.Module(Uint8Array.from(atob(SV
 
 const PAGE_BYTES = 65536
 const BASE_BYTES = PAGE_BYTES
-/** Nodes per chunk: ~5 µs of work, so claiming one (a compare-exchange) costs nothing; ≤ 65535 chunks per phase. */
+/** Nodes per chunk: ~3 µs of work, so claiming one (a compare-exchange) costs nothing; ≤ 255 chunks per phase. */
 export const CHUNK_NODES = 512
 /** Spins before sleeping (some hundreds of µs): a helper kept awake between phases spares the run's thread a futex wake (tens of µs) per phase. */
 const SPINS = 200_000
@@ -92,7 +93,7 @@ export class ThreadedSveaEngine {
     private readonly helpersOnly = false,
   ) {
     const n = m.nodes
-    const size = Math.max(chunkNodes, Math.ceil(n / 0xffff))
+    const size = Math.max(chunkNodes, Math.ceil(n / 0xff))
     this.chunks = Math.ceil(n / size)
     const stride = Math.ceil((8 * n) / 16) * 16
     const pages = Math.ceil((BASE_BYTES + 6 * stride) / PAGE_BYTES)
@@ -106,8 +107,8 @@ export class ThreadedSveaEngine {
     const ctrl = new SharedArrayBuffer(4 * CTRL_INTS)
     const edges = new SharedArrayBuffer(8 * 4 * this.chunks)
     this.ctrl = new Int32Array(ctrl)
-    // Chunk index = chunks: no work until the first phase.
-    this.ctrl[WORD] = this.chunks
+    // First = last = 0: no work until the first phase.
+    this.ctrl[WORD] = 0
     const d = { nz: m.nz, size, chunks: this.chunks, at, K: m.driveK, c: m.exchangePerB, Er: m.svea.eRe, Ei: m.svea.eIm, h: m.dtS, loss: m.lossPerCell }
     this.stepper = chunkStepper(fn, new Float64Array(memory.buffer), { ...d, edges: new Float64Array(edges) })
     for (let t = 1; t < threads; t++) {
@@ -134,7 +135,7 @@ export class ThreadedSveaEngine {
     this.closed = true
     const c = this.ctrl
     Atomics.store(c, EXIT, 1)
-    Atomics.store(c, WORD, this.chunks)
+    Atomics.store(c, WORD, 0)
     Atomics.notify(c, WORD)
     for (const w of this.helpers) void w.terminate()
   }
@@ -152,11 +153,11 @@ export class ThreadedSveaEngine {
       return
     }
     this.phase = (this.phase + 1) & 0x7fff
-    const word = ((this.phase << 17) | (op << 16)) | 0
+    const word = (this.phase << 17) | (op << 16) | this.chunks
     Atomics.store(c, FINISHED, 0)
     Atomics.store(c, WORD, word)
     if (Atomics.load(c, HELPERS_ASLEEP) > 0) Atomics.notify(c, WORD)
-    const own = this.helpersOnly ? 0 : takeChunks(c, this.stepper, this.chunks, word)
+    const own = this.helpersOnly ? 0 : takeChunks(c, this.stepper, word, false)
     this.ownChunks += own
     this.allChunks += this.chunks
     this.barrier()
