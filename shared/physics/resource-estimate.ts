@@ -63,16 +63,19 @@ export const SPEED_FACTOR_KERR = 0.45
 /**
  * Two threads on one run (solver/engine/threaded-engine.ts): the engine's plain path with z in chunks shared by
  * the run's thread and one helper, taken automatically from THREAD_MIN_CELLS cells and THREAD_MIN_NODE_STEPS
- * node-steps when a core is idle. Relative speed against one thread of the same engine: 1.4, the low end of
- * 1.4–1.5× measured in research runs for two f64x2 threads with a spin barrier at N_z ≥ 8000 on the reference
- * machine with a core idle. `npm run bench -- --threads` has so far run only without a core to spare (load
- * average 1.7–12): 0.66–1.14× (benchmarks/README.md), which is why the automatic choice takes the helper only
- * while a core is idle. The estimate assumes that; on a busy machine the run keeps one thread and the estimate
- * errs short by this factor. To be replaced by the benchmark's figure on an idle machine.
+ * node-steps when a core is idle. Relative speed against one thread of the same engine, `npm run bench --
+ * --threads` 2026-12-03 at load average 2.5–3.5 (a core only partly free; benchmarks/README.md): 1.46–1.55 at
+ * N_z = 8000–16000 through the driver (0.86–1.27 in a run while the other core was busier), 1.56–1.73 for the
+ * engine alone; research runs with a core idle gave
+ * 1.4–1.5. The estimate assumes a free core; on a busy machine the run keeps one thread and the estimate errs
+ * short by this factor.
  */
 export const SPEED_FACTOR_TWO_THREADS = 1.4
-/** Shortest grid (cells) at which two threads are taken: below it the per-step barriers cost more than they save. */
-export const THREAD_MIN_CELLS = 4000
+/**
+ * Shortest grid (cells) at which two threads are taken: below it the per-step barriers cost more than they save.
+ * Measured at load average 2.5–3.5: 0.74–1.13× at N_z = 4000, up to 1.46–1.73× from 8000 (benchmarks/README.md).
+ */
+export const THREAD_MIN_CELLS = 8000
 /** Node-steps below which a helper thread's start (tens of milliseconds) is not paid back. */
 export const THREAD_MIN_NODE_STEPS = 2e7
 
