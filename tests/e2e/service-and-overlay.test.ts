@@ -74,11 +74,21 @@ async function alignWithDetector(page: Page, runId: string): Promise<number> {
   const panel = page.locator('.v-card', { hasText: 'Measured traces' }).first()
   await panel.scrollIntoViewIfNeeded()
   await panel.locator('.v-select', { hasText: 'Traces' }).first().click()
-  await page.getByRole('option', { name: 'Scope, pump out' }).click()
+  const traceOption = page.getByRole('option', { name: 'Scope, pump out' })
+  await traceOption.waitFor()
+  await traceOption.click()
   await page.keyboard.press('Escape')
+  // The multiple select's menu stays open until Escape; the next menu opens only once it has gone.
+  await traceOption.waitFor({ state: 'hidden' })
   await panel.locator('.overlay-note', { hasText: 'peaks matched' }).waitFor()
-  await panel.locator('.v-select', { hasText: 'Detector response' }).click()
-  await page.getByRole('option', { name: 'First-order (RC)' }).click()
+  const detector = panel.locator('.v-select', { hasText: 'Detector response' })
+  // Mid-screen, so its menu does not open under the fixed app bar.
+  await detector.evaluate((node) => (node as unknown as { scrollIntoView(o: { block: string }): void }).scrollIntoView({ block: 'center' }))
+  await detector.click()
+  const option = page.getByRole('option', { name: 'First-order (RC)' })
+  await option.waitFor()
+  await option.click()
+  await detector.filter({ hasText: 'First-order' }).waitFor()
   await panel.getByRole('button', { name: 'least squares' }).click()
   const note = panel.locator('.overlay-note', { hasText: 'least squares' })
   await note.locator('text=first-order detector, 1 GHz').waitFor()
@@ -120,7 +130,10 @@ describe('measured-trace overlay', () => {
     for (const [theme, width] of [['light', 1440], ['dark', 1440], ['light', 390], ['dark', 390]] as const) {
       const page = width === 1440 && theme === 'light' ? editor : await freshPage(theme, width)
       if (page !== editor) await signIn(page, DEMO.editor)
-      const shift = await alignWithDetector(page, runId)
+      const shift = await alignWithDetector(page, runId).catch(async (e) => {
+        await screenshot(page, `trace-overlay-failed-${theme}-${width}`)
+        throw e
+      })
       expect(Math.abs(shift - 1.2)).toBeLessThan(0.02)
       // The overlay card (its controls and chart) keeps inside the viewport.
       const card = page.locator('.v-card', { hasText: 'Measured traces' }).first()
