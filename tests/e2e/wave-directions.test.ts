@@ -76,10 +76,26 @@ describe('waves in both directions in the form', () => {
   it('adds a typical forward resonance with its source, its forward inputs and a Stokes cascade with its threshold and caution (dark theme)', async () => {
     const page = await editorPage('dark', signedIn)
     await fillWaves(page)
-    await page.getByRole('button', { name: 'Add typical forward resonance' }).click()
-    await page.locator('[aria-label="Typical forward resonances"]').getByText(/Suspended silicon waveguide/).click()
-    // The source stays beside the resonance it gave.
-    await page.getByText(/^Forward resonance 1 \(typical values\): Kittlaus, Shin & Rakich 2016/).waitFor()
+    // The source stays beside the resonance it gave. On a busy machine a click can land while the menu is still
+    // opening (or under the sticky app bar): the menu is opened centred and its item clicked until the resonance
+    // is there, never once it is.
+    const added = page.getByText(/^Forward resonance 1 \(typical values\): Kittlaus, Shin & Rakich 2016/)
+    const addButton = page.getByRole('button', { name: 'Add typical forward resonance' })
+    const item = page.locator('[aria-label="Typical forward resonances"]').getByText(/Suspended silicon waveguide/)
+    await expect
+      .poll(
+        async () => {
+          if ((await added.count()) > 0) return true
+          if (await item.isVisible()) await item.click({ timeout: 5_000 }).catch(() => {})
+          else {
+            await addButton.evaluate((el) => el.scrollIntoView({ block: 'center' }))
+            await addButton.click({ timeout: 5_000 }).catch(() => {})
+          }
+          return (await added.count()) > 0
+        },
+        { timeout: 90_000, intervals: [3_000] },
+      )
+      .toBe(true)
     await page.getByRole('region', { name: 'Forward Stokes input' }).waitFor()
     await page.getByRole('region', { name: 'Forward anti-Stokes input' }).waitFor()
     await page.locator('tr[data-quantity="forwardResonance1SmallSignalGain"]').waitFor()
