@@ -93,7 +93,7 @@ describe('waves in both directions in the form', () => {
           }
           return (await added.count()) > 0
         },
-        { timeout: 90_000, intervals: [3_000] },
+        { timeout: 90_000, interval: 3_000 },
       )
       .toBe(true)
     await page.getByRole('region', { name: 'Forward Stokes input' }).waitFor()
