@@ -18,10 +18,23 @@ afterAll(async () => {
   await browser?.close()
 })
 
+/**
+ * Opens the Figure menu and picks one entry. On a busy machine a click can land while the menu is still opening,
+ * so each step is repeated until it took (the menu shows the entry; the entry has gone once picked), and the file
+ * (a PDF is converted in the page) is given two minutes.
+ */
 async function save(page: Page, menu: ReturnType<Page['locator']>, choice: string): Promise<Buffer> {
-  await menu.click()
-  const [download] = await Promise.all([page.waitForEvent('download', { timeout: 30_000 }), page.getByTestId(choice).click()])
-  return readFileSync(await download.path())
+  const item = page.getByTestId(choice)
+  const download = page.waitForEvent('download', { timeout: 120_000 })
+  for (let i = 0; i < 5 && !(await item.isVisible()); i++) {
+    await menu.click()
+    await item.waitFor({ timeout: 10_000 }).catch(() => {})
+  }
+  for (let i = 0; i < 5 && (await item.isVisible()); i++) {
+    await item.click({ timeout: 10_000 }).catch(() => {})
+    await item.waitFor({ state: 'hidden', timeout: 10_000 }).catch(() => {})
+  }
+  return readFileSync(await (await download).path())
 }
 
 describe('chart figures', () => {
@@ -65,5 +78,5 @@ describe('chart figures', () => {
     const view = await ctx.newPage()
     await view.setContent(`<body style="margin:0;background:#fff">${svg}<br>${map}</body>`)
     await screenshot(view, 'figure-export-svg')
-  })
+  }, 300_000)
 })
