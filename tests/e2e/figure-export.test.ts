@@ -26,8 +26,10 @@ afterAll(async () => {
 async function save(page: Page, menu: ReturnType<Page['locator']>, choice: string): Promise<Buffer> {
   const item = page.getByTestId(choice)
   const download = page.waitForEvent('download', { timeout: 120_000 })
+  // Mid-screen, so the button is not under the fixed app bar and its menu opens in view.
+  await menu.evaluate((node) => (node as unknown as { scrollIntoView(o: { block: string }): void }).scrollIntoView({ block: 'center' }))
   for (let i = 0; i < 5 && !(await item.isVisible()); i++) {
-    await menu.click()
+    await menu.click({ timeout: 10_000 }).catch(() => {})
     await item.waitFor({ timeout: 10_000 }).catch(() => {})
   }
   for (let i = 0; i < 5 && (await item.isVisible()); i++) {

@@ -84,11 +84,16 @@ async function alignWithDetector(page: Page, runId: string): Promise<number> {
   const detector = panel.locator('.v-select', { hasText: 'Detector response' })
   // Mid-screen, so its menu does not open under the fixed app bar.
   await detector.evaluate((node) => (node as unknown as { scrollIntoView(o: { block: string }): void }).scrollIntoView({ block: 'center' }))
-  await detector.click()
   const option = page.getByRole('option', { name: 'First-order (RC)' })
-  await option.waitFor()
-  await option.click()
-  await detector.filter({ hasText: 'First-order' }).waitFor()
+  const chosen = detector.filter({ hasText: 'First-order' })
+  // On a busy machine a click can land while the menu is still opening: repeated until the choice shows.
+  for (let i = 0; i < 6 && (await chosen.count()) === 0; i++) {
+    if (!(await option.isVisible())) await detector.click({ timeout: 10_000 }).catch(() => {})
+    await option.waitFor({ timeout: 10_000 }).catch(() => {})
+    if (await option.isVisible()) await option.click({ timeout: 10_000 }).catch(() => {})
+    await chosen.waitFor({ timeout: 10_000 }).catch(() => {})
+  }
+  await chosen.waitFor()
   await panel.getByRole('button', { name: 'least squares' }).click()
   const note = panel.locator('.overlay-note', { hasText: 'least squares' })
   await note.locator('text=first-order detector, 1 GHz').waitFor()
