@@ -23,12 +23,15 @@ async function modulate(page: Page, port: 'Pump' | 'Stokes'): Promise<void> {
   const rate = group.getByLabel('Rate f_m')
   // Centre the select first: scrolled only "into view" it can sit under the sticky app bar. On a loaded machine
   // a click can land while the menu is still opening, so the choice is made again until the fields appear.
-  for (let attempt = 0; attempt < 3 && !(await rate.isVisible()); attempt++) {
+  const fm = page.getByRole('option', { name: 'Sinusoidal FM' })
+  for (let attempt = 0; attempt < 6 && !(await rate.isVisible()); attempt++) {
     await group.evaluate((el) => el.scrollIntoView({ block: 'center' }))
-    await group.locator('.simulation-port-modulation__kind .v-field').click()
-    await page.getByRole('option', { name: 'Sinusoidal FM' }).click()
-    await rate.waitFor({ timeout: 5_000 }).catch(() => {})
+    if (!(await fm.isVisible())) await group.locator('.simulation-port-modulation__kind .v-field').click({ timeout: 10_000 }).catch(() => {})
+    await fm.waitFor({ timeout: 10_000 }).catch(() => {})
+    if (await fm.isVisible()) await fm.click({ timeout: 10_000 }).catch(() => {})
+    await rate.waitFor({ timeout: 10_000 }).catch(() => {})
   }
+  await rate.waitFor()
   await page.getByRole('listbox').waitFor({ state: 'detached' })
   await rate.fill('20')
   await group.getByLabel('Excursion ±Δf').fill('2000')
