@@ -54,8 +54,8 @@ function offenders(dir: string): string[] {
 describe('internal wording', () => {
   it('finds the words in strings and templates but not in comments (the check itself)', () => {
     expect(scriptStrings('// from memory\nconst a = "values from memory"; const b = `V3 ${1} validation case`')).toEqual(['values from memory', 'V3 ', ' validation case'])
-    const sfc = '<template><p>The physics brief</p><!-- brief --></template>\n<script setup lang="ts">\n/* from memory */ const t = \'ok\'\n</script>'
-    expect(vueTexts(sfc).filter((p) => INTERNAL.test(p))).toEqual(['<p>The physics brief</p>'])
+    const sfc = '<template><p>Values from memory</p><!-- validation case --></template>\n<script setup lang="ts">\n/* from memory */ const t = \'ok\'\n</script>'
+    expect(vueTexts(sfc).filter((p) => INTERNAL.test(p))).toEqual(['<p>Values from memory</p>'])
   })
 
   it('has none in the client', () => {
