@@ -5,9 +5,10 @@
  * the sequence is the same bit for bit on every platform.
  */
 export class SeededNormal {
-  private readonly s = new Int32Array(4)
-  private spare = 0
-  private hasSpare = false
+  // Int32Array state: values above 2³¹ would otherwise be boxed doubles in object fields (slow).
+  protected readonly s = new Int32Array(4)
+  protected spare = 0
+  protected hasSpare = false
 
   constructor(seed: number) {
     let x = seed | 0
@@ -23,7 +24,7 @@ export class SeededNormal {
   }
 
   /** Next 32 random bits as a signed int32. */
-  private nextInt32(): number {
+  nextInt32(): number {
     const s = this.s
     const m = Math.imul(s[1], 5)
     const result = Math.imul((m << 7) | (m >>> 25), 9)
