@@ -22,6 +22,7 @@ import { interactProfile, transportProfile } from './steppers/profile-kernel'
 import { ThreadedSveaEngine } from './engine/threaded-engine'
 import { resolveThreads, type ThreadChoice } from './engine/thread-choice'
 import type { CoreLease } from './engine/core-lease'
+import type { KernelPath } from '@shared/physics/kernel-class'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -108,6 +109,17 @@ export class SimulationRun {
   /** Which code advances this run. */
   get engine(): 'ts' | 'wasm' {
     return this.wasm ? 'wasm' : 'ts'
+  }
+
+  /** Which interaction kernel advances this run: the cost class the resource estimate calibrates by (shared/physics/kernel-class.ts). */
+  get kernelPath(): KernelPath {
+    if (this.wasm) return this.config.options.kerr ? 'kerr' : 'plain'
+    if (this.profile) return 'profile'
+    if (this.fast) return 'plain'
+    if (this.kerrFast) return 'kerr'
+    if (this.noiseFast) return 'noise'
+    if (this.higherOrderFast) return 'higher-order'
+    return 'general'
   }
 
   /** Ends the helper threads of a threaded run (done by itself at the end of the run; call it on abort). */
