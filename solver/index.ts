@@ -9,6 +9,7 @@ import { SimulationConfig } from '@shared/physics/simulation-config'
 import { COMPLEX_LAYOUT, type ArrayDescriptor, type ChannelFigures, type FiguresOfMerit, type ResultGrid, type RunStatus, type SimulationManifest, type SolverWarning } from '@shared/physics/simulation-result'
 import { SOLVER_LIMITS, SimulationRun, planGrid } from './driver'
 import { usesWaveNetwork } from '@shared/physics/wave-set'
+import type { KernelClass } from '@shared/physics/kernel-class'
 import { NetworkRun } from './network/network-run'
 import { planCompanion } from './error-estimate-run'
 import type { ChannelTraces } from './observers/figures-of-merit'
@@ -314,7 +315,8 @@ function assemble(run: Run, status: RunStatus, message: string, wallTimeS: numbe
     acousticMapUnits: 'phonons/m',
   }
   const counters = { steps: Math.max(0, run.n - 1), cellUpdates, wallTimeS, cellUpdatesPerS: wallTimeS > 0 ? cellUpdates / wallTimeS : 0 }
-  const manifest: SimulationManifest = { solverVersion: SOLVER_VERSION, status, message, issues: [], warnings, counters, grid, figures, complexLayout: COMPLEX_LAYOUT, arrays: descriptors }
+  const kernel: KernelClass = run instanceof NetworkRun ? { engine: 'ts', threads: 1, path: 'network' } : { engine: run.engine, threads: run.threads, path: run.kernelPath }
+  const manifest: SimulationManifest = { solverVersion: SOLVER_VERSION, status, message, issues: [], warnings, counters, grid, figures, complexLayout: COMPLEX_LAYOUT, arrays: descriptors, kernel }
   return {
     status,
     message,

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { KernelClass } from './kernel-class'
 import { MapReduction, Port } from './simulation-config'
 import { RUN_SCHEMES } from './pulse-roles'
 import { FigureErrors } from './figure-error'
@@ -160,5 +161,7 @@ export const SimulationManifest = z.object({
   figures: FiguresOfMerit.nullable(),
   complexLayout: z.literal(COMPLEX_LAYOUT),
   arrays: z.array(ArrayDescriptor),
+  /** The engine, thread count and interaction kernel that advanced the run (absent in runs stored before it was recorded). */
+  kernel: KernelClass.optional(),
 })
 export type SimulationManifest = z.infer<typeof SimulationManifest>
