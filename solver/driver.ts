@@ -221,10 +221,15 @@ export class SimulationRun {
       if (m.advectionCourant > 0) advectAcoustic(m, s)
       if (this.recordMaps) this.maps.record(n, s)
       if (n < m.nt) {
-        this.transport()
-        this.inject(n + 1)
+        if (this.wasm instanceof ThreadedSveaEngine) this.transportLater(n + 1)
+        else {
+          this.transport()
+          this.inject(n + 1)
+        }
       }
     }
+    // Whoever reads the state between advance() calls (a fork, the final figures) sees the transported fields.
+    if (this.wasm instanceof ThreadedSveaEngine) this.wasm.settle()
     this.n = Math.max(this.n, end)
     if (this.done) this.close()
   }
@@ -273,6 +278,14 @@ export class SimulationRun {
         for (let j = base; j < base + nz; j++) (s.vRe[j] *= loss), (s.vIm[j] *= loss)
       }
     }
+  }
+
+  /** The threaded engine's transport and the inputs of time index n, done with the next interaction step (one barrier per step). */
+  private transportLater(n: number): void {
+    const m = this.model
+    const t = this.traces[0]
+    const engine = this.wasm as ThreadedSveaEngine
+    engine.transportLater(t.pumpIn[2 * n] / m.sqrtKappaP, t.pumpIn[2 * n + 1] / m.sqrtKappaP, t.stokesIn[2 * n] / m.sqrtKappa, t.stokesIn[2 * n + 1] / m.sqrtKappa)
   }
 
   private inject(n: number): void {

@@ -4,54 +4,78 @@
  * run's own thread builds its stepper from the same text, so every thread runs the same code.
  *
  * The nodes 0..nz are cut into contiguous chunks of `size` nodes; chunk k is [a, b] = [k·size, min(nz, a+size−1)].
- *  step(k):      sveaBlock on the chunk's interior nodes with c/2 and on a facet node (0 or nz) with c/4 — the
- *                driver's weights; then the chunk publishes its edge values for its neighbours' shift:
- *                u[b] (the next chunk's incoming pump) and v[a] (the previous chunk's incoming Stokes).
- *  transport(k): the engine's shift inside the chunk (u[a+1..b] ← u[a..b−1], v[a..b−1] ← v[a+1..b], times the
- *                loss per cell), then the two cells that cross a chunk boundary, from the published edges:
- *                u[a] ← u[a−1]·loss, v[b] ← v[b+1]·loss. A barrier separates the two phases, so an edge is read
- *                after its chunk wrote it and before anyone shifts it.
- * edges holds 4 numbers per chunk: uRe[b], uIm[b], vRe[a], vIm[a].
+ *  step(k, w):      sveaBlock on the chunk's interior nodes with c/2 and on a facet node (0 or nz) with c/4 — the
+ *                   driver's weights; then the chunk publishes its edge values for its neighbours' shift into
+ *                   edge set w: u[b] (the next chunk's incoming pump) and v[a] (the previous chunk's incoming Stokes).
+ *  transport(k, r): the engine's shift inside the chunk (u[a+1..b] ← u[a..b−1], v[a..b−1] ← v[a+1..b], times the
+ *                   loss per cell), then the two cells that cross a chunk boundary, from edge set r:
+ *                   u[a] ← u[a−1]·loss, v[b] ← v[b+1]·loss.
+ *  inject(k):       the boundary inputs the run's thread left in `inputs` (u[0] and v[nz], as the driver's inject).
+ * One phase may do transport(k), inject(k) and step(k) in turn (runChunk): one time step's transport and the
+ * next one's interaction, since after its shift a chunk's interaction reads its own nodes only.
+ * Edge sets alternate from step to step (w = 0, 1, 0, …), so a chunk that has already published this step's
+ * edges cannot overwrite the previous step's before its neighbour has read them; a barrier ends each phase.
+ * edges holds 2 sets of 4 numbers per chunk: uRe[b], uIm[b], vRe[a], vIm[a].
  */
 export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
   const [pu, pui, pv, pvi, pb, pbi] = d.at
   const ou = pu / 8, oui = pui / 8, ov = pv / 8, ovi = pvi / 8
-  const nz = d.nz, size = d.size, e = d.edges, loss = d.loss
+  const nz = d.nz, size = d.size, e = d.edges, loss = d.loss, set = 4 * d.chunks, inputs = d.inputs
   const K = d.K, Er = d.Er, Ei = d.Ei, h = d.h, cInner = 0.5 * d.c, cFacet = 0.25 * d.c
-  return {
+  const stepper = {
     chunks: d.chunks,
-    step(k) {
+    step(k, w) {
       const a = k * size, b = Math.min(nz, a + size - 1)
       const j0 = Math.max(a, 1), j1 = Math.min(b, nz - 1)
       if (j0 <= j1) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, j0, j1, K, cInner, Er, Ei, h)
       if (a === 0) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, 0, 0, K, cFacet, Er, Ei, h)
       if (b === nz) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, nz, nz, K, cFacet, Er, Ei, h)
-      e[4 * k] = f64[ou + b]
-      e[4 * k + 1] = f64[oui + b]
-      e[4 * k + 2] = f64[ov + a]
-      e[4 * k + 3] = f64[ovi + a]
+      const x = w * set + 4 * k
+      e[x] = f64[ou + b]
+      e[x + 1] = f64[oui + b]
+      e[x + 2] = f64[ov + a]
+      e[x + 3] = f64[ovi + a]
     },
-    transport(k) {
+    transport(k, r) {
       const a = k * size, b = Math.min(nz, a + size - 1)
       fn.transport(pu + 8 * a, pui + 8 * a, pv + 8 * a, pvi + 8 * a, b - a, loss)
+      const x = r * set + 4 * k
       if (a > 0) {
-        f64[ou + a] = loss !== 1 ? e[4 * k - 4] * loss : e[4 * k - 4]
-        f64[oui + a] = loss !== 1 ? e[4 * k - 3] * loss : e[4 * k - 3]
+        f64[ou + a] = loss !== 1 ? e[x - 4] * loss : e[x - 4]
+        f64[oui + a] = loss !== 1 ? e[x - 3] * loss : e[x - 3]
       }
       if (b < nz) {
-        f64[ov + b] = loss !== 1 ? e[4 * k + 6] * loss : e[4 * k + 6]
-        f64[ovi + b] = loss !== 1 ? e[4 * k + 7] * loss : e[4 * k + 7]
+        f64[ov + b] = loss !== 1 ? e[x + 6] * loss : e[x + 6]
+        f64[ovi + b] = loss !== 1 ? e[x + 7] * loss : e[x + 7]
       }
     },
+    inject(k) {
+      const a = k * size, b = Math.min(nz, a + size - 1)
+      if (a === 0) (f64[ou] = inputs[0]), (f64[oui] = inputs[1])
+      if (b === nz) (f64[ov + nz] = inputs[2]), (f64[ovi + nz] = inputs[3])
+    },
   }
+  return stepper
+}
+
+/* One chunk of the operation in ctrl[8]: bits 1..0 the operation (0 step, 1 transport, 2 transport and step),
+ * bit 2 the edge set read, bit 3 the edge set written, bit 4 set when the transport takes the boundary inputs. */
+function runChunk(stepper, op, k) {
+  const r = (op >>> 2) & 1, w = (op >>> 3) & 1
+  if ((op & 3) !== 0) {
+    stepper.transport(k, r)
+    if (op & 16) stepper.inject(k)
+  }
+  if ((op & 3) !== 1) stepper.step(k, w)
 }
 
 /* Takes chunks of the present phase until none is left; returns how many it did. ctrl[0] is the phase word:
- * bits 31..17 the phase number, bit 16 the operation (0 step, 1 transport), bits 15..8 the first chunk not yet
- * taken, bits 7..0 one past the last. The run's thread takes from the front, helpers from the back, so each
- * thread keeps about the same nodes (in its own core's cache) from phase to phase while the split still follows
- * who is faster. A compare-exchange claims one chunk, so a thread that wakes up late cannot take a chunk of a
- * phase gone by. */
+ * bits 31..16 the phase number, bits 15..8 the first chunk not yet taken, bits 7..0 one past the last; ctrl[8]
+ * the operation (runChunk), written before the word. The run's thread takes chunks from the front, helpers from
+ * the back, so each thread keeps about the same nodes (in its own core's cache) from phase to phase while the
+ * split still follows who is faster. A compare-exchange claims one chunk, so a thread that wakes up late cannot
+ * take a chunk of a phase gone by; the operation is read after the claim, when the phase cannot have moved on
+ * (the next one is published only once this chunk is finished). */
 function takeChunks(ctrl, stepper, word, fromBack) {
   const phase = word >>> 16
   let done = 0
@@ -61,8 +85,7 @@ function takeChunks(ctrl, stepper, word, fromBack) {
     if (w >>> 16 !== phase || front >= back) return done
     const k = fromBack ? back - 1 : front
     if (Atomics.compareExchange(ctrl, 0, w, fromBack ? w - 1 : w + 0x100) !== w) continue
-    if (phase & 1) stepper.transport(k)
-    else stepper.step(k)
+    runChunk(stepper, Atomics.load(ctrl, 8), k)
     done++
     // ctrl[16] counts the chunks finished in this phase; the run's thread waits for all of them.
     if (Atomics.add(ctrl, 16, 1) + 1 === stepper.chunks && Atomics.load(ctrl, 48) === 1) Atomics.notify(ctrl, 16)
@@ -72,14 +95,14 @@ function takeChunks(ctrl, stepper, word, fromBack) {
 /*
  * A helper thread: takes chunks whenever a phase has some left; otherwise spins a bounded number of times,
  * then sleeps in Atomics.wait with its "asleep" count (ctrl[32]) raised, so the run's thread knows to notify it.
- * ctrl (Int32, one 64-byte line each): [0] phase word, [16] chunks finished, [32] helpers asleep, [48] run's
- * thread asleep, [64] exit, [72] helpers ready.
+ * ctrl (Int32; each group on its own 64-byte line): [0] phase word and [8] its operation, [16] chunks finished, [32] helpers
+ * asleep, [48] run's thread asleep, [64] exit, [72] helpers ready.
  */
 export const HELPER_SOURCE = `${CHUNK_STEPPER_SOURCE}
 const { workerData: d } = require('node:worker_threads')
 const fn = new WebAssembly.Instance(d.module, { env: { memory: d.memory } }).exports
 const ctrl = new Int32Array(d.ctrl)
-const stepper = chunkStepper(fn, new Float64Array(d.memory.buffer), { ...d, edges: new Float64Array(d.edges) })
+const stepper = chunkStepper(fn, new Float64Array(d.memory.buffer), { ...d, edges: new Float64Array(d.edges), inputs: new Float64Array(d.inputs) })
 Atomics.add(ctrl, 72, 1)
 Atomics.notify(ctrl, 72)
 let spins = 0

@@ -2,9 +2,12 @@
  * The threaded step engine: the plain single-channel SVEA step of the WebAssembly engine with z cut into
  * contiguous chunks that the run's own thread and its helper threads (node:worker_threads) take in turn
  * (docs/numerics.md, "Threaded step"). The field arrays live in one shared WebAssembly memory (the shared
- * build of the same AssemblyScript source). Each phase — the interaction step, the transport shift — ends at
- * a barrier (Atomics on a SharedArrayBuffer: a bounded spin, then Atomics.wait), so the driver's port
- * recording, maps and boundary injection see a whole step, as with one thread. Chunks are taken, not dealt:
+ * build of the same AssemblyScript source). A time step is one phase: each chunk does the previous step's
+ * transport shift and boundary inputs, then this step's interaction (a chunk's shift needs only the edge values
+ * its neighbours published the step before, kept in two alternating sets). The phase ends at a barrier (Atomics
+ * on a SharedArrayBuffer: a bounded spin, then Atomics.wait), so the driver's port recording and maps see the
+ * whole field after the interaction step, as with one thread; one barrier per step, not two, since the run's
+ * thread then waits only once per step for the slower thread. Chunks are taken, not dealt:
  * on a loaded machine a helper that is not scheduled leaves its share to the others instead of holding
  * everyone at the barrier.
  *
@@ -28,12 +31,11 @@ const wasm = (globalThis as unknown as { WebAssembly: WasmApi }).WebAssembly
 
 interface Stepper {
   readonly chunks: number
-  step(k: number): void
-  transport(k: number): void
 }
 type StepperFactory = (fn: unknown, f64: Float64Array, d: object) => Stepper
 type TakeChunks = (ctrl: Int32Array, stepper: Stepper, word: number, fromBack: boolean) => number
-const [chunkStepper, takeChunks] = new Function(`${CHUNK_STEPPER_SOURCE}; return [chunkStepper, takeChunks]`)() as [StepperFactory, TakeChunks]
+type RunChunk = (stepper: Stepper, op: number, k: number) => void
+const [chunkStepper, takeChunks, runChunk] = new Function(`${CHUNK_STEPPER_SOURCE}; return [chunkStepper, takeChunks, runChunk]`)() as [StepperFactory, TakeChunks, RunChunk]
 
 let compiled: object | null = null
 const sharedModule = () => (compiled ??= new wasm.Module(Uint8Array.from(atob(SVEA_STEP_SHARED_WASM_BASE64), (ch) => ch.charCodeAt(0))))
@@ -54,11 +56,19 @@ const STALL_MS = 30_000
 const MIN_HELPER_SHARE = 0.2
 const TRIAL_PHASES = 256
 const SOLO_PHASES = 4096
+// Operations (runChunk in engine/block-step-source.ts): bits 1..0 what, bit 2 the edge set read, bit 3 the set
+// written, bit 4 the transport takes the boundary inputs.
 const OP_STEP = 0
 const OP_TRANSPORT = 1
-// ctrl slots (engine/block-step-source.ts), each on its own 64-byte cache line so that claiming a chunk and
-// counting finished ones do not contend for one line.
+const OP_TRANSPORT_STEP = 2
+const READ_SET_1 = 4
+const WRITE_SET_1 = 8
+const WITH_INPUTS = 16
+// ctrl slots (engine/block-step-source.ts), each group on its own 64-byte cache line so that claiming a chunk
+// and counting finished ones do not contend for one line; the operation shares the phase word's line, since
+// it is read right after a chunk is claimed.
 const WORD = 0
+const OP = 8
 const FINISHED = 16
 const HELPERS_ASLEEP = 32
 const MAIN_ASLEEP = 48
@@ -73,7 +83,13 @@ export class ThreadedSveaEngine {
   private readonly stepper: Stepper
   private readonly helpers: Worker[] = []
   private readonly chunks: number
+  /** Boundary inputs of a transport left for the next phase: u at node 0, v at node nz (re, im). */
+  private readonly inputs: Float64Array
   private phase = 0
+  /** The edge set the last interaction step wrote (it alternates: block-step-source.ts). */
+  private edgeSet = 0
+  /** A transport is owed: done at the start of the next step's phase, or by settle(). */
+  private pendingTransport = 0
   private closed = false
   /** Chunks the run's own thread did, and all chunks handed out (the helpers did the rest): for the benchmark. */
   ownChunks = 0
@@ -105,28 +121,63 @@ export class ThreadedSveaEngine {
     const none = new Float64Array(0)
     this.state = { uRe: view(0), uIm: view(1), vRe: view(2), vIm: view(3), bRe: view(4), bIm: view(5), wRe: none, wIm: none, scratch: none }
     const ctrl = new SharedArrayBuffer(4 * CTRL_INTS)
-    const edges = new SharedArrayBuffer(8 * 4 * this.chunks)
+    const edges = new SharedArrayBuffer(8 * 2 * 4 * this.chunks)
+    const inputs = new SharedArrayBuffer(8 * 4)
+    this.inputs = new Float64Array(inputs)
     this.ctrl = new Int32Array(ctrl)
     // First = last = 0: no work until the first phase.
     this.ctrl[WORD] = 0
     const d = { nz: m.nz, size, chunks: this.chunks, at, K: m.driveK, c: m.exchangePerB, Er: m.svea.eRe, Ei: m.svea.eIm, h: m.dtS, loss: m.lossPerCell }
-    this.stepper = chunkStepper(fn, new Float64Array(memory.buffer), { ...d, edges: new Float64Array(edges) })
+    this.stepper = chunkStepper(fn, new Float64Array(memory.buffer), { ...d, edges: new Float64Array(edges), inputs: this.inputs })
     for (let t = 1; t < threads; t++) {
-      const w = new Worker(HELPER_SOURCE, { eval: true, workerData: { ...d, module, memory, ctrl, edges, spins: SPINS } })
+      const w = new Worker(HELPER_SOURCE, { eval: true, workerData: { ...d, module, memory, ctrl, edges, inputs, spins: SPINS } })
       // A helper never keeps the process alive; close() ends it.
       w.unref()
       this.helpers.push(w)
     }
   }
 
-  /** The interaction step at every node. */
+  /**
+   * The interaction step at every node; a transport left by transportLater() is done first, chunk by chunk in
+   * the same phase (each chunk's shift needs only the edges its neighbours published in the previous step).
+   */
   step(): void {
-    this.run(OP_STEP)
+    const read = this.edgeSet === 1 ? READ_SET_1 : 0
+    this.edgeSet ^= 1
+    const write = this.edgeSet === 1 ? WRITE_SET_1 : 0
+    const op = this.pendingTransport ? OP_TRANSPORT_STEP | this.pendingTransport | read : OP_STEP
+    this.pendingTransport = 0
+    this.run(op | write)
   }
 
   /** The exact shift along the characteristics, the cells crossing a chunk edge from the published edges. */
   transport(): void {
-    this.run(OP_TRANSPORT)
+    this.settle()
+    this.pendingTransport = OP_TRANSPORT
+    this.settle()
+  }
+
+  /**
+   * The shift and then the boundary inputs (u at node 0 and v at node nz, real and imaginary parts, as the
+   * driver's inject), left for the next step() so that one barrier per time step suffices; `settle()` does them
+   * now. Until then the state holds the fields after the interaction step.
+   */
+  transportLater(u0Re: number, u0Im: number, vNzRe: number, vNzIm: number): void {
+    this.settle()
+    const x = this.inputs
+    x[0] = u0Re
+    x[1] = u0Im
+    x[2] = vNzRe
+    x[3] = vNzIm
+    this.pendingTransport = OP_TRANSPORT | WITH_INPUTS
+  }
+
+  /** Does a pending transport (and its inputs) now, so that the state is the one a single thread would hold. */
+  settle(): void {
+    if (!this.pendingTransport) return
+    const op = this.pendingTransport | (this.edgeSet === 1 ? READ_SET_1 : 0)
+    this.pendingTransport = 0
+    this.run(op)
   }
 
   /** Ends the helper threads (the field arrays stay readable). Idempotent. */
@@ -147,14 +198,15 @@ export class ThreadedSveaEngine {
     else if (this.solo > 0 || Atomics.load(c, READY) < this.threads - 1) {
       // Alone: the same chunks in order, nothing published (a helper finds no phase to take from and sleeps).
       if (this.solo > 0) this.solo--
-      for (let k = 0; k < this.chunks; k++) (op === OP_STEP ? this.stepper.step(k) : this.stepper.transport(k))
+      for (let k = 0; k < this.chunks; k++) runChunk(this.stepper, op, k)
       this.ownChunks += this.chunks
       this.allChunks += this.chunks
       return
     }
     this.phase = (this.phase + 1) & 0x7fff
-    const word = (this.phase << 17) | (op << 16) | this.chunks
+    const word = (this.phase << 16) | this.chunks
     Atomics.store(c, FINISHED, 0)
+    Atomics.store(c, OP, op)
     Atomics.store(c, WORD, word)
     if (Atomics.load(c, HELPERS_ASLEEP) > 0) Atomics.notify(c, WORD)
     const own = this.helpersOnly ? 0 : takeChunks(c, this.stepper, word, false)

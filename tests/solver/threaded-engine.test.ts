@@ -107,6 +107,55 @@ describe('threaded engine: any chunk size and thread count gives the one-thread 
   }
 })
 
+describe('threaded engine: the transport left for the next step gives the one-thread bits', () => {
+  // The driver's threaded path: transportLater(inputs) and one phase per step (the shift, the boundary inputs,
+  // then the interaction), against the one-thread engine's step, transport and the driver's inject.
+  const cases: [number, number, number, number][] = [
+    // [cells, threads, nodes per chunk, loss dB/m]
+    [7, 2, 1, 30],
+    [40, 2, 3, 0],
+    [41, 3, 4, 30],
+    [1201, 2, 512, 30],
+  ]
+  for (const [nz, threads, chunk, lossDbPerM] of cases) for (const helpersOnly of [false, true]) {
+    it(`${nz} cells, ${threads} threads, chunks of ${chunk}, loss ${lossDbPerM} dB/m, ${helpersOnly ? 'every chunk on a helper' : 'any thread'}`, () => {
+      const config = chipConfig({ windowNs: 1, grid: cells(nz), detuningMHz: 12, waveguide: { lossDbPerM } })
+      const m = buildModel(config, planGrid(config))
+      const one = new WasmSveaEngine(m)
+      const many = new ThreadedSveaEngine(m, threads, chunk, helpersOnly)
+      try {
+        fill([one.state, many.state], nz * 31 + threads)
+        for (const s of [one.state, many.state]) for (const a of [s.uRe, s.uIm]) for (let j = 0; j < a.length; j++) a[j] *= 1e3
+        const steps = 300
+        const input = (n: number, i: number) => Math.sin(0.37 * n + i) * (i < 2 ? 1e3 : 1)
+        for (let n = 0; n < steps; n++) {
+          one.step()
+          many.step()
+          // Between the phases the state is the one after the interaction step, as the driver's ports read it.
+          expect(Object.is(many.state.uRe[nz], one.state.uRe[nz]) && Object.is(many.state.vIm[0], one.state.vIm[0])).toBe(true)
+          one.transport()
+          const s = one.state
+          ;[s.uRe[0], s.uIm[0], s.vRe[nz], s.vIm[nz]] = [input(n, 0), input(n, 1), input(n, 2), input(n, 3)]
+          many.transportLater(input(n, 0), input(n, 1), input(n, 2), input(n, 3))
+          // Now and then the state is read mid-run (a fork): settle() does the pending transport first.
+          if (n % 97 === 0) many.settle()
+        }
+        many.settle()
+        for (const key of ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm'] as const) {
+          const a = one.state[key], b = many.state[key]
+          let bad = -1
+          for (let j = 0; j < a.length; j++) if (!Object.is(a[j], b[j])) (bad = j), (j = a.length)
+          expect(bad, `${key} first differs at node ${bad}`).toBe(-1)
+        }
+        expect(one.state.bRe.some((v) => v !== 0)).toBe(true)
+        for (const key of ['uRe', 'vRe', 'bRe'] as const) expect(one.state[key].every(Number.isFinite), key).toBe(true)
+      } finally {
+        many.close()
+      }
+    })
+  }
+})
+
 describe('two threads: stopping', () => {
   const config = RUNS['chip, 1201 cells (odd, three chunks), lossy, crossing pulses']
   it('a stop request ends the run at the next chunk check, as on one thread', () => {
