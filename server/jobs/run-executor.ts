@@ -5,10 +5,11 @@ import { describeIssuePath } from '@shared/api/issue-path-labels'
 import '@shared/api/issue-messages'
 import { SimulationConfig } from '@shared/physics/simulation-config'
 import { chooseGrid } from '@shared/physics/grid-step'
-import { estimateResources } from '@shared/physics/resource-estimate'
+import { envelopeCounts, estimateResources, PLAIN_FIELDS, PLAIN_WAVES } from '@shared/physics/resource-estimate'
 import type { SimulationManifest } from '@shared/physics/simulation-result'
 import { buildRunManifest } from '../../solver/index'
 import type { Logger } from '../logger'
+import { insertRunCost } from '../modules/estimates/run-costs.repo'
 import { claimRun, finishFailed, finishSucceeded, heartbeat, writeMapBlock, writeProgress } from './run-store'
 import { SolverPool, type PoolRun, type RunMessage, type ThreadResult } from './solver-pool'
 
@@ -167,6 +168,7 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
     })
     const stored = await finishSucceeded(pool, runId, attempt, { manifest: runManifest, figures: manifest.figures, arrays: result.arrays })
     if (!stored) return { ...base, status: 'stopped', message: 'no longer ours', manifest: null }
+    await recordCost(o, config, manifest, result.cost)
     return { ...base, status: 'succeeded', message: result.message, manifest }
   } finally {
     // A database error above propagates: pg-boss retries the job, and the watchdog hands the run back
@@ -174,4 +176,17 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
     clearInterval(beat)
     o.track(runId, null)
   }
+}
+
+/**
+ * What the finished run cost, for the speed calibration of later estimates (modules/estimates/). The run is
+ * stored already: a failed write here costs one observation, never the run.
+ */
+async function recordCost(o: ExecuteOptions, config: SimulationConfig, manifest: SimulationManifest, cost: ThreadResult['cost']): Promise<void> {
+  if (!manifest.kernel || !cost) return
+  const { waves, fields } = envelopeCounts(config)
+  // The error estimate's companion ran in the same measured time.
+  const cellUpdates = manifest.counters.cellUpdates + (manifest.figures?.errorEstimate?.cellUpdates ?? 0)
+  const observation = { runId: o.runId, kernel: manifest.kernel, cellUpdates, envelopeRatio: (waves + fields) / (PLAIN_WAVES + PLAIN_FIELDS), wallS: cost.wallS, cpuS: cost.cpuS }
+  await insertRunCost(o.pool, observation).catch((err) => o.log.warn({ err, runId: o.runId }, 'the run cost was not recorded'))
 }

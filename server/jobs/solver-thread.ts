@@ -5,6 +5,7 @@ import { parentPort, workerData } from 'node:worker_threads'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { CoreLease, simulateSync, type MapFrame } from '../../solver/index'
 import { solverEngine } from '../env'
+import { threadCpuSeconds } from './thread-cpu'
 
 export interface SolverThreadInput {
   /** Int32 flag: non-zero asks the solver to stop at its next chunk (a few ms). The pool clears it before each run. */
@@ -25,7 +26,14 @@ export type SolverThreadMessage =
   | { type: 'ready' }
   | { type: 'progress'; seq: number; fraction: number }
   | { type: 'frame'; seq: number; frame: MapFrame }
-  | { type: 'result'; seq: number; status: 'finished' | 'aborted' | 'failed'; message: string; manifest: unknown; arrays: Record<string, Float64Array | Float32Array> }
+  | { type: 'result'; seq: number; status: 'finished' | 'aborted' | 'failed'; message: string; manifest: unknown; arrays: Record<string, Float64Array | Float32Array>; cost?: SolverCost }
+
+/** What the computation took on this thread (the run and its error-estimate companion): wall and CPU seconds. */
+export interface SolverCost {
+  wallS: number
+  /** Null where the system does not give a thread's CPU time. */
+  cpuS: number | null
+}
 
 /**
  * The solver hands over map rows every FRAME_INTERVAL_MS: two blocks a second is smooth enough to watch a
@@ -47,6 +55,8 @@ function runOne({ seq, config }: SolverThreadRequest): void {
   // Counted from start to end of the computation; the result goes out after, so the next run sees the core free.
   lease.enter()
   let result: ReturnType<typeof simulateSync>
+  const wall0 = performance.now()
+  const cpu0 = threadCpuSeconds()
   try {
     result = simulateSync(config, {
       onProgress: (fraction) => post({ type: 'progress', seq, fraction }),
@@ -62,10 +72,12 @@ function runOne({ seq, config }: SolverThreadRequest): void {
   } finally {
     lease.leave()
   }
+  const cpu1 = threadCpuSeconds()
+  const cost: SolverCost = { wallS: (performance.now() - wall0) / 1000, cpuS: cpu0 !== null && cpu1 !== null ? cpu1 - cpu0 : null }
   // Transferred, not copied: the thread keeps no reference to a finished run's arrays. Each buffer once in
   // the transfer list (two views may share one).
   const buffers = new Set<ArrayBuffer>(Object.values(result.arrays).map((a) => a.buffer as ArrayBuffer))
-  post({ type: 'result', seq, status: result.status, message: result.message, manifest: result.manifest, arrays: result.arrays }, [...buffers])
+  post({ type: 'result', seq, status: result.status, message: result.message, manifest: result.manifest, arrays: result.arrays, cost }, [...buffers])
 }
 
 // A throw inside runOne is an uncaught error of the thread: the pool fails that run and replaces the thread.

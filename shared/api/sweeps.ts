@@ -6,6 +6,7 @@ import { RUN_NOTES_MAX, RUN_TITLE_MAX, RunState } from './runs'
 import { ShareTokenQuery } from './shares'
 import { SimulationConfig } from '../physics/simulation-config'
 import { SWEEP_FIELD_IDS, sweepField } from '../physics/sweep-fields'
+import { TimeBasis } from '../physics/speed-calibration'
 
 const finite = () => z.number().finite()
 
@@ -125,6 +126,8 @@ export const SweepEstimate = z.object({
   expectedSeconds: z.number().nonnegative(),
   /** The largest single point's memory (points run one per solver thread). */
   maxMemoryBytes: z.number().nonnegative(),
+  /** Where the expected time comes from (absent in sweeps stored before it was given). */
+  timeBasis: TimeBasis.optional(),
 })
 export type SweepEstimate = z.infer<typeof SweepEstimate>
 

@@ -7,6 +7,8 @@ import { planCoarseRun } from './error-estimate-plan'
 import { MIN_TIME_STEP_PS } from './grid-limits'
 import { usesWaveNetwork, waveSet } from './wave-set'
 import { profileIsActive } from './longitudinal-profile'
+import { describeKernel, type KernelClass } from './kernel-class'
+import { speedOf, type SpeedCalibration, type TimeBasis } from './speed-calibration'
 
 /** Grid counts as chosen by shared/physics/grid-step.ts. */
 export interface GridCounts {
@@ -113,6 +115,74 @@ export function envelopeCounts(config: SimulationConfig): { waves: number; field
 }
 
 /**
+ * The kernel class the solver will choose for this run (solver/driver.ts; threads as engine/thread-choice.ts
+ * chooses them with a core free): the class whose measured speed the estimate uses.
+ */
+export function predictKernel(config: SimulationConfig, grid: GridCounts): KernelClass {
+  const o = config.options
+  // Kerr switched on with n₂ = 0 computes nothing: the solver takes the kernels without it.
+  const kerr = o.kerr && config.waveguide.kerrN2M2PerW > 0
+  if (usesWaveNetwork(config)) return { engine: 'ts', threads: 1, path: 'network' }
+  if (profileIsActive(config.waveguide.profile)) return { engine: 'ts', threads: 1, path: 'profile' }
+  if (wasmEngineCovers(config)) return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
+  // One flat kernel per option; Kerr with another option, or several channels, take the general kernel.
+  const single = config.channels.length === 1 && !kerr
+  const path = single && o.higherOrderAcoustic ? 'higher-order' : single && o.noise.enabled ? 'noise' : 'general'
+  return { engine: 'ts', threads: 1, path }
+}
+
+/**
+ * Spread of the benchmark-based time: on an idle core the plain path ran at 68–83 M/s, about twice
+ * CELL_UPDATES_PER_S_SVEA, and with the machine loaded down to 12 M/s, about a third of it (benchmarks/README.md).
+ */
+export const BENCHMARK_FAST_FACTOR = 0.5
+export const BENCHMARK_SLOW_FACTOR = 3
+
+/** The basis in a sentence for the user; `seconds` formats a duration. */
+export function timeBasisSentence(b: TimeBasis, seconds: (s: number) => string): string {
+  const range = `between ${seconds(b.fastSeconds)} and ${seconds(b.slowSeconds)}`
+  const kind = describeKernel(b.kernel)
+  if (b.source === 'recent-runs') return `Measured on this server: the speed of its last ${b.runs} runs of the same kind (${kind}); ${range}.`
+  return `From the benchmark figures, since this server has not finished enough runs of this kind (${kind}) yet: ${range}, depending on how busy the server is.`
+}
+
+/**
+ * Cell-updates per second for this run and where the figure comes from: the server's measured speed of the
+ * predicted class (or of one thread when it has no history with two, since a busy server gives a run one
+ * thread), else the benchmark figures.
+ */
+function speedFor(config: SimulationConfig, grid: GridCounts, calibration: SpeedCalibration | null | undefined) {
+  const kernel = predictKernel(config, grid)
+  const { waves, fields } = envelopeCounts(config)
+  const candidates = kernel.threads > 1 ? [kernel, { ...kernel, threads: 1 }] : [kernel]
+  const measured = candidates.map((k) => speedOf(calibration, k)).filter((k) => k !== null)
+  // Measured speeds count plain-scheme cell-updates (speed-calibration.ts): scaled to this run's envelopes.
+  const perCell = (PLAIN_WAVES + PLAIN_FIELDS) / (waves + fields)
+  if (measured.length > 0) {
+    const m = measured.reduce((a, b) => (b.newestAt > a.newestAt ? b : a))
+    return { rate: m.cellUpdatesPerS * perCell, fast: m.fastPerS * perCell, slow: m.slowPerS * perCell, source: 'recent-runs' as const, runs: m.runs, kernel: m.kernel }
+  }
+  const rate = benchmarkSpeed(config, grid)
+  return { rate, fast: rate / BENCHMARK_FAST_FACTOR, slow: rate / BENCHMARK_SLOW_FACTOR, source: 'benchmark' as const, runs: 0, kernel }
+}
+
+/** The benchmark figures: the plain path's speed times the factor of every option, engine and thread count above. */
+export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts): number {
+  const o = config.options
+  const { waves, fields } = envelopeCounts(config)
+  const network = waves !== PLAIN_WAVES || fields !== PLAIN_FIELDS
+  return (
+    CELL_UPDATES_PER_S_SVEA *
+    (network ? (SPEED_FACTOR_WAVE_NETWORK * (PLAIN_WAVES + PLAIN_FIELDS)) / (waves + fields) : 1) *
+    (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
+    (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
+    (o.kerr && config.waveguide.kerrN2M2PerW > 0 ? SPEED_FACTOR_KERR : 1) *
+    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1) *
+    (twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
+  )
+}
+
+/**
  * Bytes of solver state per cell and channel: pump, Stokes and acoustic envelopes plus their predictor copies,
  * complex float64 (6 × 16 B), and ∂b/∂t with its copy when the higher-order term is on (2 × 16 B).
  */
@@ -151,6 +221,8 @@ export interface ResourceEstimate {
   /** Throughput assumed for this option set (cell-updates per second). */
   cellUpdatesPerS: number
   expectedSeconds: number
+  /** Where cellUpdatesPerS comes from, and the range of the expected time. */
+  timeBasis: TimeBasis
   /** Inputs the refusal message needs to propose new values. */
   windowNs: number
   lengthM: number
@@ -159,7 +231,8 @@ export interface ResourceEstimate {
   stepBinding?: { targetPs: number; field: string; rule: string }
 }
 
-export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1): ResourceEstimate {
+/** calibration: this server's measured speeds (speed-calibration.ts); without it, the benchmark figures. */
+export function estimateResources(config: SimulationConfig, grid: GridCounts, realisations = 1, calibration?: SpeedCalibration | null): ResourceEstimate {
   const channels = config.channels.length
   const o = config.options
   const main = runCost(config, grid, realisations)
@@ -169,15 +242,8 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
   const { state, maps, traces } = main
   const errorEstimateBytes = companion ? companion.state + companion.maps + companion.traces : 0
   const { waves, fields } = envelopeCounts(config)
-  const network = waves !== PLAIN_WAVES || fields !== PLAIN_FIELDS
-  const cellUpdatesPerS =
-    CELL_UPDATES_PER_S_SVEA *
-    (network ? (SPEED_FACTOR_WAVE_NETWORK * (PLAIN_WAVES + PLAIN_FIELDS)) / (waves + fields) : 1) *
-    (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
-    (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
-    (o.kerr ? SPEED_FACTOR_KERR : 1) *
-    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1) *
-    (twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
+  const speed = speedFor(config, grid, calibration)
+  const cellUpdatesPerS = speed.rate
   return {
     channels,
     waves,
@@ -192,6 +258,7 @@ export function estimateResources(config: SimulationConfig, grid: GridCounts, re
     memoryBytes: { state, maps, traces, errorEstimate: errorEstimateBytes, total: state + maps + traces + errorEstimateBytes },
     cellUpdatesPerS,
     expectedSeconds: cellUpdates / cellUpdatesPerS,
+    timeBasis: { source: speed.source, runs: speed.runs, kernel: speed.kernel, fastSeconds: cellUpdates / speed.fast, slowSeconds: cellUpdates / speed.slow },
     windowNs: config.windowNs,
     lengthM: config.waveguide.lengthM,
     // The second-order acoustic equation needs Δt ≤ 1/(20 ν_B) (docs/model.md, options).

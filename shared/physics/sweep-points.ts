@@ -3,6 +3,7 @@
 import { chooseGrid } from './grid-step'
 import { describeIssuePath } from '../api/issue-path-labels'
 import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from './resource-estimate'
+import type { SpeedCalibration, TimeBasis } from './speed-calibration'
 import { SimulationConfig } from './simulation-config'
 import { applySweepValue, fieldProblem } from './sweep-fields'
 import { neededWindowNs } from './sweep-window'
@@ -84,8 +85,9 @@ export const DEFAULT_SWEEP_LIMITS: SweepLimits = {
   maxPoints: MAX_SWEEP_POINTS,
 }
 
-export function estimateSweep(points: BuiltPoint[]): { total: SweepEstimate; perPoint: ReturnType<typeof estimateResources>[] } {
-  const perPoint = points.map((p) => estimateResources(p.config, chooseGrid(p.config)))
+/** calibration: the server's measured speeds (speed-calibration.ts), as for a single run. */
+export function estimateSweep(points: BuiltPoint[], calibration?: SpeedCalibration | null): { total: SweepEstimate; perPoint: ReturnType<typeof estimateResources>[] } {
+  const perPoint = points.map((p) => estimateResources(p.config, chooseGrid(p.config), 1, calibration))
   return {
     perPoint,
     total: {
@@ -93,7 +95,24 @@ export function estimateSweep(points: BuiltPoint[]): { total: SweepEstimate; per
       cellUpdates: perPoint.reduce((s, e) => s + e.cellUpdates, 0),
       expectedSeconds: perPoint.reduce((s, e) => s + e.expectedSeconds, 0),
       maxMemoryBytes: perPoint.reduce((m, e) => Math.max(m, e.memoryBytes.total), 0),
+      ...(perPoint.length > 0 ? { timeBasis: sweepTimeBasis(perPoint.map((e) => e.timeBasis)) } : {}),
     },
+  }
+}
+
+/**
+ * The basis of a sweep's time: measured only when every point's is, from the fewest runs any point's speed
+ * rests on, with the kernel of the costliest point; the range is the sum of the points' ranges.
+ */
+function sweepTimeBasis(bases: TimeBasis[]): TimeBasis {
+  const measured = bases.every((b) => b.source === 'recent-runs')
+  const costliest = bases.reduce((a, b) => (b.slowSeconds > a.slowSeconds ? b : a))
+  return {
+    source: measured ? 'recent-runs' : 'benchmark',
+    runs: measured ? Math.min(...bases.map((b) => b.runs)) : 0,
+    kernel: costliest.kernel,
+    fastSeconds: bases.reduce((s, b) => s + b.fastSeconds, 0),
+    slowSeconds: bases.reduce((s, b) => s + b.slowSeconds, 0),
   }
 }
 

@@ -83,6 +83,8 @@ const ROUTES: Record<string, RouteSpec> = {
   'GET /api/admin/users': { path: () => '/api/admin/users' },
   'PATCH /api/admin/users/:id': { path: (w) => `/api/admin/users/${w.extraId}`, body: () => ({ isAdmin: false }) },
   'POST /api/runs': { path: () => '/api/runs', body: runBody },
+  'POST /api/runs/estimate': { path: () => '/api/runs/estimate', body: () => ({ config: FUZZ_RUN_CONFIG }) },
+  'GET /api/runs/speed': { path: () => '/api/runs/speed' },
   'GET /api/runs': { path: () => '/api/runs', query: (w) => ({ groupId: w.groupId, status: 'succeeded', author: 'me', q: 'amplifier', kind: 'all', sort: 'created_desc', page: '1', pageSize: '20' }) },
   'GET /api/runs/:id': { path: (w) => `/api/runs/${w.runId}` },
   'POST /api/runs/:id/cancel': { path: (w) => `/api/runs/${w.runId}/cancel`, note: 'no input' },

@@ -1,6 +1,7 @@
 import { Router, type Request } from 'express'
 import { z } from 'zod'
 import { RunClone, RunCreate, RunListQuery } from '@shared/api/runs'
+import { RunEstimateRequest } from '@shared/api/estimates'
 import { ShareTokenQuery } from '@shared/api/shares'
 import { safeText } from '@shared/api/text'
 import { AppError, conflict, notFound } from '../../errors'
@@ -13,7 +14,8 @@ import type { RunEventRelay } from './run-event-relay'
 import { streamRunEvents } from './run-events.routes'
 import { registerShareable, shareTokenOf } from '../shares'
 import { findArray, findRun } from './runs.repo'
-import { cancelRun, cloneRun, createRun, getRun, listRunsFor, runFor, type RunsDeps } from './runs.service'
+import { loadSpeedCalibration } from '../estimates/speed-calibration.service'
+import { cancelRun, cloneRun, createRun, estimateRun, getRun, listRunsFor, runFor, type RunsDeps } from './runs.service'
 
 const IdempotencyKey = z.string().regex(/^[\x21-\x7e]{1,200}$/, 'must be 1 to 200 visible ASCII characters')
 // Array names reach a query: the shared text rule keeps NUL (which PostgreSQL cannot take) out.
@@ -37,6 +39,15 @@ export function runsRoutes(deps: RunsDeps & { relay: RunEventRelay }): Router {
     const { run, replayed } = await createRun(deps, req.auth, req.body, idempotencyKey(req))
     if (replayed) res.set('Idempotent-Replayed', 'true')
     res.status(202).location(`/api/runs/${run.id}`).json(run)
+  })
+
+  // Before '/:id', which would take these words for an id.
+  r.post('/estimate', requireAuth, validate({ body: RunEstimateRequest }), async (req, res) => {
+    res.json(await estimateRun(deps, req.body))
+  })
+
+  r.get('/speed', requireAuth, async (_req, res) => {
+    res.set('Cache-Control', 'no-store').json((await loadSpeedCalibration(deps.pool, deps.log)) ?? { kernels: [] })
   })
 
   r.get('/', requireAuth, validate({ query: RunListQuery }), async (req, res) => {

@@ -5,6 +5,7 @@ import type { Pool } from 'pg'
 import { chooseGrid } from '@shared/physics/grid-step'
 import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources, type ResourceLimits } from '@shared/physics/resource-estimate'
 import { RUN_JOB_SCHEMA_VERSION, type RunClone, type RunCreate, type RunDetail, type RunJobPayload, type RunList, type RunListQuery } from '@shared/api/runs'
+import type { RunEstimateRequest, RunEstimateResponse } from '@shared/api/estimates'
 import { SOLVER_VERSION } from '../../../solver/index'
 import type { Db } from '../../db/client'
 import { AppError, conflict, notFound } from '../../errors'
@@ -19,6 +20,7 @@ import { isUuid } from '../../policy/ids'
 import type { AuthContext } from '../auth/auth-context'
 import { enforceQuotas, type QuotaConfig } from '../quotas'
 import { configHash } from './config-hash'
+import { loadSpeedCalibration } from '../estimates/speed-calibration.service'
 import { appendRunEvent, RUN_CANCEL_CHANNEL } from './run-events.repo'
 import { toDetail, toSummary } from './runs.mapper'
 import { findByIdempotencyKey, findRun, listRuns, queuePositionOf, type RunRow } from './runs.repo'
@@ -50,7 +52,7 @@ export async function runFor(deps: RunsDeps, auth: AuthContext | undefined, id: 
 export async function createRun(deps: RunsDeps, auth: AuthContext | undefined, input: RunCreate, idempotencyKey?: string): Promise<{ run: RunDetail; replayed: boolean }> {
   await requireGroupRole(deps.db, auth, input.groupId, 'editor', 'Group')
   const userId = auth!.userId
-  const estimate = estimateResources(input.config, chooseGrid(input.config))
+  const estimate = estimateResources(input.config, chooseGrid(input.config), 1, await loadSpeedCalibration(deps.pool, deps.log))
   const limits = checkLimits(estimate, deps.limits ?? DEFAULT_RESOURCE_LIMITS)
   // Field paths as in the request body, like the 400s of the same form.
   const fields = limits.ok ? undefined : limits.fields?.map((f) => ({ ...f, path: `config.${f.path}` }))
@@ -137,4 +139,12 @@ export async function listRunsFor(deps: RunsDeps, auth: AuthContext | undefined,
   if (q.groupId) await requireGroupRole(deps.db, auth, q.groupId, 'viewer', 'Group')
   const { rows, total } = await listRuns(deps.db, auth!.userId, q)
   return { items: rows.map(toSummary), total, page: q.page, pageSize: q.pageSize }
+}
+
+/** The estimate of a run before it is submitted, with this server's measured speed where it has one. */
+export async function estimateRun(deps: Pick<RunsDeps, 'pool' | 'log' | 'limits'>, input: RunEstimateRequest): Promise<RunEstimateResponse> {
+  const estimate = estimateResources(input.config, chooseGrid(input.config), 1, await loadSpeedCalibration(deps.pool, deps.log))
+  const check = checkLimits(estimate, deps.limits ?? DEFAULT_RESOURCE_LIMITS)
+  // The interface has no index signature; the response schema keeps every field.
+  return { estimate: { ...estimate }, ok: check.ok, message: check.ok ? null : check.message }
 }

@@ -16,8 +16,8 @@ export function sweepsRoutes(deps: SweepsDeps): Router {
   registerShareable('sweep', { groupOf: async (_db, id) => (isUuid(id) ? ((await findSweep(deps.pool, id))?.groupId ?? null) : null), pathOf: (id) => `/sweeps/${id}` })
   const r = Router()
 
-  r.post('/estimate', requireAuth, validate({ body: SweepDefinition }), (req, res) => {
-    res.json(estimateSweepFor(deps, req.body))
+  r.post('/estimate', requireAuth, validate({ body: SweepDefinition }), async (req, res) => {
+    res.json(await estimateSweepFor(deps, req.body))
   })
 
   r.post('/', requireAuth, validate({ body: SweepCreate }), async (req, res) => {

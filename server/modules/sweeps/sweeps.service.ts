@@ -18,6 +18,8 @@ import { inTransaction } from '../../jobs/run-store'
 import { enforceQuotas, type QuotaConfig } from '../quotas'
 import { requireResourceAccess } from '../shares'
 import type { SweepFeeder } from './sweep-feeder'
+import type { SpeedCalibration } from '@shared/physics/speed-calibration'
+import { loadSpeedCalibration } from '../estimates/speed-calibration.service'
 import { pointValues, toSweepDetail, toSweepSummary } from './sweeps.mapper'
 import { cancelSweepRuns, findSweep, insertSweep, listSweeps, pointRuns, rerunFailedPoints, type NewPointRun, type SweepRow } from './sweeps.repo'
 
@@ -47,12 +49,12 @@ function pointsOf(def: SweepDefinition): { points: BuiltPoint[] } {
   return { points: built.points }
 }
 
-export function estimateSweepFor(deps: Pick<SweepsDeps, 'limits'>, def: SweepDefinition): SweepEstimateResponse {
+export async function estimateSweepFor(deps: Pick<SweepsDeps, 'limits' | 'pool'>, def: SweepDefinition): Promise<SweepEstimateResponse> {
   const limits = deps.limits ?? DEFAULT_SWEEP_LIMITS
   const { points } = pointsOf(def)
   const check = checkSweepLimits(points, limits)
   return {
-    estimate: estimateSweep(points).total,
+    estimate: estimateSweep(points, await loadSpeedCalibration(deps.pool)).total,
     ok: check.ok,
     message: check.ok ? null : check.message,
     limits: { maxTotalCellUpdates: limits.maxTotalCellUpdates, maxCellUpdatesPerPoint: limits.run.maxCellUpdates, maxPoints: limits.maxPoints },
@@ -66,11 +68,11 @@ const shown = (v: number) => String(Number(v.toPrecision(6)))
 const pointTitle = (title: string, def: SweepDefinition, p: { index: number; values: number[] }) =>
   `${title} · point ${p.index + 1} (${def.axes.map((a, i) => `${axisLabel(a).replace(/ \([^()]*\)$/, '')} = ${shown(p.values[i])}`).join(', ')})`.slice(0, 200)
 
-const newPointRun = (title: string, def: SweepDefinition, p: BuiltPoint): NewPointRun => ({
+const newPointRun = (title: string, def: SweepDefinition, p: BuiltPoint, calibration: SpeedCalibration | null): NewPointRun => ({
   point: p.index,
   title: pointTitle(title, def, p),
   config: p.config,
-  estimate: estimateResources(p.config, chooseGrid(p.config)),
+  estimate: estimateResources(p.config, chooseGrid(p.config), 1, calibration),
 })
 
 export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefined, input: SweepCreate): Promise<SweepDetail> {
@@ -78,7 +80,8 @@ export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefine
   const limits = deps.limits ?? DEFAULT_SWEEP_LIMITS
   const { points } = pointsOf(input)
   const check = checkSweepLimits(points, limits)
-  const total = estimateSweep(points).total
+  const calibration = await loadSpeedCalibration(deps.pool, deps.log)
+  const total = estimateSweep(points, calibration).total
   if (!check.ok) {
     throw new AppError('over_limit', 422, check.message, { reasons: check.reasons, totalCellUpdates: total.cellUpdates, limitCellUpdates: limits.maxTotalCellUpdates, points: total.points })
   }
@@ -87,7 +90,7 @@ export async function createSweep(deps: SweepsDeps, auth: AuthContext | undefine
   const id = await insertSweep(
     deps.pool,
     { groupId: input.groupId, authorId: auth!.userId, title: input.title, notes: input.notes, baseConfig: input.baseConfig, axes: input.axes, extendWindow: input.extendWindow ?? true, estimate: total },
-    points.map((p) => newPointRun(input.title, input, p)),
+    points.map((p) => newPointRun(input.title, input, p, calibration)),
   )
   deps.feeder.poke()
   return getSweep(deps, auth, id)
@@ -121,11 +124,12 @@ export async function rerunFailed(deps: SweepsDeps, auth: AuthContext | undefine
   if (quotas) await inTransaction(deps.pool, (c) => enforceQuotas(c, quotas, auth!.userId, sweep.groupId, { what: 'sweep', inFlight: sweep.status === 'running' ? 0 : 1, cellUpdates: 0 }))
   const def = { baseConfig: sweep.baseConfig, axes: sweep.axes, extendWindow: sweep.extendWindow }
   const values = def.axes.map((a) => axisValues(a.values))
+  const calibration = await loadSpeedCalibration(deps.pool, deps.log)
   const n = await rerunFailedPoints(deps.pool, sweep, auth!.userId, (index) => {
     const at = pointValues(values, index)
     const built = buildSweepPoints({ ...def, axes: def.axes.map((a, i) => ({ ...a, values: { kind: 'list' as const, values: [at[i]] } })) })
     if (!built.ok) throw new AppError('invalid_input', 400, `Point ${index + 1} is no longer a valid run: ${built.issues[0].message}`)
-    return newPointRun(sweep.title, def, { ...built.points[0], index })
+    return newPointRun(sweep.title, def, { ...built.points[0], index }, calibration)
   })
   if (n === 0) throw conflict('No point of this sweep has failed')
   deps.feeder.poke()

@@ -1,5 +1,6 @@
 // Simulation runs: submit, list, follow, fetch arrays, download.
 import { RunBlockEvent, RunClone, RunCreate, RunDetail, RunList, RunListQuery, RunProgressEvent, RunStatusEvent } from '@shared/api/runs'
+import { RunEstimateRequest, RunEstimateResponse, SpeedCalibration } from '@shared/api/estimates'
 import type { ApiOperation } from '../registry'
 
 const run = (status: number, description: string) => ({ status, description, schema: RunDetail })
@@ -16,6 +17,8 @@ export const runsOperations: ApiOperation[] = [
     headers: [{ name: 'Idempotency-Key', description: '1 to 200 visible ASCII characters; a retry with the same key returns the first run (with Idempotent-Replayed: true) instead of a second one' }],
     response: run(202, 'The queued run (Location: its address)'),
   },
+  { method: 'POST', path: '/api/runs/estimate', tag: 'Runs', auth: 'user', summary: 'Cost and expected time of a run before submitting it, with where the time comes from', body: RunEstimateRequest, response: { status: 200, description: 'The estimate', schema: RunEstimateResponse } },
+  { method: 'GET', path: '/api/runs/speed', tag: 'Runs', auth: 'user', summary: "The solver speed this server measured on its recent runs, per kind of run (the form's estimate uses it)", response: { status: 200, description: 'Measured speeds', schema: SpeedCalibration } },
   { method: 'GET', path: '/api/runs', tag: 'Runs', auth: 'user', summary: "A group's runs, filtered, sorted and paged", query: RunListQuery, response: { status: 200, description: 'A page of runs', schema: RunList } },
   { method: 'GET', path: '/api/runs/:id', tag: 'Runs', auth: 'shareable', summary: 'One run with its configuration, state and figures', response: run(200, 'The run') },
   { method: 'POST', path: '/api/runs/:id/cancel', tag: 'Runs', auth: 'user', summary: 'Cancel a queued or running run (editors)', response: run(200, 'The run') },
