@@ -80,7 +80,8 @@ export class SimulationRun {
     const engine = !this.profile && resolveEngine(this.engineChoice, m, this.forceGeneral) === 'wasm' ? 'wasm' : 'ts'
     this.threads = resolveThreads(options.threads ?? 'auto', m, engine, this.profile !== null, undefined, options.coreLease)
     this.lease = this.threads > 1 ? (options.coreLease ?? null) : null
-    this.wasm = engine === 'ts' ? null : this.threads > 1 ? new ThreadedSveaEngine(m, this.threads) : new WasmSveaEngine(m)
+    this.maps = new MapRecorder(mapLayout(m.nt, m.nodes, config.grid.mapRows, config.grid.mapCols), m, config.grid.mapReduction === 'max')
+    this.wasm = engine === 'ts' ? null : this.threads > 1 ? this.threadedEngine(m) : new WasmSveaEngine(m)
     this.state = this.wasm?.state ?? allocateState(m)
     this.traces = config.channels.map((ch) => ({
       pumpIn: sampleInput(ch.pump, m.nt, m.dtS),
@@ -88,7 +89,6 @@ export class SimulationRun {
       pumpOut: new Float64Array(2 * (m.nt + 1)),
       stokesOut: new Float64Array(2 * (m.nt + 1)),
     }))
-    this.maps = new MapRecorder(mapLayout(m.nt, m.nodes, config.grid.mapRows, config.grid.mapCols), m, config.grid.mapReduction === 'max')
     this.warnings = preRunWarnings(config, m, m.nodes - 1, m.nt)
     this.timeNs = new Float64Array(m.nt + 1)
     for (let n = 0; n <= m.nt; n++) this.timeNs[n] = n * m.dtS * 1e9
@@ -104,6 +104,12 @@ export class SimulationRun {
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
+  }
+
+  /** The threaded engine, taking the maps' samples in its phases (the recorder's accumulators shared with it). */
+  private threadedEngine(m: Model): ThreadedSveaEngine {
+    const acc = this.maps.shareAccumulators().buffer as SharedArrayBuffer
+    return new ThreadedSveaEngine(m, this.threads, undefined, false, { ...this.maps.samplerSettings, acc })
   }
 
   /** Which code advances this run. */
@@ -183,7 +189,8 @@ export class SimulationRun {
     const start = this.n
     const nz = m.nz
     for (let n = start; n < end; n++) {
-      if (this.wasm) this.wasm.step()
+      if (this.wasm instanceof ThreadedSveaEngine) this.wasm.step(this.recordMaps ? this.maps.sampleAt(n) : 0)
+      else if (this.wasm) this.wasm.step()
       else if (this.profile) interactProfile(s, this.profile, nz, m.dtS)
       else if (this.fast) {
         const c = m.exchangePerB
@@ -219,7 +226,7 @@ export class SimulationRun {
         t.stokesOut[2 * n + 1] = m.sqrtKappa * s.vIm[base]
       }
       if (m.advectionCourant > 0) advectAcoustic(m, s)
-      if (this.recordMaps) this.maps.record(n, s)
+      if (this.recordMaps) this.maps.record(n, s, this.wasm instanceof ThreadedSveaEngine)
       if (n < m.nt) {
         if (this.wasm instanceof ThreadedSveaEngine) this.transportLater(n + 1)
         else {

@@ -15,6 +15,10 @@
  * next one's interaction, since after its shift a chunk's interaction reads its own nodes only.
  * Edge sets alternate from step to step (w = 0, 1, 0, …), so a chunk that has already published this step's
  * edges cannot overwrite the previous step's before its neighbour has read them; a barrier ends each phase.
+ *  sample(k, first): the maps' sample of the chunk's columns after its interaction step (observers/map-recorder.ts,
+ *                   sample(), one channel, the same expressions in the same order); chunks then hold whole
+ *                   columns (their size is a multiple of the column width), so each column's sum is formed by
+ *                   one thread in node order, as with one thread.
  * edges holds 2 sets of 4 numbers per chunk: uRe[b], uIm[b], vRe[a], vIm[a].
  */
 export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
@@ -22,6 +26,7 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
   const ou = pu / 8, oui = pui / 8, ov = pv / 8, ovi = pvi / 8
   const nz = d.nz, size = d.size, e = d.edges, loss = d.loss, set = 4 * d.chunks, inputs = d.inputs
   const K = d.K, Er = d.Er, Ei = d.Ei, h = d.h, cInner = 0.5 * d.c, cFacet = 0.25 * d.c
+  const mp = d.maps, acc = mp ? new Float64Array(mp.acc) : null, obv = pb / 8, obvi = pbi / 8
   const stepper = {
     chunks: d.chunks,
     step(k, w) {
@@ -49,6 +54,33 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
         f64[ovi + b] = loss !== 1 ? e[x + 7] * loss : e[x + 7]
       }
     },
+    sample(k, first) {
+      const a = k * size, b = Math.min(nz, a + size - 1)
+      const cn = mp.colNodes, cols = mp.cols, kp = mp.kp, ks = mp.ks, kb = mp.kb, useMax = mp.useMax
+      const c1 = Math.min(cols, Math.ceil((b + 1) / cn))
+      for (let c = a / cn; c < c1; c++) {
+        const j0 = c * cn, j1 = Math.min(nz + 1, j0 + cn)
+        let sp = first ? 0 : acc[c], ss = first ? 0 : acc[cols + c], sb = first ? 0 : acc[2 * cols + c]
+        for (let j = j0; j < j1; j++) {
+          const ur = f64[ou + j], ui = f64[oui + j], vr = f64[ov + j], vi = f64[ovi + j], br = f64[obv + j], bi = f64[obvi + j]
+          const p = 0 + kp * (ur * ur + ui * ui)
+          const q = 0 + ks * (vr * vr + vi * vi)
+          const s = 0 + kb * (br * br + bi * bi)
+          if (useMax) {
+            if (p > sp) sp = p
+            if (q > ss) ss = q
+            if (s > sb) sb = s
+          } else {
+            sp += p
+            ss += q
+            sb += s
+          }
+        }
+        acc[c] = sp
+        acc[cols + c] = ss
+        acc[2 * cols + c] = sb
+      }
+    },
     inject(k) {
       const a = k * size, b = Math.min(nz, a + size - 1)
       if (a === 0) (f64[ou] = inputs[0]), (f64[oui] = inputs[1])
@@ -59,14 +91,18 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
 }
 
 /* One chunk of the operation in ctrl[8]: bits 1..0 the operation (0 step, 1 transport, 2 transport and step),
- * bit 2 the edge set read, bit 3 the edge set written, bit 4 set when the transport takes the boundary inputs. */
+ * bit 2 the edge set read, bit 3 the edge set written, bit 4 set when the transport takes the boundary inputs,
+ * bit 5 when the step is followed by the maps' sample, bit 6 when that sample is its row's first. */
 function runChunk(stepper, op, k) {
   const r = (op >>> 2) & 1, w = (op >>> 3) & 1
   if ((op & 3) !== 0) {
     stepper.transport(k, r)
     if (op & 16) stepper.inject(k)
   }
-  if ((op & 3) !== 1) stepper.step(k, w)
+  if ((op & 3) !== 1) {
+    stepper.step(k, w)
+    if (op & 32) stepper.sample(k, (op & 64) !== 0)
+  }
 }
 
 /* Takes chunks of the present phase until none is left; returns how many it did. ctrl[0] is the phase word:

@@ -64,6 +64,8 @@ const OP_TRANSPORT_STEP = 2
 const READ_SET_1 = 4
 const WRITE_SET_1 = 8
 const WITH_INPUTS = 16
+const WITH_SAMPLE = 32
+const FIRST_SAMPLE = 64
 // ctrl slots (engine/block-step-source.ts), each group on its own 64-byte cache line so that claiming a chunk
 // and counting finished ones do not contend for one line; the operation shares the phase word's line, since
 // it is read right after a chunk is claimed.
@@ -76,6 +78,21 @@ const EXIT = 64
 /** Helpers started and ready to take chunks (a helper starts in tens of ms; until then the run's thread works alone). */
 const READY = 72
 const CTRL_INTS = 80
+
+/**
+ * The maps' sample taken inside the phase (observers/map-recorder.ts: samplerSettings, shareAccumulators), so the
+ * run's thread does not scan the whole field alone while the helpers wait.
+ */
+export interface MapSampler {
+  cols: number
+  colNodes: number
+  kp: number
+  ks: number
+  kb: number
+  useMax: boolean
+  /** The recorder's shared accumulators: P, S, B, cols each. */
+  acc: SharedArrayBuffer
+}
 
 export class ThreadedSveaEngine {
   readonly state: FieldState
@@ -107,9 +124,12 @@ export class ThreadedSveaEngine {
     readonly threads: number,
     chunkNodes = CHUNK_NODES,
     private readonly helpersOnly = false,
+    maps: MapSampler | null = null,
   ) {
     const n = m.nodes
-    const size = Math.max(chunkNodes, Math.ceil(n / 0xff))
+    // With the maps' sample in the phase, a chunk holds whole map columns (block-step-source.ts, sample).
+    const width = maps?.colNodes ?? 1
+    const size = Math.ceil(Math.max(chunkNodes, Math.ceil(n / 0xff)) / width) * width
     this.chunks = Math.ceil(n / size)
     const stride = Math.ceil((8 * n) / 16) * 16
     const pages = Math.ceil((BASE_BYTES + 6 * stride) / PAGE_BYTES)
@@ -127,7 +147,7 @@ export class ThreadedSveaEngine {
     this.ctrl = new Int32Array(ctrl)
     // First = last = 0: no work until the first phase.
     this.ctrl[WORD] = 0
-    const d = { nz: m.nz, size, chunks: this.chunks, at, K: m.driveK, c: m.exchangePerB, Er: m.svea.eRe, Ei: m.svea.eIm, h: m.dtS, loss: m.lossPerCell }
+    const d = { nz: m.nz, size, chunks: this.chunks, at, K: m.driveK, c: m.exchangePerB, Er: m.svea.eRe, Ei: m.svea.eIm, h: m.dtS, loss: m.lossPerCell, maps }
     this.stepper = chunkStepper(fn, new Float64Array(memory.buffer), { ...d, edges: new Float64Array(edges), inputs: this.inputs })
     for (let t = 1; t < threads; t++) {
       const w = new Worker(HELPER_SOURCE, { eval: true, workerData: { ...d, module, memory, ctrl, edges, inputs, spins: SPINS } })
@@ -140,14 +160,15 @@ export class ThreadedSveaEngine {
   /**
    * The interaction step at every node; a transport left by transportLater() is done first, chunk by chunk in
    * the same phase (each chunk's shift needs only the edges its neighbours published in the previous step).
+   * `sample` (MapRecorder.sampleAt): the maps' sample of this step is taken in the phase too.
    */
-  step(): void {
+  step(sample: 0 | 1 | 2 = 0): void {
     const read = this.edgeSet === 1 ? READ_SET_1 : 0
     this.edgeSet ^= 1
     const write = this.edgeSet === 1 ? WRITE_SET_1 : 0
     const op = this.pendingTransport ? OP_TRANSPORT_STEP | this.pendingTransport | read : OP_STEP
     this.pendingTransport = 0
-    this.run(op | write)
+    this.run(op | write | (sample === 0 ? 0 : sample === 2 ? WITH_SAMPLE | FIRST_SAMPLE : WITH_SAMPLE))
   }
 
   /** The exact shift along the characteristics, the cells crossing a chunk edge from the published edges. */

@@ -34,9 +34,9 @@ export class MapRecorder {
   /** Phonons per metre, |b|²/(ħω_s). */
   readonly acousticPhononsPerM: Float32Array
   rowsDone = 0
-  private readonly accP: Float64Array
-  private readonly accS: Float64Array
-  private readonly accB: Float64Array
+  private accP: Float64Array
+  private accS: Float64Array
+  private accB: Float64Array
   private samplesInRow = 0
 
   constructor(
@@ -53,13 +53,45 @@ export class MapRecorder {
     this.accB = new Float64Array(layout.cols)
   }
 
-  /** Called after time sample n is complete. */
-  record(n: number, s: FieldState): void {
+  /**
+   * Called after time sample n is complete. `sampledElsewhere`: the threaded engine has already added this
+   * step's sample to the shared accumulators (shareAccumulators), column by column in the same order.
+   */
+  record(n: number, s: FieldState, sampledElsewhere = false): void {
     const L = this.layout
     const inRow = n % L.rowSteps
-    if (inRow % L.sampleStride === 0) this.sample(s)
+    if (inRow % L.sampleStride === 0) {
+      if (sampledElsewhere) this.samplesInRow++
+      else this.sample(s)
+    }
     const last = inRow === L.rowSteps - 1 || n === this.model.nt
     if (last) this.flushRow()
+  }
+
+  /** Whether record(n) takes a sample: 0 no, 1 added to the row's, 2 the row's first (the sums start at 0). */
+  sampleAt(n: number): 0 | 1 | 2 {
+    const L = this.layout
+    if ((n % L.rowSteps) % L.sampleStride !== 0) return 0
+    return this.samplesInRow === 0 ? 2 : 1
+  }
+
+  /** Moves the column accumulators into shared memory, for a sampler on other threads: [P, S, B], cols each. */
+  shareAccumulators(): Float64Array {
+    const cols = this.layout.cols
+    const all = new Float64Array(new SharedArrayBuffer(8 * 3 * cols))
+    all.set(this.accP, 0)
+    all.set(this.accS, cols)
+    all.set(this.accB, 2 * cols)
+    this.accP = all.subarray(0, cols)
+    this.accS = all.subarray(cols, 2 * cols)
+    this.accB = all.subarray(2 * cols)
+    return all
+  }
+
+  /** What a sampler elsewhere needs to add a column's sample as sample() does (one channel). */
+  get samplerSettings(): { cols: number; colNodes: number; kp: number; ks: number; kb: number; useMax: boolean } {
+    const m = this.model
+    return { cols: this.layout.cols, colNodes: this.layout.colNodes, kp: m.kappaP, ks: m.rates.kappa, kb: 1 / m.stokesPhotonJ, useMax: this.useMax }
   }
 
   private sample(s: FieldState): void {

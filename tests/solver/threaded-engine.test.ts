@@ -11,6 +11,7 @@ import { planGrid, SimulationRun } from '../../solver/driver'
 import { buildModel } from '../../solver/problem/coupled-modes'
 import { ThreadedSveaEngine } from '../../solver/engine/threaded-engine'
 import { WasmSveaEngine } from '../../solver/engine/wasm-engine'
+import { MapRecorder, mapLayout } from '../../solver/observers/map-recorder'
 import { chipConfig, gaussian } from './chip-fixtures'
 
 const VG = 299_792_458 / 2.44
@@ -22,6 +23,7 @@ const RUNS: Record<string, SimulationConfig> = {
   'chip, 41 cells (odd), lossy, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30 }, channels: [crossing] }),
   'chip, 40 cells (even), CW depletion, lossless, detuned': chipConfig({ windowNs: 4, grid: cells(40), detuningMHz: 25, channels: [{ pump: { backgroundPowerW: 0.5 }, stokes: { backgroundPowerW: 1e-3 } }] }),
   'chip, 1201 cells (odd, three chunks), lossy, crossing pulses': chipConfig({ windowNs: 3, grid: cells(1201), waveguide: { lossDbPerM: 30 }, channels: [crossing] }),
+  'chip, 1201 cells, maps by block mean (a column of 31 nodes: chunks of 527)': chipConfig({ windowNs: 3, grid: { ...cells(1201), mapCols: 39, mapRows: 50, mapReduction: 'mean' }, waveguide: { lossDbPerM: 30 }, channels: [crossing] }),
   'storage 150 ps, SVEA (its reference run on one thread)': example('storage-150ps-svea'),
   'CW amplifier, lossy fibre': example('cw-amplifier-silica-fibre'),
 }
@@ -149,6 +151,51 @@ describe('threaded engine: the transport left for the next step gives the one-th
         }
         expect(one.state.bRe.some((v) => v !== 0)).toBe(true)
         for (const key of ['uRe', 'vRe', 'bRe'] as const) expect(one.state[key].every(Number.isFinite), key).toBe(true)
+      } finally {
+        many.close()
+      }
+    })
+  }
+})
+
+describe('threaded engine: the maps sampled in the phase equal the sample the recorder takes itself', () => {
+  // [cells, nodes per chunk, map columns, reduction]: chunks round up to whole columns (3 → 4 nodes for columns of 2).
+  const cases: [number, number, number, 'max' | 'mean'][] = [
+    [41, 3, 21, 'mean'],
+    [41, 3, 21, 'max'],
+    [100, 7, 9, 'mean'],
+  ]
+  for (const [nz, chunk, cols, reduction] of cases) for (const helpersOnly of [false, true]) {
+    it(`${nz} cells, chunks of ${chunk}, ${cols} columns by block ${reduction}, ${helpersOnly ? 'every chunk on a helper' : 'any thread'}`, () => {
+      const config = chipConfig({ windowNs: 1, grid: cells(nz), waveguide: { lossDbPerM: 30 } })
+      const m = buildModel(config, planGrid(config))
+      const steps = 200
+      const layout = mapLayout(steps, m.nodes, 24, cols)
+      const mapsOne = new MapRecorder(layout, m, reduction === 'max')
+      const mapsMany = new MapRecorder(layout, m, reduction === 'max')
+      const one = new WasmSveaEngine(m)
+      const acc = mapsMany.shareAccumulators().buffer as SharedArrayBuffer
+      const many = new ThreadedSveaEngine(m, 2, chunk, helpersOnly, { ...mapsMany.samplerSettings, acc })
+      try {
+        fill([one.state, many.state], nz + cols)
+        for (const s of [one.state, many.state]) for (const a of [s.uRe, s.uIm]) for (let j = 0; j < a.length; j++) a[j] *= 1e3
+        for (let n = 0; n <= steps; n++) {
+          one.step()
+          mapsOne.record(n, one.state)
+          many.step(mapsMany.sampleAt(n))
+          mapsMany.record(n, many.state, true)
+          one.transport()
+          many.transportLater(one.state.uRe[0], one.state.uIm[0], one.state.vRe[nz], one.state.vIm[nz])
+        }
+        for (const key of ['pumpPowerW', 'stokesPowerW', 'acousticPhononsPerM'] as const) {
+          const a = mapsOne[key], b = mapsMany[key]
+          expect(a.length).toBe(layout.rows * layout.cols)
+          let bad = -1
+          for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) (bad = i), (i = a.length)
+          expect(bad, `${key} first differs at ${bad}`).toBe(-1)
+          // Not vacuous: the map has content that varies along z.
+          expect(new Set(a).size).toBeGreaterThan(cols)
+        }
       } finally {
         many.close()
       }
