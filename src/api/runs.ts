@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { RunDetail, RunList, type RunClone, type RunListQuery } from '@shared/api/runs'
 import { CreatedShareLink } from '@shared/api/shares'
+import { SpeedCalibration } from '@shared/api/estimates'
 import { api, apiBytes, ApiError } from './client'
 
 /** Query of GET /api/runs as the list view builds it (page and pageSize always set). */
@@ -16,6 +17,9 @@ export const fetchRun = (id: string, share?: ShareToken, signal?: AbortSignal) =
 
 export const listRuns = (q: RunListParams, signal?: AbortSignal) =>
   api.get('/runs', { schema: RunList, signal, query: { ...q } as Record<string, string | number | undefined> })
+
+/** The solver speeds this server measured on its recent runs (the forms' estimates take them). */
+export const fetchSpeedCalibration = (signal?: AbortSignal) => api.get('/runs/speed', { schema: SpeedCalibration, signal })
 
 export const cancelRun = (id: string) => api.post(`/runs/${encodeURIComponent(id)}/cancel`, {}, { schema: RunDetail })
 

@@ -1,4 +1,5 @@
-import { computed, ref } from 'vue'
+import { computed, ref, type Ref } from 'vue'
+import type { SpeedCalibration } from '@shared/physics/speed-calibration'
 import { SimulationConfig, type SimulationConfigInput } from '@shared/physics/simulation-config'
 import { Waveguide, type WaveguideInput } from '@shared/physics/waveguide'
 import { deriveQuantities } from '@shared/physics/derived-quantities'
@@ -12,8 +13,9 @@ import { startConfig } from '@/components/simulation/simulation-starts'
  * The run being composed: the draft as typed, and everything that follows from it — the parsed config (null
  * while invalid), the schema's issues by field path, the grid, the resource estimate with its limit check and
  * the derived quantities with their advisories. One source of truth for the form, preview and side panels.
+ * `calibration`: the server's measured speeds (useSpeedCalibration), for the expected time.
  */
-export function useSimulationDraft(initial: SimulationConfigInput = startConfig()) {
+export function useSimulationDraft(initial: SimulationConfigInput = startConfig(), calibration?: Readonly<Ref<SpeedCalibration | null>>) {
   const draft = ref<SimulationConfigInput>(plainCopy(initial))
 
   const parsed = computed(() => SimulationConfig.safeParse(draft.value))
@@ -27,7 +29,7 @@ export function useSimulationDraft(initial: SimulationConfigInput = startConfig(
     return r.success ? r.data : null
   })
   const grid = computed(() => (config.value ? chooseGrid(config.value) : null))
-  const estimate = computed(() => (config.value && grid.value ? estimateResources(config.value, grid.value) : null))
+  const estimate = computed(() => (config.value && grid.value ? estimateResources(config.value, grid.value, 1, calibration?.value) : null))
   const limitCheck = computed(() => (estimate.value ? checkLimits(estimate.value) : null))
   const derived = computed(() => (waveguide.value ? deriveQuantities({ waveguide: waveguide.value, config: config.value ?? undefined }) : null))
 

@@ -6,6 +6,10 @@ import { fakeFetch, mountWithApp } from '@/test-utils/mount'
 import { getByRole } from '@/test-utils/by-role'
 import { useSessionStore } from '@/stores/session'
 import NewSimulationPage from './NewSimulationPage.vue'
+import { SimulationConfig } from '@shared/physics/simulation-config'
+import { chooseGrid } from '@shared/physics/grid-step'
+import { predictKernel } from '@shared/physics/resource-estimate'
+import { startConfig } from '@/components/simulation/simulation-starts'
 
 // Canvas charts do not draw in happy-dom; the preview's own sampling is exercised through the page anyway.
 vi.mock('@/plugins/echarts', () => ({
@@ -43,8 +47,8 @@ afterEach(() => {
   document.body.innerHTML = ''
 })
 
-async function mountSignedIn() {
-  const net = fakeFetch({ 'GET /api/me': { body: me }, 'POST /api/runs': { status: 202, body: run } })
+async function mountSignedIn(speed?: unknown) {
+  const net = fakeFetch({ 'GET /api/me': { body: me }, 'POST /api/runs': { status: 202, body: run }, ...(speed ? { 'GET /api/runs/speed': { body: speed } } : {}) })
   vi.stubGlobal('fetch', net.fn)
   const mounted = await mountWithApp(NewSimulationPage, { path: '/simulations/new' })
   await useSessionStore().load()
@@ -144,5 +148,24 @@ describe('NewSimulationPage validation', () => {
     expect(body.config.waveguide.lengthM).toBe(0.07)
     expect(body.config.windowNs).toBe(9)
     expect(body.config.channels[0].pump.pulses[0].label).toBe('data')
+  })
+})
+
+describe('NewSimulationPage expected time', () => {
+  const basis = (root: Element) => root.querySelector('[data-testid="estimate-basis"]')!.textContent!
+
+  it('says the time comes from the benchmark figures while the server has no runs of this kind', async () => {
+    const { wrapper } = await mountSignedIn({ kernels: [] })
+    expect(basis(wrapper.element)).toMatch(/^From the benchmark figures, since this server has not finished enough runs of this kind \(.+engine, .+\) yet: between .+ and .+, depending on how busy the server is\.$/)
+  })
+
+  it('takes the speed the server measured on its recent runs of the same kind, and says so', async () => {
+    const config = SimulationConfig.parse(startConfig())
+    const kernel = predictKernel(config, chooseGrid(config))
+    const speed = { kernels: [{ kernel, cellUpdatesPerS: 1e6, slowPerS: 5e5, fastPerS: 2e6, runs: 9, newestAt: '2026-12-03T10:00:00.000Z' }] }
+    const { wrapper } = await mountSignedIn(speed)
+    expect(basis(wrapper.element)).toMatch(/^Measured on this server: the speed of its last 9 runs of the same kind \(/)
+    // No internal names reach the user.
+    expect(basis(wrapper.element)).not.toMatch(/wasm|recent-runs|kernel|\/plain/)
   })
 })
