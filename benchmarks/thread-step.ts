@@ -1,5 +1,6 @@
 // `node --import tsx benchmarks/thread-step.ts`: the step engine alone (no driver, no port recording or maps),
-// one thread (engine/wasm-engine.ts) against two (engine/threaded-engine.ts) on the fixed case's grid,
+// one thread (engine/wasm-engine.ts) against two (engine/threaded-engine.ts, its transport left for the next
+// step's phase as the driver does: one barrier per step) on the fixed case's grid,
 // interleaved, best of 3; and the share of the chunks the run's own thread took (½ when both threads are
 // scheduled throughout, 1 when the helper never got a core). Prints figures, never asserts.
 import os from 'node:os'
@@ -23,8 +24,10 @@ for (const nz of [1000, 2000, 4000, 8000, 16000]) {
       const t0 = performance.now()
       for (let s = 0; s < STEPS; s++) {
         e.step()
-        e.transport()
+        if (e instanceof ThreadedSveaEngine) e.transportLater(0, 0, 0, 0)
+        else e.transport()
       }
+      if (e instanceof ThreadedSveaEngine) e.settle()
       best[i] = Math.min(best[i], performance.now() - t0)
     }
   }

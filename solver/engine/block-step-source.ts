@@ -118,14 +118,16 @@ function takeChunks(ctrl, stepper, word, fromBack) {
   for (;;) {
     const w = Atomics.load(ctrl, 0)
     const front = (w >>> 8) & 0xff, back = w & 0xff
-    if (w >>> 16 !== phase || front >= back) return done
+    if (w >>> 16 !== phase || front >= back) break
     const k = fromBack ? back - 1 : front
     if (Atomics.compareExchange(ctrl, 0, w, fromBack ? w - 1 : w + 0x100) !== w) continue
     runChunk(stepper, Atomics.load(ctrl, 8), k)
     done++
-    // ctrl[16] counts the chunks finished in this phase; the run's thread waits for all of them.
-    if (Atomics.add(ctrl, 16, 1) + 1 === stepper.chunks && Atomics.load(ctrl, 48) === 1) Atomics.notify(ctrl, 16)
   }
+  // ctrl[16] counts the chunks finished in this phase; the run's thread waits for all of them. Each thread adds
+  // its own once, when nothing is left to take: one contended add per thread and phase, not one per chunk.
+  if (done > 0 && Atomics.add(ctrl, 16, done) + done === stepper.chunks && Atomics.load(ctrl, 48) === 1) Atomics.notify(ctrl, 16)
+  return done
 }`
 
 /*
