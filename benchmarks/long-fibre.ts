@@ -4,35 +4,10 @@
 // probe, a 2 m section 35 K warmer at 800 m (and at 8 km on 10 km). Prints cells, steps, cell-updates, wall time,
 // M cell-updates/s and the resource estimate's prediction; the 1 km run is timed with and without the profile
 // (the profile kernel against the plain TypeScript fast path and the default engine). Figures only, no assertions.
-import { SimulationConfig } from '@shared/physics/simulation-config'
+import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { estimateResources } from '@shared/physics/resource-estimate'
 import { planGrid, SimulationRun } from '../solver/driver'
-
-const VG_M_PER_NS = 0.299792458 / 1.468
-const TAU_NS = 10
-
-function fibre(lengthM: number, hotAtM: number, opts: { profile?: boolean; timeStepPs?: number } = {}) {
-  const transitNs = lengthM / VG_M_PER_NS
-  const centreNs = transitNs + 4 * TAU_NS
-  return SimulationConfig.parse({
-    waveguide: {
-      name: 'Standard single-mode fibre',
-      lengthM,
-      groupIndex: 1.468,
-      effectiveAreaUm2: 80,
-      gainCoefficientMPerW: 5e-11,
-      brillouinShiftGHz: 10.8,
-      linewidthMHz: 30,
-      lossDbPerM: 0.0002,
-      ...(opts.profile === false ? {} : { profile: { segments: [{ startM: hotAtM, endM: hotAtM + 2, temperatureOffsetK: 35 }] } }),
-    },
-    channels: [{ pump: { pulses: [{ shape: 'gaussian', peakPowerW: 0.5, centreNs, fwhmNs: TAU_NS, label: 'pump' }] }, stokes: { backgroundPowerW: 1e-3 } }],
-    detuningMHz: 35,
-    windowNs: centreNs + 2 * transitNs + 3 * TAU_NS,
-    grid: { mapRows: 512, mapCols: 512, ...(opts.timeStepPs ? { timeStepPs: opts.timeStepPs } : {}) },
-    options: { errorEstimate: false },
-  })
-}
+import { fibre } from './sensing-fibre'
 
 function describe(name: string, config: SimulationConfig) {
   const grid = planGrid(config)

@@ -95,8 +95,15 @@ export const PLAIN_FIELDS = 1
  * envelopes; its throughput then falls as 3/(waves + fields), each envelope adding one propagation and its
  * couplings. Measured (benchmarks/README.md, "Multi-wave solver", machine loaded): 0.25–0.99 of the plain
  * TypeScript path per envelope, lowest with several processes per field; the low end, so estimates err long.
+ * benchmarks/estimate-check.ts 2026-12-04 (one forward resonance, side by side with the plain path): 0.27.
  */
-export const SPEED_FACTOR_WAVE_NETWORK = 0.3
+export const SPEED_FACTOR_WAVE_NETWORK = 0.25
+/**
+ * Relative speed of the general kernel with several channels and no option (each channel a separate 2-wave
+ * problem, but through the general reference kernel) against the TypeScript plain path, per cell-update:
+ * benchmarks/estimate-check.ts 2026-12-04, 0.20 at load average 4–5 (benchmarks/README.md, "Estimate against measurement").
+ */
+export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.2
 
 /**
  * Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or
@@ -177,6 +184,7 @@ export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts): numb
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr && config.waveguide.kerrN2M2PerW > 0 ? SPEED_FACTOR_KERR : 1) *
+    (config.channels.length > 1 && !network && !o.kerr && !o.noise.enabled && !o.higherOrderAcoustic ? SPEED_FACTOR_SEVERAL_CHANNELS : 1) *
     (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1) *
     (twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
   )
