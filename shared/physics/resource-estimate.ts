@@ -144,6 +144,12 @@ export function predictKernel(config: SimulationConfig, grid: GridCounts): Kerne
  */
 export const BENCHMARK_FAST_FACTOR = 0.5
 export const BENCHMARK_SLOW_FACTOR = 3
+/**
+ * Least spread of a time from measured speeds: on this shared machine the estimate from three earlier runs of
+ * the same kind was 0.71–1.59 of the measured time (benchmarks/estimate-check.ts, load average 2.5–5, benchmarks/README.md),
+ * as the load changed between the runs and the one estimated.
+ */
+export const RECENT_RUNS_MARGIN = 1.6
 
 /** The basis in a sentence for the user; `seconds` formats a duration. */
 export function timeBasisSentence(b: TimeBasis, seconds: (s: number) => string): string {
@@ -167,7 +173,11 @@ function speedFor(config: SimulationConfig, grid: GridCounts, calibration: Speed
   const perCell = (PLAIN_WAVES + PLAIN_FIELDS) / (waves + fields)
   if (measured.length > 0) {
     const m = measured.reduce((a, b) => (b.newestAt > a.newestAt ? b : a))
-    return { rate: m.cellUpdatesPerS * perCell, fast: m.fastPerS * perCell, slow: m.slowPerS * perCell, source: 'recent-runs' as const, runs: m.runs, kernel: m.kernel }
+    const rate = m.cellUpdatesPerS * perCell
+    // The runs' own spread, but never narrower than the load's swing between runs.
+    const fast = Math.max(m.fastPerS * perCell, rate * RECENT_RUNS_MARGIN)
+    const slow = Math.min(m.slowPerS * perCell, rate / RECENT_RUNS_MARGIN)
+    return { rate, fast, slow, source: 'recent-runs' as const, runs: m.runs, kernel: m.kernel }
   }
   const rate = benchmarkSpeed(config, grid)
   return { rate, fast: rate / BENCHMARK_FAST_FACTOR, slow: rate / BENCHMARK_SLOW_FACTOR, source: 'benchmark' as const, runs: 0, kernel }
