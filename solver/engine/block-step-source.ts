@@ -19,12 +19,13 @@
  *                   sample(), one channel, the same expressions in the same order); chunks then hold whole
  *                   columns (their size is a multiple of the column width), so each column's sum is formed by
  *                   one thread in node order, as with one thread.
- * edges holds 2 sets of 4 numbers per chunk: uRe[b], uIm[b], vRe[a], vIm[a].
+ * edges holds 2 sets of 8 numbers per chunk, one 64-byte cache line (so that neighbouring chunks on different
+ * threads do not write one line): uRe[b], uIm[b], vRe[a], vIm[a], then 4 unused.
  */
 export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
   const [pu, pui, pv, pvi, pb, pbi] = d.at
   const ou = pu / 8, oui = pui / 8, ov = pv / 8, ovi = pvi / 8
-  const nz = d.nz, size = d.size, e = d.edges, loss = d.loss, set = 4 * d.chunks, inputs = d.inputs
+  const nz = d.nz, size = d.size, e = d.edges, loss = d.loss, set = 8 * d.chunks, inputs = d.inputs
   const K = d.K, Er = d.Er, Ei = d.Ei, h = d.h, cInner = 0.5 * d.c, cFacet = 0.25 * d.c
   const mp = d.maps, acc = mp ? new Float64Array(mp.acc) : null, obv = pb / 8, obvi = pbi / 8
   const stepper = {
@@ -35,7 +36,7 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
       if (j0 <= j1) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, j0, j1, K, cInner, Er, Ei, h)
       if (a === 0) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, 0, 0, K, cFacet, Er, Ei, h)
       if (b === nz) fn.sveaBlock(pu, pui, pv, pvi, pb, pbi, nz, nz, K, cFacet, Er, Ei, h)
-      const x = w * set + 4 * k
+      const x = w * set + 8 * k
       e[x] = f64[ou + b]
       e[x + 1] = f64[oui + b]
       e[x + 2] = f64[ov + a]
@@ -44,14 +45,14 @@ export const CHUNK_STEPPER_SOURCE = `function chunkStepper(fn, f64, d) {
     transport(k, r) {
       const a = k * size, b = Math.min(nz, a + size - 1)
       fn.transport(pu + 8 * a, pui + 8 * a, pv + 8 * a, pvi + 8 * a, b - a, loss)
-      const x = r * set + 4 * k
+      const x = r * set + 8 * k
       if (a > 0) {
-        f64[ou + a] = loss !== 1 ? e[x - 4] * loss : e[x - 4]
-        f64[oui + a] = loss !== 1 ? e[x - 3] * loss : e[x - 3]
+        f64[ou + a] = loss !== 1 ? e[x - 8] * loss : e[x - 8]
+        f64[oui + a] = loss !== 1 ? e[x - 7] * loss : e[x - 7]
       }
       if (b < nz) {
-        f64[ov + b] = loss !== 1 ? e[x + 6] * loss : e[x + 6]
-        f64[ovi + b] = loss !== 1 ? e[x + 7] * loss : e[x + 7]
+        f64[ov + b] = loss !== 1 ? e[x + 10] * loss : e[x + 10]
+        f64[ovi + b] = loss !== 1 ? e[x + 11] * loss : e[x + 11]
       }
     },
     sample(k, first) {

@@ -131,7 +131,9 @@ export class ThreadedSveaEngine {
     const width = maps?.colNodes ?? 1
     const size = Math.ceil(Math.max(chunkNodes, Math.ceil(n / 0xff)) / width) * width
     this.chunks = Math.ceil(n / size)
-    const stride = Math.ceil((8 * n) / 16) * 16
+    // Each array starts on a 64-byte cache line, and chunks hold a multiple of 8 nodes where they can (512), so two
+    // threads working on neighbouring chunks do not write one line.
+    const stride = Math.ceil((8 * n) / 64) * 64
     const pages = Math.ceil((BASE_BYTES + 6 * stride) / PAGE_BYTES)
     const memory = new wasm.Memory({ initial: pages, maximum: pages, shared: true })
     const module = sharedModule()
@@ -141,7 +143,7 @@ export class ThreadedSveaEngine {
     const none = new Float64Array(0)
     this.state = { uRe: view(0), uIm: view(1), vRe: view(2), vIm: view(3), bRe: view(4), bIm: view(5), wRe: none, wIm: none, scratch: none }
     const ctrl = new SharedArrayBuffer(4 * CTRL_INTS)
-    const edges = new SharedArrayBuffer(8 * 2 * 4 * this.chunks)
+    const edges = new SharedArrayBuffer(8 * 2 * 8 * this.chunks)
     const inputs = new SharedArrayBuffer(8 * 4)
     this.inputs = new Float64Array(inputs)
     this.ctrl = new Int32Array(ctrl)
