@@ -27,12 +27,14 @@
  *     exchange: (u₁, v₁) = (u + iβv, v + iβ*u) + O(β²) gives u₁v₁* = uv* + iβ(|v|² − |u|²) + O(β²), so
  *       D₁ − D₀ = K·β·(|u|² − |v|²) + O(Δt²),  β = c·b̄ (trapezoid b̄),
  *     which changes b̄ by O(Δt³) only: the same order of accuracy at one exchange per node and step.
+ *  'constant-source': the exact mean with the source held at D₀, b̄ = φ₁(z)·b + Δt·φ₂(z)·D₀ (the D₁ − D₀ term left
+ *     out): separates what the exact φ-weights do from what the source's change over the step does.
  * The corrector of b is the default one in every variant: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  */
 import { interactSvea } from './interaction-kernel'
 
 export type ExchangeForm = 'cayley' | 'exact'
-export type SourceAverage = 'trapezoid' | 'linear-source' | 'linearised-source'
+export type SourceAverage = 'trapezoid' | 'linear-source' | 'linearised-source' | 'constant-source'
 
 export interface StepVariant {
   exchange: ExchangeForm
@@ -129,7 +131,8 @@ export function interactSveaVariant(
   const exact = variant.exchange === 'exact'
   const linear = variant.average === 'linear-source'
   const linearised = variant.average === 'linearised-source'
-  if ((linear || linearised) && !mean) throw new Error('The linear-source average needs its mean coefficients')
+  const constant = variant.average === 'constant-source'
+  if ((linear || linearised || constant) && !mean) throw new Error('The linear-source average needs its mean coefficients')
   const c = 2 * cHalf
   const hh = 0.5 * h
   const m0r = mean?.m0[0] ?? 0, m0i = mean?.m0[1] ?? 0
@@ -144,9 +147,9 @@ export function interactSveaVariant(
     const ti = bi + h * d0i
     let betaR = cHalf * (br + Er * tr - Ei * ti)
     let betaI = cHalf * (bi + Er * ti + Ei * tr)
-    if (linearised) {
-      // D₁ − D₀ = K·β·(|u|² − |v|²) from the trapezoid β, then β from the linear-source mean.
-      const g = K * (ur * ur + ui * ui - vr * vr - vi * vi)
+    if (linearised || constant) {
+      // D₁ − D₀ = K·β·(|u|² − |v|²) from the trapezoid β (none with the source held), then β from the mean.
+      const g = constant ? 0 : K * (ur * ur + ui * ui - vr * vr - vi * vi)
       const er = g * betaR, ei = g * betaI
       betaR = c * (m0r * br - m0i * bi + m1r * d0r - m1i * d0i + m2r * er - m2i * ei)
       betaI = c * (m0r * bi + m0i * br + m1r * d0i + m1i * d0r + m2r * ei + m2i * er)
