@@ -1,15 +1,19 @@
 /*
  * Figures of a time-of-flight sensing map (docs/analysis.md, sensing map):
- *  - spatial resolution: nominal δz = v_g τ/2 for a pump pulse of power FWHM τ (common practice; Horiguchi &
- *    Tateda 1989, J. Lightwave Technol. 7, 1170), and measured as the 10–90 % width of the fitted shift
+ *  - spatial resolution: nominal δz = v_g τ/2 for a pump pulse of duration τ (common practice; Horiguchi &
+ *    Tateda 1989, J. Lightwave Technol. 7, 1170; τ of a shape other than rectangular: its equivalent rectangular
+ *    duration, physics/pulse-duration.ts), and measured as the 10–90 % width of the fitted shift
  *    across the cleanest step of the true profile: no other edge within 1.5 δz, a change of at most half the
  *    linewidth, and the smallest such change (the fitted shift follows the gain-weighted mean of the two sides
  *    only while the step is small against the linewidth; across a large step the fit jumps from one line to
- *    the other and reads sharper than the pulse resolves);
- *  - range: the farthest position up to which every fit is usable;
+ *    the other and reads sharper than the pulse resolves). The two differ when the pulse is not long against
+ *    the phonon lifetime: the phonon builds up while the pulse passes, so the fitted shift weighs the pulse's
+ *    trailing part most and a 10 ns rectangular pulse reads about half of v_g τ/2 (docs/analysis.md);
+ *  - range: the farthest position up to which every fit is usable (or its line lies outside the scan);
  *  - hot spots: each segment with a shift change. One shorter than the resolution is "not resolved" (its
  *    fitted shift would be a mixture, not a measurement); otherwise "detected" when the fitted shift at its
- *    centre lies within 3σ of the true one, else "missed".
+ *    centre lies within 3σ of the true one, else "missed"; "outside the scanned range" when the gain peak there
+ *    sits on the first or last detuning (the fit would be a guess at a line the scan did not reach).
  */
 import { segmentShiftMHz, type ProfileSegment } from '../physics/longitudinal-profile'
 import type { AssembledSensingMap } from './sensing-map'
@@ -21,7 +25,7 @@ export interface HotSpotResult {
   trueShiftMHz: number
   fittedShiftMHz: number | null
   sigmaMHz: number | null
-  status: 'detected' | 'missed' | 'not resolved'
+  status: 'detected' | 'missed' | 'not resolved' | 'outside scan'
 }
 
 export interface SensingFigures {
@@ -59,8 +63,8 @@ export function stepWidthM(map: AssembledSensingMap, zE: number, halfSpanM: numb
   return z90 === null ? null : z90 - z10
 }
 
-export function sensingFigures(map: AssembledSensingMap, segments: readonly ProfileSegment[], groupIndex: number, pumpFwhmNs: number, linewidthMHz: number): SensingFigures {
-  const nominal = ((C_M_PER_NS / groupIndex) * pumpFwhmNs) / 2
+export function sensingFigures(map: AssembledSensingMap, segments: readonly ProfileSegment[], groupIndex: number, pumpDurationNs: number, linewidthMHz: number): SensingFigures {
+  const nominal = ((C_M_PER_NS / groupIndex) * pumpDurationNs) / 2
   const edges: { z: number; s1: number; s2: number }[] = []
   for (const s of segments) for (const z of [s.startM, s.endM]) edges.push({ z, s1: trueShiftAt(segments, z - 1e-9), s2: trueShiftAt(segments, z) })
   const length = map.positionsM[map.positionsM.length - 1]
@@ -69,7 +73,8 @@ export function sensingFigures(map: AssembledSensingMap, segments: readonly Prof
   const measured = clean.length > 0 ? stepWidthM(map, clean[0].z, 1.5 * nominal, clean[0].s1, clean[0].s2) : null
   const resolutionM = measured ?? nominal
   let last = -1
-  while (last + 1 < map.fits.length && map.fits[last + 1].usable) last++
+  // A position whose line lies outside the scan still has signal: it does not end the range.
+  while (last + 1 < map.fits.length && (map.fits[last + 1].usable || map.fits[last + 1].outsideScan)) last++
   const hotSpots = segments.flatMap((s, i): HotSpotResult[] => {
     const trueShiftMHz = segmentShiftMHz(s)
     if (trueShiftMHz === 0) return []
@@ -79,6 +84,7 @@ export function sensingFigures(map: AssembledSensingMap, segments: readonly Prof
     let k = 0
     map.positionsM.forEach((p, j) => Math.abs(p - centre) < Math.abs(map.positionsM[k] - centre) && (k = j))
     const f = map.fits[k]
+    if (f.outsideScan) return [{ ...base, fittedShiftMHz: null, sigmaMHz: null, status: 'outside scan' }]
     const detected = f.usable && f.shiftMHz !== null && f.sigmaMHz !== null && Math.abs(f.shiftMHz - trueShiftMHz) <= 3 * f.sigmaMHz
     return [{ ...base, fittedShiftMHz: f.shiftMHz, sigmaMHz: f.sigmaMHz, status: detected ? 'detected' : 'missed' }]
   })

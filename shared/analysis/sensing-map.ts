@@ -38,6 +38,9 @@ export interface SensingFitRow {
   sigmaMHz: number | null
   peakGain: number | null
   usable: boolean
+  /** The largest gain of the row sits on the first or last detuning: the line lies (partly) outside the scan
+   *  (absent where a read-out does not check it). */
+  outsideScan?: boolean
 }
 
 export interface AssembledSensingMap {
@@ -97,10 +100,14 @@ export function assembleSensingMap(points: readonly SensingScanPoint[], setup: S
 }
 
 function fitRow(nu: number[], y: number[], linewidthMHz: number): SensingFitRow {
+  let top = 0
+  for (let i = 1; i < y.length; i++) if (y[i] > y[top]) top = i
+  // A peak on the scan's edge: the fit would extrapolate a line the scan never reached, so no number is given.
+  if (top === 0 || top === y.length - 1) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: true }
   const f = fitLorentzian(nu, y, linewidthMHz / 2)
-  if (!f || f.centreSigma === null) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false }
+  if (!f || f.centreSigma === null) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: false }
   // A fit counts when the line stands out of the residual and its centre lies inside the scanned range.
   const inside = f.centre >= nu[0] && f.centre <= nu[nu.length - 1]
   const usable = inside && f.amplitude > 3 * f.rmsResidual && f.centreSigma < linewidthMHz
-  return { shiftMHz: f.centre, sigmaMHz: f.centreSigma, peakGain: f.amplitude, usable }
+  return { shiftMHz: f.centre, sigmaMHz: f.centreSigma, peakGain: f.amplitude, usable, outsideScan: false }
 }

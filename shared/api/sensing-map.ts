@@ -18,7 +18,7 @@ export const SensingHotSpot = z.object({
   trueShiftMHz: z.number(),
   fittedShiftMHz: nullableNumber,
   sigmaMHz: nullableNumber,
-  status: z.enum(['detected', 'missed', 'not resolved']),
+  status: z.enum(['detected', 'missed', 'not resolved', 'outside scan']),
 })
 export type SensingHotSpot = z.infer<typeof SensingHotSpot>
 
@@ -33,6 +33,9 @@ export const SensingMapResponse = z.object({
   sigmaMHz: z.array(nullableNumber),
   peakGainLn: z.array(nullableNumber),
   usable: z.array(z.boolean()),
+  /** The gain peak at this position sits on the first or last detuning: outside the scanned range, no fit
+   *  (time-of-flight read-out; absent where the read-out does not check it). */
+  outsideScan: z.array(z.boolean()).optional(),
   trueShiftMHz: z.array(z.number()),
   nominalResolutionM: z.number(),
   measuredResolutionM: nullableNumber,

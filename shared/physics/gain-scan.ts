@@ -1,9 +1,13 @@
 // The detuning axis of a gain-spectrum scan: ±3 linewidths (FWHM) around the main resonance, or, with
 // several backward resonances, from the lowest line − 3 of its linewidths to the highest + 3 of its own.
 // At ±3 FWHM a Lorentzian is down to 1/37 of its peak, so the wings are visible on a dB axis.
+// A waveguide with a longitudinal profile (a sensing scan) moves the local line by each segment's shift change
+// δν_B (with its own linewidth where it sets one): the range spans every local line the same way, so a hot spot
+// shifted by +35 MHz is scanned across, not fitted from the edge of the scan.
 import type { SweepAxis } from '../api/sweeps'
 import { MAX_AXIS_VALUES } from '../api/sweeps'
-import { gainLines } from './gain-spectrum'
+import { gainLines, type GainLine } from './gain-spectrum'
+import { segmentShiftMHz } from './longitudinal-profile'
 import type { Waveguide } from './waveguide'
 import type { EnergyWindow, SimulationConfig } from './simulation-config'
 
@@ -21,11 +25,21 @@ export interface GainScanPlan {
   stepMHz: number
   /** How many backward lines the range covers. */
   lines: number
+  /** Lowest and highest local shift change of the profile (MHz), or null without one. */
+  profileSpanMHz: [number, number] | null
   axis: SweepAxis
 }
 
-export function gainScanPlan(w: Pick<Waveguide, 'brillouinShiftGHz' | 'linewidthMHz' | 'gainCoefficientMPerW' | 'additionalResonances'>): GainScanPlan {
-  const lines = gainLines(w)
+type ScannedGuide = Pick<Waveguide, 'brillouinShiftGHz' | 'linewidthMHz' | 'gainCoefficientMPerW' | 'additionalResonances'> & Partial<Pick<Waveguide, 'profile'>>
+
+/** The main line moved to each profile segment's local shift (and linewidth), for the range only. */
+function profileLines(w: ScannedGuide): GainLine[] {
+  return (w.profile?.segments ?? []).map((s) => ({ centreMHz: segmentShiftMHz(s), linewidthMHz: s.linewidthMHz ?? w.linewidthMHz, gainCoefficientMPerW: s.gainCoefficientMPerW ?? w.gainCoefficientMPerW }))
+}
+
+export function gainScanPlan(w: ScannedGuide): GainScanPlan {
+  const local = profileLines(w)
+  const lines = [...gainLines(w), ...local]
   const startMHz = Math.min(...lines.map((l) => l.centreMHz - SCAN_LINEWIDTHS * l.linewidthMHz))
   const stopMHz = Math.max(...lines.map((l) => l.centreMHz + SCAN_LINEWIDTHS * l.linewidthMHz))
   const narrowest = Math.min(...lines.map((l) => l.linewidthMHz))
@@ -40,7 +54,8 @@ export function gainScanPlan(w: Pick<Waveguide, 'brillouinShiftGHz' | 'linewidth
     stopMHz: stop,
     count,
     stepMHz: (stop - start) / (count - 1),
-    lines: lines.length,
+    lines: lines.length - local.length,
+    profileSpanMHz: local.length ? [Math.min(0, ...local.map((l) => l.centreMHz)), Math.max(0, ...local.map((l) => l.centreMHz))] : null,
     axis: { field: 'detuningMHz', values: { kind: 'linear', start, stop, count } },
   }
 }

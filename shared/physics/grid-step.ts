@@ -8,6 +8,7 @@ import { MIN_AUTO_STEPS } from './grid-limits'
 import { shortestFeaturePath, strongestPowerPath, widestOffsetPath } from './grid-binding'
 import { SOURCE_GRID_RULES, sourceStepBound } from './source-grid-rules'
 import { profileStepBound } from './profile-grid-rules'
+import { sensingStepBound } from './sensing-grid-rules'
 import { networkStepBounds } from './network-grid-rules'
 
 /** Rates of the coupled-mode equations in SI units (see docs/model.md, conventions). */
@@ -126,7 +127,10 @@ export function chooseGrid(config: SimulationConfig): GridChoice {
   const bounds: { dtS: number; reason: string; field: string }[] = []
   const ps = (s: number) => `${(s * 1e12).toPrecision(3)} ps`
 
-  if (Number.isFinite(tMinS)) bounds.push({ dtS: tMinS / GRID_RULES.stepsPerShortestFeature, reason: `Δt ≤ shortest pulse feature/20 = ${ps(tMinS / 20)}`, field: shortestFeaturePath(config) })
+  // A long time-of-flight sensing fibre needs its pulse resolved only as finely as its map (sensing-grid-rules.ts).
+  const sensing = Number.isFinite(tMinS) ? sensingStepBound(config) : null
+  if (sensing && sensing.dtS > tMinS / GRID_RULES.stepsPerShortestFeature) bounds.push({ dtS: sensing.dtS, reason: sensing.reason, field: shortestFeaturePath(config) })
+  else if (Number.isFinite(tMinS)) bounds.push({ dtS: tMinS / GRID_RULES.stepsPerShortestFeature, reason: `Δt ≤ shortest pulse feature/20 = ${ps(tMinS / 20)}`, field: shortestFeaturePath(config) })
   if (pMax > 0) {
     const field = strongestPowerPath(config)
     const pulseFactor = Number.isFinite(tMinS) ? Math.min(1, rates.gammaBPerS * tMinS) : 1

@@ -65,7 +65,11 @@ describe('sensing map of a sweep', () => {
     expect(m.pointsUsed).toBe(26)
     expect(m.gainLn.length).toBe(m.positionsM.length)
     expect(m.gainLn[0].length).toBe(26)
-    expect(m.nominalResolutionM).toBeCloseTo(DZ, 6)
+    // τ of a Gaussian pulse in v_g·τ/2: its equivalent rectangular duration ∫P dt/P_peak = √(π/(4 ln 2))·FWHM
+    // (the Gaussian integral, a closed form).
+    expect(m.nominalResolutionM).toBeCloseTo(DZ * Math.sqrt(Math.PI / (4 * Math.LN2)), 6)
+    expect(m.outsideScan).toHaveLength(m.positionsM.length)
+    expect(m.outsideScan!.some(Boolean)).toBe(false)
     // 30 K at ≈ 1 MHz/K (common practice): the shift change the solver was given.
     expect(m.hotSpots).toHaveLength(1)
     expect(m.hotSpots[0].trueShiftMHz).toBeCloseTo(30, 9)

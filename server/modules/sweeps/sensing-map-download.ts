@@ -7,11 +7,11 @@ import { npyHeader } from '../../../solver/index'
 const cell = (v: number | null) => (v === null ? '' : String(v))
 
 export function sensingMapCsv(m: SensingMapResponse): string {
-  const head = ['position_m', 'true_shift_change_mhz', 'fitted_shift_change_mhz', 'sigma_mhz', 'residual_mhz', 'peak_gain_ln', 'usable', ...m.detuningsMHz.map((d) => `gain_ln_at_${d}_mhz`)]
+  const head = ['position_m', 'true_shift_change_mhz', 'fitted_shift_change_mhz', 'sigma_mhz', 'residual_mhz', 'peak_gain_ln', 'usable', 'outside_scan', ...m.detuningsMHz.map((d) => `gain_ln_at_${d}_mhz`)]
   const lines = m.positionsM.map((z, i) => {
     const fit = m.fittedShiftMHz[i]
     const residual = fit === null ? null : fit - m.trueShiftMHz[i]
-    return [z, m.trueShiftMHz[i], cell(fit), cell(m.sigmaMHz[i]), cell(residual), cell(m.peakGainLn[i]), m.usable[i] ? 1 : 0, ...m.gainLn[i]].join(',')
+    return [z, m.trueShiftMHz[i], cell(fit), cell(m.sigmaMHz[i]), cell(residual), cell(m.peakGainLn[i]), m.usable[i] ? 1 : 0, m.outsideScan?.[i] ? 1 : 0, ...m.gainLn[i]].join(',')
   })
   const note = `# sensing map; shifts are changes from nu_B = ${m.brillouinShiftGHz} GHz; resolution ${m.resolutionM} m (nominal ${m.nominalResolutionM} m); range ${m.rangeM} m; gain_ln = ln(P_probe/P_probe without pump)`
   return [note, head.join(','), ...lines].join('\n') + '\n'

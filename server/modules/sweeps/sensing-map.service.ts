@@ -5,6 +5,7 @@ import { SensingSetupError, assembleSensingMap, type SensingScanPoint } from '@s
 import { sensingFigures } from '@shared/analysis/sensing-figures'
 import { sensingScanProblem, type SensingMapResponse } from '@shared/api/sensing-map'
 import { chooseGrid } from '@shared/physics/grid-step'
+import { pulseDurationNs } from '@shared/physics/pulse-duration'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { AppError } from '../../errors'
 import type { AuthContext } from '../auth/auth-context'
@@ -44,9 +45,11 @@ export async function sensingMapFor(deps: SweepsDeps, auth: AuthContext | undefi
   const wg = config.waveguide
   const pump = config.channels[0].pump.pulses[0]
   const fwhmNs = pump.shape === 'sampled' ? 0 : pump.fwhmNs
+  // The resolution's τ: the pulse's duration (its width for a rectangular pulse), not its FWHM.
+  const durationNs = pulseDurationNs(pump)
   try {
     const map = assembleSensingMap(points, { dtNs, groupIndex: wg.groupIndex, lengthM: wg.lengthM, linewidthMHz: wg.linewidthMHz, pumpCentreNs: pump.centreNs, pumpFwhmNs: fwhmNs, relativeNoiseRms: noiseRms, maxPositions: MAX_POSITIONS })
-    const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, fwhmNs, wg.linewidthMHz)
+    const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, durationNs, wg.linewidthMHz)
     return {
       brillouinShiftGHz: wg.brillouinShiftGHz,
       positionsM: map.positionsM,
@@ -56,6 +59,7 @@ export async function sensingMapFor(deps: SweepsDeps, auth: AuthContext | undefi
       sigmaMHz: map.fits.map((f) => f.sigmaMHz),
       peakGainLn: map.fits.map((f) => f.peakGain),
       usable: map.fits.map((f) => f.usable),
+      outsideScan: map.fits.map((f) => f.outsideScan === true),
       trueShiftMHz: fig.trueShiftMHz,
       nominalResolutionM: fig.nominalResolutionM,
       measuredResolutionM: fig.measuredResolutionM,

@@ -37,6 +37,7 @@ const MAP: SensingMapResponse = {
   sigmaMHz: [0.3, 0.4, 0.3],
   peakGainLn: [0.2, 0.2, 0.2],
   usable: [true, true, true],
+  outsideScan: [false, false, false],
   trueShiftMHz: [10, 20, 10],
   nominalResolutionM: 5.1,
   measuredResolutionM: null,
@@ -65,6 +66,26 @@ describe('SensingMap', () => {
     const links = [...wrapper.element.querySelectorAll('a')].map((a) => a.getAttribute('href'))
     expect(links.some((h) => h?.includes('format=csv'))).toBe(true)
     expect(links.some((h) => h?.includes('format=npy'))).toBe(true)
+  })
+
+  it('sets a measured resolution far from v_g·τ/2 beside the nominal with the reason, and names positions and hot spots outside the scan', async () => {
+    const far: SensingMapResponse = {
+      ...MAP,
+      measuredResolutionM: 0.54,
+      nominalResolutionM: 1.02,
+      resolutionM: 0.54,
+      usable: [true, false, true],
+      outsideScan: [false, true, false],
+      fittedShiftMHz: [10, null, 10],
+      hotSpots: [{ segment: 1, startM: 40, endM: 60, trueShiftMHz: 35, fittedShiftMHz: null, sigmaMHz: null, status: 'outside scan' }],
+    }
+    vi.stubGlobal('fetch', fakeFetch({ [`GET /api/sweeps/${ID}/sensing-map`]: { body: far } }).fn)
+    const { wrapper } = await mountWithApp(SensingMap, { props: { sweep: sweep('detuningMHz') } })
+    const note = wrapper.find('[data-testid="sensing-resolution-note"]').text()
+    expect(note).toContain('Measured 0.53 × nominal')
+    expect(note).toContain('phonon builds up')
+    expect(wrapper.find('[data-testid="sensing-outside"]').text()).toContain('1 of 3 positions')
+    expect(wrapper.text()).toContain('Outside the scanned range: its gain peak sits on the edge of the scan')
   })
 
   it('stays out of the way for a sweep that is not a detuning scan', async () => {

@@ -29,4 +29,26 @@ describe('gain-scan start of the sweep form', () => {
     expect(s.chart).toMatch(/effective gain .* dashed reference/)
     expect(s.config.energyWindows).toEqual([])
   })
+
+  it('widens the range to the local shift of a hot spot in the profile, and offers a rectangular pump for a time-of-flight scan', () => {
+    // A 2 m section 35 K warmer on standard fibre: +35 MHz at about 1 MHz/K (common practice).
+    const c = SimulationConfig.parse({
+      waveguide: { lengthM: 100, groupIndex: 1.468, effectiveAreaUm2: 80, gainCoefficientMPerW: 5e-11, brillouinShiftGHz: 10.8, linewidthMHz: 30, profile: { segments: [{ startM: 80, endM: 82, temperatureOffsetK: 35 }] } },
+      channels: [{ pump: { pulses: [{ shape: 'gaussian', peakPowerW: 0.5, centreNs: 600, fwhmNs: 10, label: 'pump' }] }, stokes: { backgroundPowerW: 1e-3 } }],
+      windowNs: 1700,
+    })
+    const s = gainScanStart(c)
+    // From the uniform line's −3 linewidths to the hot spot's +35 MHz + 3 linewidths; points ≤ a third of a linewidth apart.
+    expect([s.plan.startMHz, s.plan.stopMHz]).toEqual([-90, 125])
+    expect(s.plan.stepMHz).toBeLessThanOrEqual(10)
+    expect(s.range).toContain("widened to the profile's local shift changes (0 to 35 MHz) ± 3 linewidths")
+    // A Gaussian's duration ∫P dt/P_peak = √(π/(4 ln 2))·FWHM = 10.64 ns (the Gaussian integral).
+    const offer = s.pulseOffer!
+    expect(offer.text).toMatch(/rectangular pump pulses\. Use one of τ = 10\.64 ns .*Gaussian.*2\.13 ns edges/)
+    const rect = SimulationConfig.parse(offer.config).channels[0].pump.pulses[0]
+    expect(rect).toMatchObject({ shape: 'rectangular', fwhmNs: 10.64, riseNs: 2.13, peakPowerW: 0.5, centreNs: 600, label: 'pump' })
+    expect(gainScanStart(SimulationConfig.parse(offer.config)).pulseOffer).toBeNull()
+    // Without a profile the range stays at ±3 linewidths; a CW pump gets no offer.
+    expect(gainScanStart(config({})).pulseOffer).toBeNull()
+  })
 })

@@ -3,6 +3,8 @@
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { gainDrive } from '@shared/physics/gain-spectrum'
 import { SCAN_LINEWIDTHS, SETTLED_TAIL_FRACTION, gainScanPlan, withSettledWindows, type GainScanPlan } from '@shared/physics/gain-scan'
+import { pulseDurationNs } from '@shared/physics/pulse-duration'
+import { isTimeOfFlightScan } from '@shared/physics/sensing-grid-rules'
 import type { AxisDraft } from './axis-draft'
 import { formatValue } from './sweep-format'
 
@@ -17,6 +19,31 @@ export interface GainScanStart {
   chart: string
   /** A CW window too short for the Stokes output to settle to its steady gain, or null. */
   settle: string | null
+  /** A time-of-flight scan with a pump pulse of another shape: the rectangular pulse of the same duration, or null. */
+  pulseOffer: { text: string; config: SimulationConfig } | null
+}
+
+/** Edges of the offered rectangular pulse, as a fraction of its duration (docs/analysis.md, sensing map). */
+export const OFFERED_RISE_PER_DURATION = 1 / 5
+
+/**
+ * Time-domain analysers launch rectangular pump pulses, and the trade's resolution v_g·τ/2 is written for them
+ * (common practice). The offer keeps the duration (so the energy) and the peak power; its 10–90 % edges of τ/5
+ * keep the sensing step rule's edge bound (Δt ≤ t_rise/2) no finer than its resolution bound (Δt ≤ τ/10).
+ */
+function rectangularOffer(config: SimulationConfig): GainScanStart['pulseOffer'] {
+  if (!isTimeOfFlightScan(config)) return null
+  const pulses = config.channels[0].pump.pulses
+  if (pulses.length !== 1 || pulses[0].shape === 'rectangular' || pulses[0].shape === 'sampled') return null
+  const p = pulses[0]
+  const durationNs = Number(pulseDurationNs(p).toPrecision(4))
+  const riseNs = Number((durationNs * OFFERED_RISE_PER_DURATION).toPrecision(3))
+  const rect = { shape: 'rectangular' as const, label: p.label, peakPowerW: p.peakPowerW, centreNs: p.centreNs, phaseRad: p.phaseRad, frequencyOffsetMHz: p.frequencyOffsetMHz, fwhmNs: durationNs, riseNs }
+  const ch = config.channels[0]
+  return {
+    text: `Time-domain analysers launch rectangular pump pulses. Use one of τ = ${formatValue(durationNs)} ns (the duration of the present ${p.shape === 'superGaussian' ? 'super-Gaussian' : p.shape === 'sech2' ? 'sech²' : 'Gaussian'} pulse: same energy and peak power), with ${formatValue(riseNs)} ns edges.`,
+    config: { ...config, channels: [{ ...ch, pump: { ...ch.pump, pulses: [rect] } }] },
+  }
 }
 
 /**
@@ -41,7 +68,9 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
     plan.lines === 1
       ? `±${SCAN_LINEWIDTHS} linewidths around the Brillouin resonance`
       : `all ${plan.lines} backward resonances, from the lowest one − ${SCAN_LINEWIDTHS} of its linewidths to the highest + ${SCAN_LINEWIDTHS}`
-  const range = `Detuning from ${formatValue(plan.startMHz)} to ${formatValue(plan.stopMHz)} MHz in ${plan.count} points, ${formatValue(plan.stepMHz)} MHz apart: ${where}.`
+  const span = plan.profileSpanMHz
+  const profile = span && (span[0] < 0 || span[1] > 0) ? `, widened to the profile's local shift changes (${formatValue(span[0])} to ${formatValue(span[1])} MHz) ± ${SCAN_LINEWIDTHS} linewidths` : ''
+  const range = `Detuning from ${formatValue(plan.startMHz)} to ${formatValue(plan.stopMHz)} MHz in ${plan.count} points, ${formatValue(plan.stepMHz)} MHz apart: ${where}${profile}.`
   const drive = gainDrive(config)
   const tailNs = formatValue(config.windowNs * SETTLED_TAIL_FRACTION)
   const chart =
@@ -55,5 +84,5 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
     drive.kind === 'cw' && lifetimes < CW_SETTLE_LIFETIMES
       ? `The window, ${formatValue(config.windowNs)} ns, spans ${formatValue(Number(lifetimes.toPrecision(2)))} phonon lifetimes: a CW run's Stokes output settles to its steady gain over tens of lifetimes, so the points may lie below the closed form. A window of ${formatValue(Math.ceil(CW_SETTLE_LIFETIMES * lifetimeNs))} ns or more lets them reach it.`
       : null
-  return { plan, config: drive.kind === 'cw' ? withSettledWindows(config) : config, draft, range, chart, settle }
+  return { plan, config: drive.kind === 'cw' ? withSettledWindows(config) : config, draft, range, chart, settle, pulseOffer: rectangularOffer(config) }
 }
