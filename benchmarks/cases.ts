@@ -49,3 +49,17 @@ export function cwDepletionCase(timeStepPs: number): SimulationConfig {
     grid: { timeStepPs },
   })
 }
+
+/**
+ * Small-signal CW gain with a 200 MHz line and 0.3 dB/cm loss: a 50 mW pump, a 1 nW Stokes seed (depletion ≈ 1e-8),
+ * closed form exp(G_B P L_eff − αL) (Agrawal, Nonlinear Fiber Optics, ch. 9); the wide line makes Γ_B Δt large.
+ */
+export function cwWideLineGainCase(timeStepPs: number): SimulationConfig {
+  return SimulationConfig.parse({
+    waveguide: { ...CHIP, lengthM: 0.05, linewidthMHz: 200, lossDbPerM: 30 },
+    channels: [{ pump: { pulses: [], backgroundPowerW: 0.05 }, stokes: { pulses: [], backgroundPowerW: 1e-9 } }],
+    windowNs: 60,
+    grid: { timeStepPs, mapRows: 16, mapCols: 16 },
+    options: { errorEstimate: false },
+  })
+}

@@ -11,7 +11,7 @@ import { brillouinRates } from '@shared/physics/grid-step'
 import { runVariant, type VariantResult } from '../solver/exchange-variant-run'
 import type { StepVariant } from '../solver/steppers/exchange-variants'
 import { exactDepletion } from '../tests/solver/closed-forms'
-import { cwDepletionCase } from './cases'
+import { cwDepletionCase, cwWideLineGainCase } from './cases'
 
 const quick = process.argv.includes('--quick')
 const TARGET = 1e-5
@@ -22,6 +22,7 @@ const VARIANTS: [string, StepVariant][] = [
   ['cayley + linear-source b̄', { exchange: 'cayley', average: 'linear-source' }],
   ['exact + linear-source b̄', { exchange: 'exact', average: 'linear-source' }],
   ['cayley + linearised b̄', { exchange: 'cayley', average: 'linearised-source' }],
+  ['cayley + held-source b̄', { exchange: 'cayley', average: 'constant-source' }],
 ]
 
 interface Case {
@@ -50,12 +51,21 @@ function depletionExact(): number {
   return exactDepletion(0.5, 1e-3, rates.gainPerWM, wg.lengthM, rates.frequencyRatio).stokesOutW
 }
 
+function wideLineGainExact(): number {
+  const wg = cwWideLineGainCase(1).waveguide
+  const alpha = brillouinRates(wg).alphaPerM
+  const lEff = -Math.expm1(-alpha * wg.lengthM) / alpha
+  return Math.exp(brillouinRates(wg).gainPerWM * 0.05 * lEff - alpha * wg.lengthM)
+}
+const stokesGain = (r: VariantResult) => stokesOutW(r) / 1e-9
+
 const storage = example('store-and-retrieve-chalcogenide-rib.json')
 const refresh = example('store-refresh-retrieve-chalcogenide-rib.json')
 const CASES: Case[] = [
   { name: 'storage', observable: 'retrieval efficiency', config: (dt) => withStep(storage, dt), read: efficiency, steps: [4, 2, 1, 0.5] },
   { name: 'refresh', observable: 'retrieval efficiency after 3 refreshes', config: (dt) => withStep(refresh, dt), read: efficiency, steps: [4, 2, 1, 0.5] },
   { name: 'CW depletion', observable: 'P_s(0) at 150 ns', config: cwDepletionCase, read: stokesOutW, exact: depletionExact(), steps: [16, 8, 4, 2] },
+  { name: 'CW gain, 200 MHz line', observable: 'P_s(0)/P_s(L) at 60 ns', config: cwWideLineGainCase, read: stokesGain, exact: wideLineGainExact(), steps: [8, 4, 2, 1] },
 ]
 
 /**
@@ -87,7 +97,7 @@ VARIANTS.forEach(([label], i) => console.log(`${label.padEnd(26)} ${pad((nsPerCe
 for (const cs of CASES) {
   const steps = quick ? cs.steps.slice(0, 3) : cs.steps
   let ref = cs.exact
-  let refNote = 'closed form (Tang 1966; tests/solver/closed-forms.ts)'
+  let refNote = cs.name === 'CW depletion' ? 'closed form (Tang 1966; tests/solver/closed-forms.ts)' : 'closed form exp(G_B P L_eff − αL) (Agrawal ch. 9)'
   if (ref === undefined) {
     const h = steps[steps.length - 1]
     const f1 = cs.read(runVariant(cs.config(h / 2), VARIANTS[0][1]))
