@@ -74,10 +74,11 @@ export const SPEED_FACTOR_KERR = 0.45
  */
 export const SPEED_FACTOR_TWO_THREADS = 1.4
 /**
- * Shortest grid (cells) at which two threads are taken: below it the per-step barriers cost more than they save.
- * Measured at load average 2.5–3.5: 0.74–1.13× at N_z = 4000, up to 1.46–1.73× from 8000 (benchmarks/README.md).
+ * Shortest grid (cells) at which two threads are taken: below it the per-step barrier costs more than it saves.
+ * With one barrier per step and the maps sampled in the phase, measured 2026-12-04 with both cores free
+ * (benchmarks/README.md): 1.71–1.72× at N_z = 4000 through the driver, 1.06–1.46× at 1000–2000.
  */
-export const THREAD_MIN_CELLS = 8000
+export const THREAD_MIN_CELLS = 4000
 /** Node-steps below which a helper thread's start (tens of milliseconds) is not paid back. */
 export const THREAD_MIN_NODE_STEPS = 2e7
 
@@ -95,15 +96,16 @@ export const PLAIN_FIELDS = 1
  * envelopes; its throughput then falls as 3/(waves + fields), each envelope adding one propagation and its
  * couplings. Measured (benchmarks/README.md, "Multi-wave solver", machine loaded): 0.25–0.99 of the plain
  * TypeScript path per envelope, lowest with several processes per field; the low end, so estimates err long.
- * benchmarks/estimate-check.ts 2026-12-04 (one forward resonance, side by side with the plain path): 0.27.
+ * benchmarks/estimate-check.ts 2026-12-04 (one forward resonance, side by side with the plain path): 0.27 and 0.31.
  */
 export const SPEED_FACTOR_WAVE_NETWORK = 0.25
 /**
  * Relative speed of the general kernel with several channels and no option (each channel a separate 2-wave
  * problem, but through the general reference kernel) against the TypeScript plain path, per cell-update:
- * benchmarks/estimate-check.ts 2026-12-04, 0.20 at load average 4–5 (benchmarks/README.md, "Estimate against measurement").
+ * benchmarks/estimate-check.ts 2026-12-04, 0.20 and 0.31 in two runs at load average 4–5 (benchmarks/README.md,
+ * "Estimate against measurement"); the lower half, so estimates err long.
  */
-export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.2
+export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.25
 
 /**
  * Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or
