@@ -40,7 +40,7 @@ describe('correlation map assembly', () => {
       DETUNINGS.map((d) => ({ detuningMHz: d, delayNs, stokesOutW: trace(gainAt(d, shiftAt(correlationPeakM(delayNs, N_G, 10, 8)!))) })),
     )
     const map = assembleCorrelationMap(points, SETUP)
-    map.positionsM.forEach((z, i) => expect(z).toBeCloseTo(correlationPeakM(delays[i], N_G, 10, 8)!, 5))
+    map.positionsM.forEach((z, i) => expect(z).toBeCloseTo(correlationPeakM(delays[i], N_G, 10, 8)!, 3))
     expect(map.detuningsMHz).toEqual(DETUNINGS)
     expect(map.gain[0][8]).toBeCloseTo(gainAt(0, 0), 9)
     map.fits.forEach((f, i) => {
@@ -55,11 +55,11 @@ describe('correlation map assembly', () => {
     // The delay 10 ns lacks its last detuning (a sweep still running); 0 and 125 ns read the same peak, 0 ns first.
     const full = assembleCorrelationMap(points, SETUP)
     expect(full.positionsM).toHaveLength(3)
-    full.positionsM.forEach((z, i) => expect(z).toBeCloseTo([5, 5 + VG * 5, 5 + VG * 10][i], 5))
+    full.positionsM.forEach((z, i) => expect(z).toBeCloseTo([5, 5 + VG * 5, 5 + VG * 10][i], 3))
     expect(full.fits[0].shiftMHz!).toBeCloseTo(0, 4)
     const partial = assembleCorrelationMap(points.slice(0, -1), SETUP)
     expect(partial.positionsM).toHaveLength(2)
-    expect(partial.positionsM[1]).toBeCloseTo(5 + VG * 10, 5)
+    expect(partial.positionsM[1]).toBeCloseTo(5 + VG * 10, 3)
     expect(() => assembleCorrelationMap(points.filter((p) => p.delayNs === 0 || p.delayNs === 125), SETUP)).toThrow(/at least 2 modulation delays/)
   })
 

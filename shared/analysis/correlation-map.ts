@@ -53,7 +53,8 @@ export function correlationPeakM(delayNs: number, groupIndex: number, lengthM: n
   const dm = peakSpacingM(groupIndex, rateMHz)
   const offset = (C_M_PER_NS / groupIndex) * delayNs / 2
   const z = lengthM / 2 + offset - Math.round(offset / dm) * dm
-  return z >= 0 && z <= lengthM ? z : null
+  // A nanometre of rounding in the delay still reads the guide's end.
+  return z >= -1e-9 && z <= lengthM + 1e-9 ? Math.min(lengthM, Math.max(0, z)) : null
 }
 
 /** Start of the averaging: two crossings of the guide plus the settling of the sound (ns). */
@@ -83,8 +84,9 @@ export function assembleCorrelationMap(points: readonly CorrelationScanPoint[], 
   for (const p of [...points].sort((a, b) => a.delayNs - b.delayNs || a.detuningMHz - b.detuningMHz)) {
     const z = correlationPeakM(p.delayNs, setup.groupIndex, setup.lengthM, setup.rateMHz)
     if (z === null) continue
-    // Two delays one modulation period apart read the same peak: the first one read counts.
-    const key = Math.round(z * 1e6) / 1e6
+    // Positions to 0.1 mm (a delay typed to a few digits reads 1.500005 m); two delays one modulation period
+    // apart read the same peak: the first one read counts.
+    const key = Math.round(z * 1e4) / 1e4
     const row = rows.get(key) ?? new Map<number, number>()
     rows.set(key, row)
     if (row.has(p.detuningMHz)) continue
@@ -100,10 +102,12 @@ export function assembleCorrelationMap(points: readonly CorrelationScanPoint[], 
 
 function fitRow(nu: number[], y: number[], linewidthMHz: number): SensingFitRow {
   const f = fitLorentzianOnBaseline(nu, y, linewidthMHz / 2)
-  if (!f || f.centreSigma === null) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false }
-  // A line counts when it stands out of the residual, its centre lies inside the scan, and it is narrower than
-  // the scan (a wider one is the background, not the peak).
+  if (!f || f.centreSigma === null) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: false }
+  // A line centred beyond the scan is not measured: no shift is given (the scan must be widened).
+  if (f.centre < nu[0] || f.centre > nu[nu.length - 1]) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: true }
+  // A line counts when it stands out of the residual and is narrower than the scan (a wider one is the
+  // background, not the peak).
   const span = nu[nu.length - 1] - nu[0]
-  const usable = f.centre >= nu[0] && f.centre <= nu[nu.length - 1] && f.amplitude > 3 * f.rmsResidual && f.centreSigma < linewidthMHz && 2 * f.halfWidth < span / 2
-  return { shiftMHz: f.centre, sigmaMHz: f.centreSigma, peakGain: f.amplitude, usable }
+  const usable = f.amplitude > 3 * f.rmsResidual && f.centreSigma < linewidthMHz && 2 * f.halfWidth < span / 2
+  return { shiftMHz: f.centre, sigmaMHz: f.centreSigma, peakGain: f.amplitude, usable, outsideScan: false }
 }

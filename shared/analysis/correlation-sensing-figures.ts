@@ -9,7 +9,8 @@
  *  - range: the span from the first to the last position with a usable fit (a mixture at an edge inside it is no
  *    limit of the range; what lies beyond d_m is read by the next peak);
  *  - hot spots: as for the time-of-flight map (shorter than the resolution: "not resolved"; else "detected" when
- *    the fit at the centre lies within 3σ of the true shift), and "outside range" for one no read position covers.
+ *    the fit at the centre lies within 3σ of the true shift; "outside scan" when its line lies beyond the scanned
+ *    detunings), and "outside range" for one no read position covers.
  */
 import { correlationFigures } from '../physics/correlation-figures'
 import { segmentShiftMHz, type ProfileSegment } from '../physics/longitudinal-profile'
@@ -69,6 +70,7 @@ export function correlationSensingFigures(map: AssembledSensingMap, segments: re
     let k = 0
     z.forEach((p, j) => Math.abs(p - centre) < Math.abs(z[k] - centre) && (k = j))
     const f = map.fits[k]
+    if (f.outsideScan) return [{ ...base, status: 'outside scan' }]
     const detected = f.usable && f.shiftMHz !== null && f.sigmaMHz !== null && Math.abs(f.shiftMHz - trueShiftMHz) <= 3 * f.sigmaMHz
     return [{ ...base, fittedShiftMHz: f.shiftMHz, sigmaMHz: f.sigmaMHz, status: detected ? 'detected' : 'missed' }]
   })

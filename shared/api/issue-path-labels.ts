@@ -62,6 +62,7 @@ const FIELD_NAMES: Record<string, string> = {
   groupId: 'group',
   title: 'title',
   notes: 'notes',
+  noiseRms: 'detector noise',
 }
 
 /** Lists of the waveguide and the channel whose entries are named by their number. */

@@ -13,7 +13,8 @@ export function sensingMapCsv(m: SensingMapResponse): string {
     const residual = fit === null ? null : fit - m.trueShiftMHz[i]
     return [z, m.trueShiftMHz[i], cell(fit), cell(m.sigmaMHz[i]), cell(residual), cell(m.peakGainLn[i]), m.usable[i] ? 1 : 0, m.outsideScan?.[i] ? 1 : 0, ...m.gainLn[i]].join(',')
   })
-  const note = `# sensing map; shifts are changes from nu_B = ${m.brillouinShiftGHz} GHz; resolution ${m.resolutionM} m (nominal ${m.nominalResolutionM} m); range ${m.rangeM} m; gain_ln = ln(P_probe/P_probe without pump)`
+  const readOut = m.readOut === 'correlation' ? `correlation read-out, peak spacing ${m.peakSpacingM} m, range from ${m.rangeStartM} m` : 'time-of-flight read-out'
+  const note = `# sensing map, ${readOut}; shifts are changes from nu_B = ${m.brillouinShiftGHz} GHz; resolution ${m.resolutionM} m (nominal ${m.nominalResolutionM} m, measured ${m.measuredResolutionM ?? 'n/a'} m); range ${m.rangeM} m; gain_ln = ln(P_probe/P_probe without pump)`
   return [note, head.join(','), ...lines].join('\n') + '\n'
 }
 

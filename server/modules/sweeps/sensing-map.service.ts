@@ -3,13 +3,14 @@
 // as for the sweep itself (getSweep: group role or share link).
 import { SensingSetupError, assembleSensingMap, type SensingScanPoint } from '@shared/analysis/sensing-map'
 import { sensingFigures } from '@shared/analysis/sensing-figures'
-import { sensingScanProblem, type SensingMapResponse } from '@shared/api/sensing-map'
+import { sensingReadOut, sensingScanProblem, type SensingMapResponse } from '@shared/api/sensing-map'
 import { chooseGrid } from '@shared/physics/grid-step'
 import { pulseDurationNs } from '@shared/physics/pulse-duration'
 import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { AppError } from '../../errors'
 import type { AuthContext } from '../auth/auth-context'
 import { findArray, findRun } from '../runs/runs.repo'
+import { correlationMapFor } from './correlation-map.service'
 import { getSweep, type SweepsDeps } from './sweeps.service'
 
 /** Positions in the answer: enough for a readable heatmap, small enough for a JSON answer of a few MB. */
@@ -29,6 +30,7 @@ export async function sensingMapFor(deps: SweepsDeps, auth: AuthContext | undefi
   const sweep = await getSweep(deps, auth, id, shareToken)
   const problem = sensingScanProblem(sweep)
   if (problem) throw unusable(problem)
+  if (sensingReadOut(sweep) === 'correlation') return correlationMapFor(deps, sweep, noiseRms)
   const done = sweep.points.filter((p) => p.status === 'succeeded')
   if (done.length < 4) throw unusable(`The map needs at least 4 finished points; ${done.length} of ${sweep.points.length} have finished`)
   const points: SensingScanPoint[] = []
