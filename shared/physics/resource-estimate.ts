@@ -74,10 +74,11 @@ export const SPEED_FACTOR_KERR = 0.45
  */
 export const SPEED_FACTOR_TWO_THREADS = 1.4
 /**
- * Shortest grid (cells) at which two threads are taken: below it the per-step barriers cost more than they save.
- * Measured at load average 2.5–3.5: 0.74–1.13× at N_z = 4000, up to 1.46–1.73× from 8000 (benchmarks/README.md).
+ * Shortest grid (cells) at which two threads are taken: below it the per-step barrier costs more than it saves.
+ * With one barrier per step and the maps sampled in the phase, measured 2026-12-04 with both cores free
+ * (benchmarks/README.md): 1.71–1.72× at N_z = 4000 through the driver, 1.06–1.46× at 1000–2000.
  */
-export const THREAD_MIN_CELLS = 8000
+export const THREAD_MIN_CELLS = 4000
 /** Node-steps below which a helper thread's start (tens of milliseconds) is not paid back. */
 export const THREAD_MIN_NODE_STEPS = 2e7
 
