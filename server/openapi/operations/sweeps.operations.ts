@@ -26,7 +26,7 @@ export const sweepsOperations: ApiOperation[] = [
     path: '/api/sweeps/:id/sensing-map',
     tag: 'Sweeps',
     auth: 'shareable',
-    summary: 'Gain against position and frequency of a detuning sweep with a pulsed pump and a CW probe, with the fitted shift profile, resolution, range and hot spots (format=csv or npy for files)',
+    summary: 'Gain against position and frequency of a sensing scan, with the fitted shift profile, resolution, range and hot spots (format=csv or npy for files): a detuning sweep with a pulsed pump and a CW probe (time-of-flight read-out), or a sweep of the detuning and the Stokes source delay with a CW pump and probe sharing one frequency modulation (correlation read-out)',
     query: SensingMapQuery,
     response: { status: 200, description: 'The map and its fits', schema: SensingMapResponse },
   },
