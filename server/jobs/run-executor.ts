@@ -10,6 +10,7 @@ import type { SimulationManifest } from '@shared/physics/simulation-result'
 import { buildRunManifest } from '../../solver/index'
 import type { Logger } from '../logger'
 import { insertRunCost } from '../modules/estimates/run-costs.repo'
+import { loadSpeedCalibration } from '../modules/estimates/speed-calibration.service'
 import { claimRun, finishFailed, finishSucceeded, heartbeat, writeMapBlock, writeProgress } from './run-store'
 import { SolverPool, type PoolRun, type RunMessage, type ThreadResult } from './solver-pool'
 
@@ -161,7 +162,9 @@ export async function executeRun(o: ExecuteOptions): Promise<RunOutcome> {
       return { ...base, status: 'failed', message: result.message, manifest }
     }
     const finishedAt = new Date()
-    const runManifest = buildRunManifest(manifest, config, estimateResources(config, chooseGrid(config)), {
+    // The estimate with this server's measured speed as it stood when the run ended (this run not yet counted).
+    const estimate = estimateResources(config, chooseGrid(config), 1, await loadSpeedCalibration(pool, log))
+    const runManifest = buildRunManifest(manifest, config, estimate, {
       startedAt: startedAt.toISOString(),
       finishedAt: finishedAt.toISOString(),
       wallTimeS: (finishedAt.getTime() - startedAt.getTime()) / 1000,

@@ -11,7 +11,8 @@ export function estimateLines(e: ResourceEstimate): string[] {
     `grid: ${e.cells} cells × ${e.steps} steps, Δt = ${sig(e.timeStepPs)} ps, ${e.channels} channel(s)`,
     `work: ${sig(e.cellUpdates, 3)} cell-updates, memory ≈ ${mib(e.memoryBytes.total)} ` +
       `(state ${mib(e.memoryBytes.state)}, maps ${mib(e.memoryBytes.maps)}, traces ${mib(e.memoryBytes.traces)})`,
-    `expected time ≈ ${sig(e.expectedSeconds, 2)} s at ${sig(e.cellUpdatesPerS / 1e6, 3)} M cell-updates/s`,
+    `expected time ≈ ${sig(e.expectedSeconds, 2)} s at ${sig(e.cellUpdatesPerS / 1e6, 3)} M cell-updates/s ` +
+      `(${sig(e.timeBasis.fastSeconds, 2)}–${sig(e.timeBasis.slowSeconds, 2)} s; from the benchmark figures: the command line keeps no history of its runs)`,
   ]
 }
 

@@ -37,6 +37,8 @@ describe('run cost observations', () => {
     }, 120_000)
     const kernel = run.manifest.kernel
     expect(kernel).toMatchObject({ engine: expect.stringMatching(/^(ts|wasm)$/), threads: expect.any(Number), path: expect.any(String) })
+    // The manifest's estimate says where its time came from: the first run of this database has no history.
+    expect(run.manifest.estimate.timeBasis).toMatchObject({ source: 'benchmark', runs: 0, kernel })
     const cost = await waitFor('the cost row', async () => (await pool.query(`select * from run_costs where run_id = $1`, [id])).rows[0], 30_000)
     expect(cost.kernel).toBe(kernelKey(kernel))
     // The run and its error-estimate companion, as counted by the solver.
