@@ -56,6 +56,8 @@ const STALL_MS = 30_000
 const MIN_HELPER_SHARE = 0.2
 const TRIAL_PHASES = 256
 const SOLO_PHASES = 4096
+/** Each failed trial in a row doubles the time alone, up to this: a trial on a busy machine costs the run waits for a descheduled helper. */
+const MAX_SOLO_PHASES = 65536
 // Operations (runChunk in engine/block-step-source.ts): bits 1..0 what, bit 2 the edge set read, bit 3 the set
 // written, bit 4 the transport takes the boundary inputs.
 const OP_STEP = 0
@@ -114,6 +116,7 @@ export class ThreadedSveaEngine {
   private trialOwn = 0
   private trialPhases = 0
   private solo = 0
+  private soloLength = SOLO_PHASES
 
   /**
    * `threads` − 1 helpers start here. Testing aids: `chunkNodes` (any value gives the same bits), and
@@ -238,7 +241,10 @@ export class ThreadedSveaEngine {
     this.barrier()
     this.trialOwn += own
     if (++this.trialPhases < TRIAL_PHASES || this.helpersOnly) return
-    if (1 - this.trialOwn / (TRIAL_PHASES * this.chunks) < MIN_HELPER_SHARE && this.threads > 1) this.solo = SOLO_PHASES
+    if (1 - this.trialOwn / (TRIAL_PHASES * this.chunks) < MIN_HELPER_SHARE && this.threads > 1) {
+      this.solo = this.soloLength
+      this.soloLength = Math.min(MAX_SOLO_PHASES, 2 * this.soloLength)
+    } else this.soloLength = SOLO_PHASES
     this.trialOwn = 0
     this.trialPhases = 0
   }
