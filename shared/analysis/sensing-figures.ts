@@ -8,7 +8,10 @@
  *    only while the step is small against the linewidth; across a large step the fit jumps from one line to
  *    the other and reads sharper than the pulse resolves). The two differ when the pulse is not long against
  *    the phonon lifetime: the phonon builds up while the pulse passes, so the fitted shift weighs the pulse's
- *    trailing part most and a 10 ns rectangular pulse reads about half of v_g τ/2 (docs/analysis.md);
+ *    trailing part most and a 10 ns rectangular pulse reads about half of v_g τ/2 (docs/analysis.md). The width
+ *    is read on the noise-free map when detector noise is added: the 10 % and 90 % levels of a step of at most
+ *    half a linewidth lie within the fit's 1σ at 0.1 % noise (a 10 ns rectangular pulse across a 5 MHz step then
+ *    reads 0.77–1.7 × v_g τ/2 instead of 0.62), so the noisy width would measure the noise, not the pulse;
  *  - range: the farthest position up to which every fit is usable (or its line lies outside the scan);
  *  - hot spots: each segment with a shift change. One shorter than the resolution is "not resolved" (its
  *    fitted shift would be a mixture, not a measurement); otherwise "detected" when the fitted shift at its
@@ -63,14 +66,14 @@ export function stepWidthM(map: AssembledSensingMap, zE: number, halfSpanM: numb
   return z90 === null ? null : z90 - z10
 }
 
-export function sensingFigures(map: AssembledSensingMap, segments: readonly ProfileSegment[], groupIndex: number, pumpDurationNs: number, linewidthMHz: number): SensingFigures {
+export function sensingFigures(map: AssembledSensingMap, segments: readonly ProfileSegment[], groupIndex: number, pumpDurationNs: number, linewidthMHz: number, stepMap: AssembledSensingMap = map): SensingFigures {
   const nominal = ((C_M_PER_NS / groupIndex) * pumpDurationNs) / 2
   const edges: { z: number; s1: number; s2: number }[] = []
   for (const s of segments) for (const z of [s.startM, s.endM]) edges.push({ z, s1: trueShiftAt(segments, z - 1e-9), s2: trueShiftAt(segments, z) })
   const length = map.positionsM[map.positionsM.length - 1]
   const clean = edges.filter((e) => e.s1 !== e.s2 && Math.abs(e.s2 - e.s1) <= linewidthMHz / 2 && e.z > 1.5 * nominal && e.z < length - 1.5 * nominal && edges.every((o) => o === e || Math.abs(o.z - e.z) > 1.5 * nominal))
   clean.sort((a, b) => Math.abs(a.s2 - a.s1) - Math.abs(b.s2 - b.s1))
-  const measured = clean.length > 0 ? stepWidthM(map, clean[0].z, 1.5 * nominal, clean[0].s1, clean[0].s2) : null
+  const measured = clean.length > 0 ? stepWidthM(stepMap, clean[0].z, 1.5 * nominal, clean[0].s1, clean[0].s2) : null
   const resolutionM = measured ?? nominal
   let last = -1
   // A position whose line lies outside the scan still has signal: it does not end the range.

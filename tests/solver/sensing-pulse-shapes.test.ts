@@ -24,10 +24,14 @@ function measure(tauNs: number, riseNs?: number) {
   const detuningsMHz = Array.from({ length: plan.count }, (_, i) => plan.startMHz + i * plan.stepMHz)
   const { points, dtNs } = runScan(setup, detuningsMHz)
   const pulse = config.channels[0].pump.pulses[0]
-  const map = assembleSensingMap(points, { dtNs, groupIndex: FIBRE.groupIndex, lengthM: setup.lengthM, linewidthMHz: FIBRE.linewidthMHz, pumpCentreNs: scanTiming(setup).pumpCentreNs, pumpFwhmNs: tauNs })
-  const fig = sensingFigures(map, config.waveguide.profile!.segments, FIBRE.groupIndex, pulseDurationNs(pulse), FIBRE.linewidthMHz)
+  const assemble = (relativeNoiseRms: number) => assembleSensingMap(points, { dtNs, groupIndex: FIBRE.groupIndex, lengthM: setup.lengthM, linewidthMHz: FIBRE.linewidthMHz, pumpCentreNs: scanTiming(setup).pumpCentreNs, pumpFwhmNs: tauNs, relativeNoiseRms, noiseSeed: 7 })
+  const map = assemble(0)
+  const figures = (m: typeof map, stepMap?: typeof map) => sensingFigures(m, config.waveguide.profile!.segments, FIBRE.groupIndex, pulseDurationNs(pulse), FIBRE.linewidthMHz, stepMap)
+  const fig = figures(map)
   const reference = referenceStepWidthM({ pulse, groupIndex: FIBRE.groupIndex, linewidthMHz: FIBRE.linewidthMHz, stepMHz: 5, detuningsMHz })
-  return { fig, reference, dz }
+  // With 0.1 % detector noise: the step read on the noisy map itself, and on the noise-free one as the service does.
+  const noisy = assemble(1e-3)
+  return { fig, reference, dz, noisyOwn: figures(noisy), noisyClean: figures(noisy, map) }
 }
 
 describe('time-of-flight resolution against the pulse shape', () => {
@@ -42,8 +46,8 @@ describe('time-of-flight resolution against the pulse shape', () => {
     expect(Math.abs(width(Pulse.parse({ shape: 'gaussian', peakPowerW: 1, centreNs: 0, fwhmNs: 100 })) / ((2 * Z90) / (2 * Math.sqrt(2 * Math.LN2))) - 1)).toBeLessThan(0.03)
   })
 
-  it('10 ns rectangular pulse (edges τ/5): the solver matches the integral; it resolves about half of v_g·τ/2', () => {
-    const { fig, reference, dz } = measure(10, 2)
+  it('10 ns rectangular pulse (edges τ/5): the solver matches the integral; it resolves about 0.6 of v_g·τ/2', () => {
+    const { fig, reference, dz, noisyOwn, noisyClean } = measure(10, 2)
     // A rectangular pulse's duration is its width: the nominal figure is the trade's v_g·τ/2 itself.
     expect(fig.nominalResolutionM).toBeCloseTo(dz, 9)
     expect(Math.abs(fig.measuredResolutionM! / reference - 1)).toBeLessThan(0.05)
@@ -51,6 +55,10 @@ describe('time-of-flight resolution against the pulse shape', () => {
     // the pulse's trailing part) and so more than 10 % from v_g·τ/2: the sensing view says so beside both figures.
     expect(fig.measuredResolutionM! / fig.nominalResolutionM).toBeLessThan(0.8)
     expect(fig.measuredResolutionM! / fig.nominalResolutionM).toBeGreaterThan(0.4)
+    // Detector noise of 0.1 % puts the fit's 1σ (≈ 0.8 MHz) above the step's 10 % level (0.5 MHz): read on the
+    // noisy map the width measures the noise; read on the noise-free map it stays the pulse's.
+    expect(Math.abs((noisyOwn.measuredResolutionM ?? Infinity) / fig.measuredResolutionM! - 1)).toBeGreaterThan(0.1)
+    expect(noisyClean.measuredResolutionM).toBe(fig.measuredResolutionM)
   })
 
   it('10 ns Gaussian pulse: the solver matches the integral, about 10 % wider than v_g·τ/2 with τ its equivalent duration', () => {

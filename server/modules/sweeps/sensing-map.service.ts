@@ -50,8 +50,11 @@ export async function sensingMapFor(deps: SweepsDeps, auth: AuthContext | undefi
   // The resolution's τ: the pulse's duration (its width for a rectangular pulse), not its FWHM.
   const durationNs = pulseDurationNs(pump)
   try {
-    const map = assembleSensingMap(points, { dtNs, groupIndex: wg.groupIndex, lengthM: wg.lengthM, linewidthMHz: wg.linewidthMHz, pumpCentreNs: pump.centreNs, pumpFwhmNs: fwhmNs, relativeNoiseRms: noiseRms, maxPositions: MAX_POSITIONS })
-    const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, durationNs, wg.linewidthMHz)
+    const setup = { dtNs, groupIndex: wg.groupIndex, lengthM: wg.lengthM, linewidthMHz: wg.linewidthMHz, pumpCentreNs: pump.centreNs, pumpFwhmNs: fwhmNs, maxPositions: MAX_POSITIONS }
+    const map = assembleSensingMap(points, { ...setup, relativeNoiseRms: noiseRms })
+    // The resolution is the read-out's, not the noise's: measured on the noise-free map (sensing-figures.ts).
+    const clean = noiseRms > 0 ? assembleSensingMap(points, setup) : map
+    const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, durationNs, wg.linewidthMHz, clean)
     return {
       brillouinShiftGHz: wg.brillouinShiftGHz,
       positionsM: map.positionsM,
