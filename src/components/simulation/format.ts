@@ -24,7 +24,8 @@ export function formatBytes(bytes: number): string {
 }
 
 export function formatDuration(seconds: number): string {
-  if (seconds < 1) return `${formatNumber(seconds * 1000, 2)} ms`
+  // Three figures: with two, 100–999 ms would be written as powers of ten.
+  if (seconds < 1) return `${formatNumber(seconds * 1000, 3)} ms`
   if (seconds < 120) return `${formatNumber(seconds, 3)} s`
   if (seconds < 7200) return `${formatNumber(seconds / 60, 3)} min`
   return `${formatNumber(seconds / 3600, 3)} h`
