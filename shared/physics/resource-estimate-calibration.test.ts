@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest'
 import { SimulationConfig, type SimulationConfigInput } from './simulation-config'
 import { chooseGrid } from './grid-step'
-import { BENCHMARK_FAST_FACTOR, BENCHMARK_SLOW_FACTOR, benchmarkSpeed, RECENT_RUNS_MARGIN, estimateResources, predictKernel, timeBasisSentence } from './resource-estimate'
+import { BENCHMARK_FAST_FACTOR, BENCHMARK_SLOW_FACTOR, benchmarkSpeed, RECENT_RUNS_MARGIN, SPEED_FACTOR_WASM_ENGINE, estimateResources, predictKernel, timeBasisSentence } from './resource-estimate'
 import { MIN_CALIBRATION_RUNS, type KernelSpeed, type SpeedCalibration } from './speed-calibration'
 import type { KernelClass } from './kernel-class'
 
@@ -87,5 +87,20 @@ describe('estimate calibrated by measured speeds', () => {
     const bench = timeBasisSentence(estimateResources(c, g).timeBasis, fmt)
     expect(bench).toMatch(/^From the benchmark figures/)
     expect(bench).not.toMatch(/wasm|ts\/|recent-runs|kernel/)
+  })
+
+  it('on a server whose solver threads are set to the TypeScript engine, predicts and calibrates the TypeScript class', () => {
+    const c = config()
+    const g = chooseGrid(c)
+    const tsPlain: KernelClass = { engine: 'ts', threads: 1, path: 'plain' }
+    expect(predictKernel(c, g, 'ts')).toEqual(tsPlain)
+    // Without history: the benchmark figures without the WebAssembly factor.
+    const bench = estimateResources(c, g, 1, { kernels: [], engine: 'ts' })
+    expect(bench.timeBasis).toMatchObject({ source: 'benchmark', kernel: tsPlain })
+    expect(bench.cellUpdatesPerS).toBe(benchmarkSpeed(c, g, 'ts'))
+    expect(benchmarkSpeed(c, g) / benchmarkSpeed(c, g, 'ts')).toBe(SPEED_FACTOR_WASM_ENGINE)
+    // With history of both engines, the TypeScript one counts.
+    const e = estimateResources(c, g, 1, { kernels: [speed(wasmPlain, 90e6), speed(tsPlain, 45e6)], engine: 'ts' })
+    expect(e.cellUpdatesPerS).toBe(45e6)
   })
 })

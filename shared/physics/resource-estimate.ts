@@ -127,13 +127,17 @@ export function envelopeCounts(config: SimulationConfig): { waves: number; field
  * The kernel class the solver will choose for this run (solver/driver.ts; threads as engine/thread-choice.ts
  * chooses them with a core free): the class whose measured speed the estimate uses.
  */
-export function predictKernel(config: SimulationConfig, grid: GridCounts): KernelClass {
+export function predictKernel(config: SimulationConfig, grid: GridCounts, engine: 'auto' | 'ts' = 'auto'): KernelClass {
   const o = config.options
   // Kerr switched on with n₂ = 0 computes nothing: the solver takes the kernels without it.
   const kerr = o.kerr && config.waveguide.kerrN2M2PerW > 0
   if (usesWaveNetwork(config)) return { engine: 'ts', threads: 1, path: 'network' }
   if (profileIsActive(config.waveguide.profile)) return { engine: 'ts', threads: 1, path: 'profile' }
-  if (wasmEngineCovers(config)) return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
+  if (wasmEngineCovers(config)) {
+    // The same runs on the TypeScript engine take its flat plain or Kerr kernel, on one thread.
+    if (engine === 'ts') return { engine: 'ts', threads: 1, path: kerr ? 'kerr' : 'plain' }
+    return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
+  }
   // One flat kernel per option; Kerr with another option, or several channels, take the general kernel.
   const single = config.channels.length === 1 && !kerr
   const path = single && o.higherOrderAcoustic ? 'higher-order' : single && o.noise.enabled ? 'noise' : 'general'
@@ -167,7 +171,8 @@ export function timeBasisSentence(b: TimeBasis, seconds: (s: number) => string):
  * thread), else the benchmark figures.
  */
 function speedFor(config: SimulationConfig, grid: GridCounts, calibration: SpeedCalibration | null | undefined) {
-  const kernel = predictKernel(config, grid)
+  const engine = calibration?.engine ?? 'auto'
+  const kernel = predictKernel(config, grid, engine)
   const { waves, fields } = envelopeCounts(config)
   const candidates = kernel.threads > 1 ? [kernel, { ...kernel, threads: 1 }] : [kernel]
   const measured = candidates.map((k) => speedOf(calibration, k)).filter((k) => k !== null)
@@ -181,12 +186,13 @@ function speedFor(config: SimulationConfig, grid: GridCounts, calibration: Speed
     const slow = Math.min(m.slowPerS * perCell, rate / RECENT_RUNS_MARGIN)
     return { rate, fast, slow, source: 'recent-runs' as const, runs: m.runs, kernel: m.kernel }
   }
-  const rate = benchmarkSpeed(config, grid)
+  const rate = benchmarkSpeed(config, grid, engine)
   return { rate, fast: rate / BENCHMARK_FAST_FACTOR, slow: rate / BENCHMARK_SLOW_FACTOR, source: 'benchmark' as const, runs: 0, kernel }
 }
 
 /** The benchmark figures: the plain path's speed times the factor of every option, engine and thread count above. */
-export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts): number {
+export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts, engine: 'auto' | 'ts' = 'auto'): number {
+  const wasm = engine !== 'ts' && wasmEngineCovers(config)
   const o = config.options
   const { waves, fields } = envelopeCounts(config)
   const network = waves !== PLAIN_WAVES || fields !== PLAIN_FIELDS
@@ -197,8 +203,8 @@ export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts): numb
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr && config.waveguide.kerrN2M2PerW > 0 ? SPEED_FACTOR_KERR : 1) *
     (config.channels.length > 1 && !network && !o.kerr && !o.noise.enabled && !o.higherOrderAcoustic ? SPEED_FACTOR_SEVERAL_CHANNELS : 1) *
-    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasmEngineCovers(config) ? SPEED_FACTOR_WASM_ENGINE : 1) *
-    (twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
+    (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasm ? SPEED_FACTOR_WASM_ENGINE : 1) *
+    (wasm && twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
   )
 }
 

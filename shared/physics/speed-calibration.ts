@@ -20,7 +20,11 @@ export const KernelSpeed = z.object({
 })
 export type KernelSpeed = z.infer<typeof KernelSpeed>
 
-export const SpeedCalibration = z.object({ kernels: z.array(KernelSpeed) })
+export const SpeedCalibration = z.object({
+  kernels: z.array(KernelSpeed),
+  /** The step engine the server's solver threads are set to: 'ts' when the WebAssembly engine is switched off there. */
+  engine: z.enum(['auto', 'ts']).optional(),
+})
 export type SpeedCalibration = z.infer<typeof SpeedCalibration>
 
 /**
