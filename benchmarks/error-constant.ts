@@ -23,6 +23,7 @@ const VARIANTS: [string, StepVariant][] = [
   ['exact + linear-source b̄', { exchange: 'exact', average: 'linear-source' }],
   ['cayley + linearised b̄', { exchange: 'cayley', average: 'linearised-source' }],
   ['cayley + held-source b̄', { exchange: 'cayley', average: 'constant-source' }],
+  ['cayley + trapezoid-lin. b̄', { exchange: 'cayley', average: 'trapezoid-linearised' }],
 ]
 
 interface Case {

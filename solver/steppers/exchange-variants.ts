@@ -29,12 +29,14 @@
  *     which changes b̄ by O(Δt³) only: the same order of accuracy at one exchange per node and step.
  *  'constant-source': the exact mean with the source held at D₀, b̄ = φ₁(z)·b + Δt·φ₂(z)·D₀ (the D₁ − D₀ term left
  *     out): separates what the exact φ-weights do from what the source's change over the step does.
+ *  'trapezoid-linearised': the trapezoid mean plus the linearised source's change, b̄ = b̂ + Δt·φ₃(z)·K·β̂·(|u|² − |v|²)/c
+ *     (β̂ = c·b̂): the D₁ − D₀ term without the exact weights.
  * The corrector of b is the default one in every variant: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  */
 import { interactSvea } from './interaction-kernel'
 
 export type ExchangeForm = 'cayley' | 'exact'
-export type SourceAverage = 'trapezoid' | 'linear-source' | 'linearised-source' | 'constant-source'
+export type SourceAverage = 'trapezoid' | 'linear-source' | 'linearised-source' | 'constant-source' | 'trapezoid-linearised'
 
 export interface StepVariant {
   exchange: ExchangeForm
@@ -132,7 +134,8 @@ export function interactSveaVariant(
   const linear = variant.average === 'linear-source'
   const linearised = variant.average === 'linearised-source'
   const constant = variant.average === 'constant-source'
-  if ((linear || linearised || constant) && !mean) throw new Error('The linear-source average needs its mean coefficients')
+  const trapLin = variant.average === 'trapezoid-linearised'
+  if ((linear || linearised || constant || trapLin) && !mean) throw new Error('The linear-source average needs its mean coefficients')
   const c = 2 * cHalf
   const hh = 0.5 * h
   const m0r = mean?.m0[0] ?? 0, m0i = mean?.m0[1] ?? 0
@@ -153,6 +156,12 @@ export function interactSveaVariant(
       const er = g * betaR, ei = g * betaI
       betaR = c * (m0r * br - m0i * bi + m1r * d0r - m1i * d0i + m2r * er - m2i * ei)
       betaI = c * (m0r * bi + m0i * br + m1r * d0i + m1i * d0r + m2r * ei + m2i * er)
+    }
+    if (trapLin) {
+      const g = K * (ur * ur + ui * ui - vr * vr - vi * vi)
+      const er = g * betaR, ei = g * betaI
+      betaR += c * (m2r * er - m2i * ei)
+      betaI += c * (m2r * ei + m2i * er)
     }
     let cs = rotationCos(betaR * betaR + betaI * betaI, exact)
     let sn = sinOverX

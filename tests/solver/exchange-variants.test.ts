@@ -19,6 +19,7 @@ const VARIANTS: StepVariant[] = [
   { exchange: 'cayley', average: 'linearised-source' },
   { exchange: 'exact', average: 'linearised-source' },
   { exchange: 'cayley', average: 'constant-source' },
+  { exchange: 'cayley', average: 'trapezoid-linearised' },
 ]
 const name = (v: StepVariant) => `${v.exchange} exchange, ${v.average} b̄`
 
