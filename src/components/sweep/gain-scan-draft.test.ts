@@ -28,6 +28,8 @@ describe('gain-scan start of the sweep form', () => {
     expect(s.range).toMatch(/^Detuning from -102 to 202 MHz .*all 2 backward resonances/)
     expect(s.chart).toMatch(/effective gain .* dashed reference/)
     expect(s.config.energyWindows).toEqual([])
+    // No profile: an amplifier, not a sensing fibre, so no rectangular pulse is offered.
+    expect(s.pulseOffer).toBeNull()
   })
 
   it('widens the range to the local shift of a hot spot in the profile, and offers a rectangular pump for a time-of-flight scan', () => {
@@ -42,6 +44,7 @@ describe('gain-scan start of the sweep form', () => {
     expect([s.plan.startMHz, s.plan.stopMHz]).toEqual([-90, 125])
     expect(s.plan.stepMHz).toBeLessThanOrEqual(10)
     expect(s.range).toContain("widened to the profile's local shift changes (0 to 35 MHz) ± 3 linewidths")
+    expect(s.chart).toMatch(/sensing scan with the time-of-flight read-out.*spatial resolution \(nominal and measured\)/)
     // A Gaussian's duration ∫P dt/P_peak = √(π/(4 ln 2))·FWHM = 10.64 ns (the Gaussian integral).
     const offer = s.pulseOffer!
     expect(offer.text).toMatch(/rectangular pump pulses\. Use one of τ = 10\.64 ns .*Gaussian.*2\.13 ns edges/)

@@ -5,6 +5,7 @@ import { gainDrive } from '@shared/physics/gain-spectrum'
 import { SCAN_LINEWIDTHS, SETTLED_TAIL_FRACTION, gainScanPlan, withSettledWindows, type GainScanPlan } from '@shared/physics/gain-scan'
 import { pulseDurationNs } from '@shared/physics/pulse-duration'
 import { isTimeOfFlightScan } from '@shared/physics/sensing-grid-rules'
+import { profileIsActive } from '@shared/physics/longitudinal-profile'
 import type { AxisDraft } from './axis-draft'
 import { formatValue } from './sweep-format'
 
@@ -26,13 +27,16 @@ export interface GainScanStart {
 /** Edges of the offered rectangular pulse, as a fraction of its duration (docs/analysis.md, sensing map). */
 export const OFFERED_RISE_PER_DURATION = 1 / 5
 
+/** A pulsed pump and a CW probe on a waveguide with a longitudinal profile: what a sensing scan is set up for. */
+const isSensingScan = (config: SimulationConfig) => isTimeOfFlightScan(config) && profileIsActive(config.waveguide.profile)
+
 /**
  * Time-domain analysers launch rectangular pump pulses, and the trade's resolution v_g·τ/2 is written for them
  * (common practice). The offer keeps the duration (so the energy) and the peak power; its 10–90 % edges of τ/5
  * keep the sensing step rule's edge bound (Δt ≤ t_rise/2) no finer than its resolution bound (Δt ≤ τ/10).
  */
 function rectangularOffer(config: SimulationConfig): GainScanStart['pulseOffer'] {
-  if (!isTimeOfFlightScan(config)) return null
+  if (!isSensingScan(config)) return null
   const pulses = config.channels[0].pump.pulses
   if (pulses.length !== 1 || pulses[0].shape === 'rectangular' || pulses[0].shape === 'sampled') return null
   const p = pulses[0]
@@ -73,8 +77,9 @@ export function gainScanStart(config: SimulationConfig): GainScanStart {
   const range = `Detuning from ${formatValue(plan.startMHz)} to ${formatValue(plan.stopMHz)} MHz in ${plan.count} points, ${formatValue(plan.stepMHz)} MHz apart: ${where}${profile}.`
   const drive = gainDrive(config)
   const tailNs = formatValue(config.windowNs * SETTLED_TAIL_FRACTION)
-  const chart =
-    drive.kind === 'cw'
+  const chart = isSensingScan(config)
+    ? 'A pulsed pump and a continuous probe: a sensing scan with the time-of-flight read-out. The sweep page shows the probe gain against position and frequency, the fitted shift profile over the true one, the spatial resolution (nominal and measured) and each hot spot of the profile.'
+    : drive.kind === 'cw'
       ? `Pump and Stokes are continuous: the sweep page plots the Stokes gain against detuning over the closed-form small-signal gain (a sum of Lorentzians). The gain is read over the last ${tailNs} ns of each run, after the switch-on ringing, from two energy windows added to the base configuration.`
       : 'The pump or Stokes is pulsed: the sweep page plots the effective gain (peak Stokes output over peak input) against detuning, with the continuous-wave closed form at the peak pump power as a dashed reference.'
   // The narrowest line has the longest lifetime 1/Γ = 1/(2π·Δν).
