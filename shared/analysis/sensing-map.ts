@@ -103,7 +103,13 @@ function fitRow(nu: number[], y: number[], linewidthMHz: number): SensingFitRow 
   let top = 0
   for (let i = 1; i < y.length; i++) if (y[i] > y[top]) top = i
   // A peak on the scan's edge: the fit would extrapolate a line the scan never reached, so no number is given.
-  if (top === 0 || top === y.length - 1) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: true }
+  // Only a peak that stands out counts: above the row's mean by 5σ of the noise, σ from successive differences
+  // (rms of y[i+1] − y[i] over √2, which a smooth line barely raises), so a row of noise alone is not flagged.
+  let mean = 0
+  let diff2 = 0
+  for (let i = 0; i < y.length; i++) (mean += y[i] / y.length), i > 0 && (diff2 += (y[i] - y[i - 1]) ** 2)
+  const noise = Math.sqrt(diff2 / (2 * (y.length - 1)))
+  if ((top === 0 || top === y.length - 1) && y[top] - mean > 5 * noise) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: true }
   const f = fitLorentzian(nu, y, linewidthMHz / 2)
   if (!f || f.centreSigma === null) return { shiftMHz: null, sigmaMHz: null, peakGain: null, usable: false, outsideScan: false }
   // A fit counts when the line stands out of the residual and its centre lies inside the scanned range.

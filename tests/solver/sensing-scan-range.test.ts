@@ -55,4 +55,13 @@ describe('scan range against the profile', () => {
     expect(Math.abs(spot.fittedShiftMHz! - 35)).toBeLessThanOrEqual(3 * spot.sigmaMHz!)
     expect(planned.map.fits.some((f) => f.outsideScan)).toBe(false)
   })
+
+  it('does not call a row of detector noise alone outside the scan', () => {
+    // A probe the pump never touched, with 0.1 % white noise: no row has a line, so none is outside the scan.
+    const flat = Array.from({ length: 17 }, (_, i) => ({ detuningMHz: -60 + 5 * i, stokesOutW: new Float64Array(400).fill(1e-4) }))
+    const transitNs = 20 / VG_M_PER_NS
+    const map = assembleSensingMap(flat, { dtNs: 1, groupIndex: FIBRE.groupIndex, lengthM: 20, linewidthMHz: FIBRE.linewidthMHz, pumpCentreNs: transitNs + 40, pumpFwhmNs: 10, relativeNoiseRms: 1e-3, noiseSeed: 11 })
+    expect(map.fits.length).toBeGreaterThan(150)
+    expect(map.fits.filter((f) => f.outsideScan)).toHaveLength(0)
+  })
 })
