@@ -74,8 +74,8 @@ export function heatmapOption(s: SweepDetail, metric: MetricColumn, type: ImageT
         `${metric.label}: ${typeof p.data[2] === 'number' ? formatValue(p.data[2]) + unitSuffix(metric.unit) : 'not yet'}`,
     },
     grid: { left: 84, right: 24, top: 36, bottom: 116 },
-    xAxis: { type: 'category', data: v1.map(formatValue), name: axisLabel(s.axes[1]), nameLocation: 'middle', nameGap: 26, splitArea: { show: true } },
-    yAxis: { type: 'category', data: v0.map(formatValue), name: axisLabel(s.axes[0]), nameLocation: 'end', splitArea: { show: true } },
+    xAxis: { type: 'category', data: v1.map((v) => formatValue(v)), name: axisLabel(s.axes[1]), nameLocation: 'middle', nameGap: 26, splitArea: { show: true } },
+    yAxis: { type: 'category', data: v0.map((v) => formatValue(v)), name: axisLabel(s.axes[0]), nameLocation: 'end', splitArea: { show: true } },
     visualMap: {
       min: finite.length ? Math.min(...finite) : 0,
       max: finite.length ? Math.max(...finite) : 1,
