@@ -72,7 +72,11 @@ export function buildSweepPoints(def: SweepDefinition): BuiltSweep {
 }
 
 export interface SweepLimits {
-  /** Summed over every point: what one sweep may ask of the shared workers. Ten full-size runs. */
+  /**
+   * Summed over every point: what one sweep may ask of the shared workers. Fifty full-size runs, so that the
+   * one-click sensing scan of a 10 km fibre (41 detunings of about 1.2e10 cell-updates, 1.5e10 with the error
+   * estimate) is accepted: hours on a queue, and still half of one account's daily quota (server/env.ts).
+   */
   maxTotalCellUpdates: number
   /** Each point is a run and obeys the run limits. */
   run: ResourceLimits
@@ -80,7 +84,7 @@ export interface SweepLimits {
 }
 
 export const DEFAULT_SWEEP_LIMITS: SweepLimits = {
-  maxTotalCellUpdates: 10 * DEFAULT_RESOURCE_LIMITS.maxCellUpdates,
+  maxTotalCellUpdates: 50 * DEFAULT_RESOURCE_LIMITS.maxCellUpdates,
   run: DEFAULT_RESOURCE_LIMITS,
   maxPoints: MAX_SWEEP_POINTS,
 }

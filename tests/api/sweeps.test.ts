@@ -140,22 +140,22 @@ describe('POST /api/sweeps', () => {
   })
 
   it('refuses a sweep over the total limit with 422 naming the limit and the total', async () => {
-    // 32 points of ~8.1e9 cell-updates each: every point is under the run limit (2e10), the sum (~2.6e11)
-    // is over the sweep limit (10 × 2e10).
-    const base = tinySweepBase(20_000, 1)
-    const res = await post('/sweeps', editor, powerSweep(editor.groupId, 'Too big', 32, base))
+    // 64 points (an axis's most) of ~1.8e10 cell-updates each: every point is under the run limit (2e10), the
+    // sum (~1.2e12) is over the sweep limit (50 × 2e10).
+    const base = tinySweepBase(45_000, 1)
+    const res = await post('/sweeps', editor, powerSweep(editor.groupId, 'Too big', 64, base))
     expect(res.status).toBe(422)
     expect(res.body.error.code).toBe('over_limit')
-    expect(res.body.error.message).toMatch(/over the sweep limit of 2\.00e\+11/)
+    expect(res.body.error.message).toMatch(/over the sweep limit of 1\.00e\+12/)
     const { rows } = await pool.query(`select count(*)::int as n from sweeps where title = 'Too big'`)
     expect(rows[0].n).toBe(0)
     // The estimate endpoint gives the same numbers before submitting.
-    const est = await post('/sweeps/estimate', editor, { baseConfig: base, axes: powerSweep(editor.groupId, '', 32).axes })
+    const est = await post('/sweeps/estimate', editor, { baseConfig: base, axes: powerSweep(editor.groupId, '', 64).axes })
     expect(est.status).toBe(200)
     const parsed = SweepEstimateResponse.parse(est.body)
     expect(parsed.ok).toBe(false)
-    expect(parsed.estimate.cellUpdates).toBeGreaterThan(2e11)
-    expect(res.body.error.message).toContain(`needs ${parsed.estimate.cellUpdates.toPrecision(3)} cell-updates in total over 32 points`)
+    expect(parsed.estimate.cellUpdates).toBeGreaterThan(1e12)
+    expect(res.body.error.message).toContain(`needs ${parsed.estimate.cellUpdates.toPrecision(3)} cell-updates in total over 64 points`)
     expect(parsed.message).toBe(res.body.error.message)
   })
 

@@ -6,6 +6,8 @@ import { chooseGrid } from '@shared/physics/grid-step'
 import { checkLimits, DEFAULT_RESOURCE_LIMITS, estimateResources } from '@shared/physics/resource-estimate'
 import { SimulationConfig } from '@shared/physics/simulation-config'
 import { sensingStepBound } from '@shared/physics/sensing-grid-rules'
+import { gainScanPlan } from '@shared/physics/gain-scan'
+import { buildSweepPoints, checkSweepLimits } from '@shared/physics/sweep-points'
 import { fibre, TAU_NS, VG_M_PER_NS } from '../../benchmarks/sensing-fibre'
 
 /** PostgreSQL's largest field value, 1 GB (PostgreSQL documentation, "Appendix K. PostgreSQL Limits"). */
@@ -24,6 +26,16 @@ describe('automatic step of a long time-of-flight sensing fibre', () => {
     // Every stored array far below PostgreSQL's value limit: all traces together, and the maps, under 5 % of it.
     expect(e.memoryBytes.traces).toBeLessThan(0.05 * PG_MAX_VALUE_BYTES)
     expect(e.memoryBytes.maps).toBeLessThan(0.05 * PG_MAX_VALUE_BYTES)
+  })
+
+  it('accepts the one-click sensing scan of the 10 km fibre, error estimate on, as one sweep', () => {
+    const base = SimulationConfig.parse({ ...fibre(10_000, 8000), options: { errorEstimate: true } })
+    const plan = gainScanPlan(base.waveguide)
+    expect(plan.count).toBeGreaterThanOrEqual(41)
+    const built = buildSweepPoints({ baseConfig: base, axes: [plan.axis] })
+    if (!built.ok) throw new Error(JSON.stringify(built.issues))
+    expect(built.points).toHaveLength(plan.count)
+    expect(checkSweepLimits(built.points)).toEqual({ ok: true })
   })
 
   it('keeps the general rule (20 steps per pulse feature) on a fibre of fewer than 100 resolutions', () => {
