@@ -37,6 +37,13 @@ describe('validation messages in plain words', () => {
     expect(messages(z.object({ seed: z.array(z.number()).min(2) }), { seed: [1] })).toEqual(['Seed: must have at least 2 entries'])
   })
 
+  it('names a sweep axis and its values in words, not by their keys', () => {
+    expect(describeIssuePath(['axes', 0, 'values', 'count'], 1)).toBe('Sweep axis 1, number of values')
+    expect(describeIssuePath(['axes', 1, 'tiedLabels', 0], 1)).toBe('Sweep axis 2, tied label 1')
+    expect(describeIssuePath(['axes', 0, 'values'], 1)).toBe('Sweep axis 1, values')
+    expect(describeIssuePath(['baseConfig', 'channels', 0, 'pump', 'pulses', 1, 'fwhmNs'], 1)).toBe('Base configuration, pump pulse 2, width')
+  })
+
   it('keeps a message the schema states itself', () => {
     expect(messages(Waveguide, { name: '   ' }).find((m) => m.startsWith('Name'))).toBe('Name: must not be empty')
     expect(messages(z.object({ x: z.number().positive('must be above the floor') }), { x: -1 })).toEqual(['X: must be above the floor'])

@@ -63,6 +63,14 @@ const FIELD_NAMES: Record<string, string> = {
   title: 'title',
   notes: 'notes',
   noiseRms: 'detector noise',
+  // A sweep's axes (shared/api/sweeps.ts).
+  field: 'quantity',
+  pulseLabel: 'pulse label',
+  tiedLabels: 'tied labels',
+  values: 'values',
+  start: 'first value',
+  stop: 'last value',
+  count: 'number of values',
 }
 
 /** Lists of the waveguide and the channel whose entries are named by their number. */
@@ -70,6 +78,8 @@ const NUMBERED: Record<string, string> = {
   additionalResonances: 'further backward resonance',
   forwardResonances: 'forward resonance',
   forwardInputs: 'forward inputs of resonance',
+  axes: 'sweep axis',
+  tiedLabels: 'tied label',
 }
 const WAVE_NAMES: Record<string, string> = { pump: 'pump', stokes: 'Stokes', coProbe: 'co-propagating probe', antiStokes: 'anti-Stokes' }
 const own = (table: Record<string, string>, key: string): string | undefined => (Object.hasOwn(table, key) ? table[key] : undefined)
@@ -105,6 +115,11 @@ export function describeIssuePath(path: readonly PropertyKey[], channelCount: nu
       i++
     } else if (k === 'options' || k === 'grid' || k === 'noise' || k === 'anchor' || k === 'cascade' || k === 'config') {
       continue
+    } else if (k === 'values' && path[i - 2] === 'axes' && i + 1 < path.length) {
+      // axes.0.values.count → "Sweep axis 1, number of values": the inner key says enough.
+      continue
+    } else if (k === 'baseConfig') {
+      parts.push('base configuration')
     } else {
       parts.push(own(FIELD_NAMES, String(k)) ?? String(k))
     }
