@@ -92,7 +92,9 @@ describe('correlation sensing scan', () => {
     await screenshot(page, 'correlation-scan-form-1440')
   }, 90_000)
 
-  it('shows the correlation map, the peak spacing and the detected hot spot', async () => {
+  it('shows the correlation map, the peak spacing and the detected hot spot, and the figures of merit over both axes', async () => {
+    const errors: string[] = []
+    page.on('pageerror', (e) => errors.push(e.message))
     await page.setViewportSize({ width: 1440, height: 1100 })
     await page.goto(`/sweeps/${sweepId}`)
     const view = page.getByTestId('sensing-map')
@@ -104,6 +106,8 @@ describe('correlation sensing scan', () => {
     expect(text).toContain('12.8 m')
     expect(await view.getByTestId('correlation-several-peaks').count()).toBe(0)
     expect(await view.locator('a[href*="format=csv"]').count()).toBe(1)
+    await page.getByRole('img', { name: 'Heatmap of a figure of merit over both axes' }).waitFor({ timeout: 30_000 })
+    expect(errors).toEqual([])
     await view.scrollIntoViewIfNeeded()
     await page.waitForTimeout(500)
     await screenshot(page, 'correlation-map-1440')
