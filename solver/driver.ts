@@ -23,6 +23,7 @@ import { ThreadedSveaEngine } from './engine/threaded-engine'
 import { resolveThreads, type ThreadChoice } from './engine/thread-choice'
 import type { CoreLease } from './engine/core-lease'
 import type { KernelPath } from '@shared/physics/kernel-class'
+import { fastestDecayNepers, flushInterval, flushTiny, flushValue } from './steppers/subnormal-flush'
 
 /** Hard solver-side limits (the resource estimate refuses earlier, with advice). */
 export const SOLVER_LIMITS = {
@@ -65,11 +66,14 @@ export class SimulationRun {
   private reference: SimulationRun | null = null
   /** A companion keeps no maps: only its port traces are read. */
   private recordMaps = true
+  /** Steps between flushes of amplitudes below 1e-150 to zero (steppers/subnormal-flush.ts); 0: never (testing aid). */
+  readonly flushEvery: number
+  private readonly flushArrays: Float64Array[]
 
   constructor(
     readonly config: SimulationConfig,
     readonly grid: GridChoice,
-    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice; threads?: ThreadChoice; coreLease?: CoreLease } = {},
+    options: { forceGeneralKernel?: boolean; normalSource?: NormalSource; engine?: EngineChoice; threads?: ThreadChoice; coreLease?: CoreLease; subnormalFlush?: boolean } = {},
   ) {
     const m = (this.model = buildModel(config, grid))
     this.forceGeneral = options.forceGeneralKernel ?? false
@@ -83,6 +87,9 @@ export class SimulationRun {
     this.maps = new MapRecorder(mapLayout(m.nt, m.nodes, config.grid.mapRows, config.grid.mapCols), m, config.grid.mapReduction === 'max')
     this.wasm = engine === 'ts' ? null : this.threads > 1 ? this.threadedEngine(m) : new WasmSveaEngine(m)
     this.state = this.wasm?.state ?? allocateState(m)
+    this.flushEvery = options.subnormalFlush === false ? 0 : flushInterval(fastestDecayNepers(this.decayFactors()))
+    const st = this.state
+    this.flushArrays = [st.uRe, st.uIm, st.vRe, st.vIm, st.bRe, st.bIm, st.wRe, st.wIm]
     this.traces = config.channels.map((ch) => ({
       pumpIn: sampleInput(ch.pump, m.nt, m.dtS),
       stokesIn: sampleInput(ch.stokes, m.nt, m.dtS),
@@ -168,7 +175,7 @@ export class SimulationRun {
   /** A companion run with other inputs, continuing from this run's present state. */
   private fork(config: SimulationConfig): SimulationRun {
     // One thread: the run itself already has the helper a run may use.
-    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral, engine: this.engineChoice, threads: 1 })
+    const c = new SimulationRun(config, this.grid, { forceGeneralKernel: this.forceGeneral, engine: this.engineChoice, threads: 1, subnormalFlush: this.flushEvery > 0 })
     c.referencePlan = null
     c.recordMaps = false
     for (const key of ['uRe', 'uIm', 'vRe', 'vIm', 'bRe', 'bIm', 'wRe', 'wIm'] as const) c.state[key].set(this.state[key])
@@ -233,12 +240,26 @@ export class SimulationRun {
           this.transport()
           this.inject(n + 1)
         }
+        // At a step boundary; the threaded engine first does its pending transport, with its helpers then idle.
+        if (this.flushEvery > 0 && (n + 1) % this.flushEvery === 0) {
+          if (this.wasm instanceof ThreadedSveaEngine) this.wasm.settle()
+          flushTiny(this.flushArrays)
+        }
       }
     }
     // Whoever reads the state between advance() calls (a fork, the final figures) sees the transported fields.
     if (this.wasm instanceof ThreadedSveaEngine) this.wasm.settle()
     this.n = Math.max(this.n, end)
     if (this.done) this.close()
+  }
+
+  /** Per-step amplitude factors of free decay: acoustic |E| (per node with a profile), optical loss per cell, upwind advection's 1 − C. */
+  private decayFactors(): number[] {
+    const m = this.model
+    const f = [Math.hypot(m.svea.eRe, m.svea.eIm), m.lossPerCell, 1 - m.advectionCourant]
+    const p = this.profile
+    if (p) for (let j = 0; j < p.eRe.length; j++) f.push(Math.hypot(p.eRe[j], p.eIm[j]), j > 0 ? p.lossCell[j] : 1)
+    return f
   }
 
   /** True if every value written so far is finite (a guard: never hand out a NaN result). */
@@ -292,19 +313,22 @@ export class SimulationRun {
     const m = this.model
     const t = this.traces[0]
     const engine = this.wasm as ThreadedSveaEngine
-    engine.transportLater(t.pumpIn[2 * n] / m.sqrtKappaP, t.pumpIn[2 * n + 1] / m.sqrtKappaP, t.stokesIn[2 * n] / m.sqrtKappa, t.stokesIn[2 * n + 1] / m.sqrtKappa)
+    const f = this.flushEvery > 0 ? flushValue : (x: number) => x
+    engine.transportLater(f(t.pumpIn[2 * n] / m.sqrtKappaP), f(t.pumpIn[2 * n + 1] / m.sqrtKappaP), f(t.stokesIn[2 * n] / m.sqrtKappa), f(t.stokesIn[2 * n + 1] / m.sqrtKappa))
   }
 
   private inject(n: number): void {
     const m = this.model
     const s = this.state
+    // A sampled pulse's far tail can be subnormal: the boundary inputs take the flush rule every step.
+    const f = this.flushEvery > 0 ? flushValue : (x: number) => x
     for (let k = 0; k < m.nCh; k++) {
       const base = k * m.nodes
       const t = this.traces[k]
-      s.uRe[base] = t.pumpIn[2 * n] / m.sqrtKappaP
-      s.uIm[base] = t.pumpIn[2 * n + 1] / m.sqrtKappaP
-      s.vRe[base + m.nz] = t.stokesIn[2 * n] / m.sqrtKappa
-      s.vIm[base + m.nz] = t.stokesIn[2 * n + 1] / m.sqrtKappa
+      s.uRe[base] = f(t.pumpIn[2 * n] / m.sqrtKappaP)
+      s.uIm[base] = f(t.pumpIn[2 * n + 1] / m.sqrtKappaP)
+      s.vRe[base + m.nz] = f(t.stokesIn[2 * n] / m.sqrtKappa)
+      s.vIm[base + m.nz] = f(t.stokesIn[2 * n + 1] / m.sqrtKappa)
     }
   }
 

@@ -14,6 +14,7 @@ import type { FieldState } from '../steppers/interaction-kernel'
 import { noiseWeight } from '../steppers/general-kernel'
 import type { SeededRandom } from '../steppers/seeded-random'
 import { ZigguratNormal } from '../steppers/ziggurat-normal'
+import { fastestDecayNepers, flushInterval, flushTiny, flushValue } from '../steppers/subnormal-flush'
 import { allocateNetworkState, interactNetwork, type NetworkState } from './network-kernel'
 import { buildNetworkModel, type NetworkModel } from './network-model'
 import { pairResidualNote, waveFigures } from './wave-figures-observer'
@@ -48,14 +49,22 @@ export class NetworkRun {
   private readonly rng: SeededRandom | null
   /** What the maps read: pump, first Stokes and the phonon density of all fields together. */
   private readonly mapView: FieldState
+  /** Steps between flushes of amplitudes below 1e-150 to zero (steppers/subnormal-flush.ts); 0: never (testing aid). */
+  readonly flushEvery: number
+  private readonly flushArrays: Float64Array[]
 
   constructor(
     readonly config: SimulationConfig,
     readonly grid: GridChoice,
+    options: { subnormalFlush?: boolean } = {},
   ) {
     this.model = buildModel(config, grid)
     const m = (this.net = buildNetworkModel(config, grid))
     this.wave = allocateNetworkState(m)
+    // Free decay per step: every acoustic field's |E| and the optical loss per cell.
+    const decay = fastestDecayNepers([m.lossPerCell, ...m.fields.map((f) => Math.hypot(f.svea.eRe, f.svea.eIm))])
+    this.flushEvery = options.subnormalFlush === false ? 0 : flushInterval(decay)
+    this.flushArrays = [...this.wave.aRe, ...this.wave.aIm, ...this.wave.bRe, ...this.wave.bIm]
     this.waveIn = m.set.waves.map((w) => sampleInput(w.input, m.nt, m.dtS))
     this.waveOut = m.set.waves.map(() => new Float64Array(2 * (m.nt + 1)))
     this.traces = [{ pumpIn: this.waveIn[0], stokesIn: this.waveIn[1], pumpOut: this.waveOut[0], stokesOut: this.waveOut[1] }]
@@ -110,7 +119,7 @@ export class NetworkRun {
 
   /** A companion run with other inputs, continuing from this run's present state. */
   private fork(config: SimulationConfig): NetworkRun {
-    const c = new NetworkRun(config, this.grid)
+    const c = new NetworkRun(config, this.grid, { subnormalFlush: this.flushEvery > 0 })
     c.referencePlan = null
     c.keepMaps = false
     const copy = (from: Float64Array[], to: Float64Array[]) => from.forEach((a, k) => to[k].set(a))
@@ -143,6 +152,7 @@ export class NetworkRun {
       if (n < m.nt) {
         this.transport()
         this.inject(n + 1)
+        if (this.flushEvery > 0 && (n + 1) % this.flushEvery === 0) flushTiny(this.flushArrays)
       }
     }
     this.n = Math.max(this.n, end)
@@ -198,8 +208,11 @@ export class NetworkRun {
     const m = this.net
     m.waves.forEach((w, k) => {
       const j = w.direction === 1 ? 0 : m.nz
-      this.wave.aRe[k][j] = this.waveIn[k][2 * n] / w.sqrtPowerPerFlux
-      this.wave.aIm[k][j] = this.waveIn[k][2 * n + 1] / w.sqrtPowerPerFlux
+      // A sampled pulse's far tail can be subnormal: the boundary inputs take the flush rule every step.
+      const re = this.waveIn[k][2 * n] / w.sqrtPowerPerFlux
+      const im = this.waveIn[k][2 * n + 1] / w.sqrtPowerPerFlux
+      this.wave.aRe[k][j] = this.flushEvery > 0 ? flushValue(re) : re
+      this.wave.aIm[k][j] = this.flushEvery > 0 ? flushValue(im) : im
     })
   }
 
