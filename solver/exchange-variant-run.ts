@@ -10,6 +10,7 @@ import { SimulationRun } from './driver'
 import { computeFigures } from './observers/figures-of-merit'
 import { planStorageReference } from './storage-reference'
 import { fastPathApplies } from './steppers/interaction-kernel'
+import { flushTiny, flushValue } from './steppers/subnormal-flush'
 import { interactSveaVariant, meanCoefficients, type MeanCoefficients, type StepVariant } from './steppers/exchange-variants'
 
 export interface VariantResult {
@@ -77,8 +78,10 @@ function step(run: SimulationRun, n: number, variant: StepVariant, mean: MeanCoe
     for (let j = 1; j <= nz; j++) (s.uRe[j] *= loss), (s.uIm[j] *= loss)
     for (let j = 0; j < nz; j++) (s.vRe[j] *= loss), (s.vIm[j] *= loss)
   }
-  s.uRe[0] = t.pumpIn[2 * (n + 1)] / m.sqrtKappaP
-  s.uIm[0] = t.pumpIn[2 * (n + 1) + 1] / m.sqrtKappaP
-  s.vRe[nz] = t.stokesIn[2 * (n + 1)] / m.sqrtKappa
-  s.vIm[nz] = t.stokesIn[2 * (n + 1) + 1] / m.sqrtKappa
+  // The driver's flush of amplitudes below 1e-150 (steppers/subnormal-flush.ts): inputs every step, the state every flushEvery steps.
+  s.uRe[0] = flushValue(t.pumpIn[2 * (n + 1)] / m.sqrtKappaP)
+  s.uIm[0] = flushValue(t.pumpIn[2 * (n + 1) + 1] / m.sqrtKappaP)
+  s.vRe[nz] = flushValue(t.stokesIn[2 * (n + 1)] / m.sqrtKappa)
+  s.vIm[nz] = flushValue(t.stokesIn[2 * (n + 1) + 1] / m.sqrtKappa)
+  if ((n + 1) % run.flushEvery === 0) flushTiny([s.uRe, s.uIm, s.vRe, s.vIm, s.bRe, s.bIm])
 }
