@@ -17,13 +17,13 @@ const quick = process.argv.includes('--quick')
 const TARGET = 1e-5
 
 const VARIANTS: [string, StepVariant][] = [
-  ['cayley (today)', { exchange: 'cayley', average: 'trapezoid' }],
+  ['trapezoid + lin. (today)', { exchange: 'cayley', average: 'trapezoid-linearised' }],
+  ['cayley, trapezoid (before)', { exchange: 'cayley', average: 'trapezoid' }],
   ['exact rotation', { exchange: 'exact', average: 'trapezoid' }],
   ['cayley + linear-source b̄', { exchange: 'cayley', average: 'linear-source' }],
   ['exact + linear-source b̄', { exchange: 'exact', average: 'linear-source' }],
   ['cayley + linearised b̄', { exchange: 'cayley', average: 'linearised-source' }],
   ['cayley + held-source b̄', { exchange: 'cayley', average: 'constant-source' }],
-  ['cayley + trapezoid-lin. b̄', { exchange: 'cayley', average: 'trapezoid-linearised' }],
 ]
 
 interface Case {

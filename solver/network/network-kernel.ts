@@ -10,7 +10,13 @@
  * (backward and forward Brillouin scattering: Agrawal, Nonlinear Fiber Optics, ch. 9; forward scattering and
  * Stokes cascades: Kobyakov, Sauer & Chowdhury 2010, Adv. Opt. Photon. 2, 1). Scaled amplitudes and θ:
  * network-model.ts. Same contract as steppers/interaction-kernel.ts:
- *  1. Predictor for every field from the entry waves: b̃ = E(b + Δt·D₀), E = e^{−(Γ/2 − iΔ)Δt}; b̄ = (b + b̃)/2.
+ *  1. Predictor for every field from the entry waves: b̃ = E(b + Δt·D₀), E = e^{−(Γ/2 − iΔ)Δt}; b̂ = (b + b̃)/2.
+ *     Step-mean (steppers/step-mean.ts): b̄ = b̂ + Δt·φ₃(z)·(D₁ − D₀), z = −(Γ/2 − iΔ)Δt, the trapezoid mean plus
+ *     the source's change over the step, where D₁ − D₀ is the change of the sources under one step's exchanges
+ *     to first order, taken with b̂: every process p turns its pair by
+ *     δa_h = iβ_p a_l, δa_l = iβ_p* a_h (β_p = c_p·w·b̂·e^{iθ}, its whole weight over the step), and
+ *     D₁ − D₀ = Σ_p iK_p (δa_h a_l* + a_h δa_l*) e^{−iθ}  (one process: K·c·w·b̂·(|a_h|² − |a_l|²), the plain
+ *     kernel's). Kerr's change of the sources is left out, as in the plain kernel.
  *  2. Optical exchange with every b̄ frozen: exact-unitary Cayley 2×2 rotations, processes 1 … P−1 at half
  *     weight, P at full weight, then P−1 … 1 at half weight (Strang symmetric, so second order; one process is
  *     one rotation, the plain kernel's). Each rotation keeps |a_h|² + |a_l|²: total photon flux is kept to
@@ -19,12 +25,14 @@
  *     γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7), in Cayley form.
  *  3. Corrector from the exchanged waves: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  *  Thermal noise (when on), per field as the plain kernel (steppers/general-kernel.ts): the exact
- *  Ornstein–Uhlenbeck kick x enters b̃ and the corrected b, and an independent draw gives b̄ its full variance;
+ *  Ornstein–Uhlenbeck kick x enters b̃ and the corrected b, and an independent draw gives b̄ its full variance
+ *  (b̂, and so b̄, carries x/2 and that draw);
  *  facet nodes get twice the variance (half cells). Draws in field order, then node order.
  *  Node weight: 1 inside, ½ at the two facets (trapezoid along every characteristic).
  */
 import type { NormalSource } from '../steppers/seeded-random'
 import { noiseWeight } from '../steppers/general-kernel'
+import { sveaStepMean } from '../steppers/step-mean'
 import type { NetworkModel } from './network-model'
 
 export interface NetworkState {
@@ -42,12 +50,21 @@ export interface NetworkState {
   /** Per field and node: the step's noise kick (empty with noise off). */
   xRe: Float64Array[]
   xIm: Float64Array[]
+  /** Per wave and node: its change under one step's exchanges, to first order; per field: D₁ − D₀ from it. */
+  daRe: Float64Array[]
+  daIm: Float64Array[]
+  eRe: Float64Array[]
+  eIm: Float64Array[]
 }
 
 export function allocateNetworkState(m: NetworkModel): NetworkState {
   const arrays = (n: number) => Array.from({ length: n }, () => new Float64Array(m.nodes))
   const W = m.waves.length, F = m.fields.length
-  return { aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F), total: new Float64Array(m.nodes), xRe: m.noise ? arrays(F) : [], xIm: m.noise ? arrays(F) : [] }
+  return {
+    aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F), total: new Float64Array(m.nodes),
+    xRe: m.noise ? arrays(F) : [], xIm: m.noise ? arrays(F) : [],
+    daRe: arrays(W), daIm: arrays(W), eRe: arrays(F), eIm: arrays(F),
+  }
 }
 
 /** Sets (outRe, outIm) of every field to Σ_processes i·K·a_h a_l*·e^{−iθ} over nodes j0..j1. */
@@ -121,6 +138,69 @@ function kerrHalfStep(m: NetworkModel, s: NetworkState, j0: number, j1: number, 
   })
 }
 
+/**
+ * The step-mean b̄ of every field (contract, 1), written over the trapezoid mean b̂ in (mRe, mIm): the waves'
+ * first-order changes under every process's exchange with b̂, the sources' change D₁ − D₀ from them, then b̄.
+ */
+function stepMean(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
+  for (let k = 0; k < m.waves.length; k++) s.daRe[k].fill(0, j0, j1 + 1), s.daIm[k].fill(0, j0, j1 + 1)
+  for (let f = 0; f < m.fields.length; f++) s.eRe[f].fill(0, j0, j1 + 1), s.eIm[f].fill(0, j0, j1 + 1)
+  // δa_h += iβ a_l, δa_l += iβ* a_h, β = c·w·b̂·e^{iθ}.
+  for (const p of m.processes) {
+    const hRe = s.aRe[p.higher], hIm = s.aIm[p.higher], lRe = s.aRe[p.lower], lIm = s.aIm[p.lower]
+    const dhRe = s.daRe[p.higher], dhIm = s.daIm[p.higher], dlRe = s.daRe[p.lower], dlIm = s.daIm[p.lower]
+    const mRe = s.mRe[p.field], mIm = s.mIm[p.field]
+    const cRe = p.phaseRe, cIm = p.phaseIm
+    const c = weight * p.c
+    for (let j = j0; j <= j1; j++) {
+      let betaR = c * mRe[j]
+      let betaI = c * mIm[j]
+      if (cRe !== null) {
+        const cr = cRe[j], ci = cIm![j]
+        const r = betaR * cr - betaI * ci
+        betaI = betaR * ci + betaI * cr
+        betaR = r
+      }
+      const hr = hRe[j], hi = hIm[j], lr = lRe[j], li = lIm[j]
+      dhRe[j] -= betaR * li + betaI * lr
+      dhIm[j] += betaR * lr - betaI * li
+      dlRe[j] -= betaR * hi - betaI * hr
+      dlIm[j] += betaR * hr + betaI * hi
+    }
+  }
+  // D₁ − D₀ = Σ_p iK (δa_h a_l* + a_h δa_l*) e^{−iθ}.
+  for (const p of m.processes) {
+    const hRe = s.aRe[p.higher], hIm = s.aIm[p.higher], lRe = s.aRe[p.lower], lIm = s.aIm[p.lower]
+    const dhRe = s.daRe[p.higher], dhIm = s.daIm[p.higher], dlRe = s.daRe[p.lower], dlIm = s.daIm[p.lower]
+    const er = s.eRe[p.field], ei = s.eIm[p.field]
+    const K = p.K
+    const cRe = p.phaseRe, cIm = p.phaseIm
+    for (let j = j0; j <= j1; j++) {
+      const hr = hRe[j], hi = hIm[j], lr = lRe[j], li = lIm[j], dhr = dhRe[j], dhi = dhIm[j], dlr = dlRe[j], dli = dlIm[j]
+      let yr = dhr * lr + dhi * li + hr * dlr + hi * dli
+      let yi = dhi * lr - dhr * li + hi * dlr - hr * dli
+      if (cRe !== null) {
+        const cr = cRe[j], ci = cIm![j]
+        const t = yr * cr + yi * ci
+        yi = yi * cr - yr * ci
+        yr = t
+      }
+      er[j] -= K * yi
+      ei[j] += K * yr
+    }
+  }
+  for (let f = 0; f < m.fields.length; f++) {
+    const { eRe: Er, eIm: Ei } = m.fields[f].svea
+    const { m2r, m2i } = sveaStepMean(Er, Ei, m.dtS)
+    const mRe = s.mRe[f], mIm = s.mIm[f], eRe = s.eRe[f], eIm = s.eIm[f]
+    for (let j = j0; j <= j1; j++) {
+      const er = eRe[j], ei = eIm[j]
+      mRe[j] = mRe[j] + (m2r * er - m2i * ei)
+      mIm[j] = mIm[j] + (m2r * ei + m2i * er)
+    }
+  }
+}
+
 /** One interaction step at nodes j0..j1 of equal weight (array-wise per field and process: tight loops). */
 export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number, rng: NormalSource | null = null): void {
   const F = m.fields.length
@@ -152,6 +232,7 @@ export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1
       }
     }
   }
+  stepMean(m, s, j0, j1, weight)
   if (m.kerr) kerrHalfStep(m, s, j0, j1, weight)
   for (let k = 0; k < 2 * P - 1; k++) {
     const pi = k < P ? k : 2 * P - 2 - k

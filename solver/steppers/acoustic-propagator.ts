@@ -9,6 +9,8 @@
  *        interpolated source (Cox & Matthews 2002): y₁ = e^{Mh} y₀ + P₀ g₀ + P₁ (g₁ − g₀) with
  *        P₀ = ∫₀ʰ e^{M(h−s)} ds, P₁ = (1/h)∫₀ʰ e^{M(h−s)} s ds, from Sylvester's formula on the two
  *        eigenvalues λ± = −Γ_B/2 + i(Ω ± √(Ω_B² − Γ_B²/4)) (the slow one is −Γ_B/2 + iΔ, the fast one ≈ 2iΩ).
+ *        Step-mean of b with the source linear over the step: the first row of
+ *        (1/h)∫₀ʰ y dt = φ₁(Mh) y₀ + h φ₂(Mh) g₀ + h φ₃(Mh)(g₁ − g₀)   (steppers/step-mean.ts).
  */
 
 export interface SveaPropagator {
@@ -69,6 +71,37 @@ export interface HigherOrderPropagator {
   p1w: C
   /** g = sourceFactor·S. */
   sourceFactor: C
+  /**
+   * Step-mean of b (steppers/step-mean.ts, the same φ-functions of the 2×2 generator): b̄ = meanB·b + meanW·∂t b +
+   * meanG0·g₀ + meanG1·(g₁ − g₀), the first row of φ₁(MΔt) and the (b, ∂t b) entries of Δt·φ₂(MΔt), Δt·φ₃(MΔt).
+   */
+  meanB: C
+  meanW: C
+  meanG0: C
+  meanG1: C
+}
+
+/** φ_k(z) = Σ zⁿ/(n + k)!: the series (20 terms) for |z| < ½, else φ_k = (φ_{k−1} − 1/(k−1)!)/z from φ₀ = e^z. */
+function phiK(z: C, k: number): C {
+  if (Math.hypot(z[0], z[1]) < 0.5) {
+    let acc: C = [0, 0]
+    let pw: C = [1, 0]
+    let fact = 1
+    for (let i = 2; i <= k; i++) fact *= i
+    for (let n = 0; n < 20; n++) {
+      acc = cadd(acc, cscale(pw, 1 / fact))
+      pw = cmul(pw, z)
+      fact *= n + k + 1
+    }
+    return acc
+  }
+  let p = cexp(z)
+  let fact = 1
+  for (let i = 1; i <= k; i++) {
+    p = cdiv(csub(p, [1 / fact, 0]), z)
+    fact *= i
+  }
+  return p
 }
 
 export function higherOrderPropagator(gammaB: number, omegaB: number, omega: number, h: number): HigherOrderPropagator {
@@ -105,6 +138,10 @@ export function higherOrderPropagator(gammaB: number, omegaB: number, omega: num
     p1b: P1.m01,
     p1w: P1.m11,
     sourceFactor: [0, -2 * omega],
+    meanB: fm(phiK(z1, 1), phiK(z2, 1)).m00,
+    meanW: fm(phiK(z1, 1), phiK(z2, 1)).m01,
+    meanG0: fm(cscale(phiK(z1, 2), h), cscale(phiK(z2, 2), h)).m01,
+    meanG1: fm(cscale(phiK(z1, 3), h), cscale(phiK(z2, 3), h)).m01,
   }
 }
 

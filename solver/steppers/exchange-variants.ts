@@ -1,7 +1,9 @@
 /*
- * Research variants of the local step of the one-channel SVEA case (contract at the top of
- * interaction-kernel.ts), to measure where the error constant of the step comes from. Not used by the
- * driver: only the error-constant benchmark and its tests select them (exchange-variant-run.ts).
+ * Variants of the local step of the one-channel SVEA case (contract at the top of interaction-kernel.ts), to
+ * measure where the error constant of the step comes from. The driver runs one of them, the Cayley exchange with
+ * the trapezoid mean plus the linearised source's change ('trapezoid-linearised' = interactSvea, DEFAULT_VARIANT);
+ * the others, the plain trapezoid mean that was the step before it included, are run only by the error-constant
+ * benchmark and its tests (exchange-variant-run.ts).
  *
  * The optical exchange at a node with the acoustic field frozen at b̄ over the step is the linear system
  *     d(u, v)/ds = G (u, v),  G = [[0, iβ], [iβ*, 0]],  s ∈ [0, 1],  β = c·b̄ (c = √(κκp)·vg·Δt·weight).
@@ -43,8 +45,11 @@ export interface StepVariant {
   average: SourceAverage
 }
 
-/** Today's step: the variant every user gets. */
-export const DEFAULT_VARIANT: StepVariant = { exchange: 'cayley', average: 'trapezoid' }
+/** The driver's step: the variant every user gets (interactSvea). */
+export const DEFAULT_VARIANT: StepVariant = { exchange: 'cayley', average: 'trapezoid-linearised' }
+
+/** The step before the source's change was added to the mean, kept for side-by-side measurements. */
+export const TRAPEZOID_VARIANT: StepVariant = { exchange: 'cayley', average: 'trapezoid' }
 
 /** Coefficients of the 'linear-source' mean: φ₁(z), Δt·φ₂(z), Δt·φ₃(z) as [re, im], z = −λΔt = (−Γ_B/2 + iΔ)Δt. */
 export interface MeanCoefficients {
@@ -113,7 +118,8 @@ function rotationCos(x2: number, exact: boolean): number {
 
 /**
  * The one-channel SVEA step at nodes j0..j1 with exchange constant cHalf = c/2 (c = exchangePerB·weight), in
- * the chosen variant. The default variant runs interactSvea itself, so its numbers are today's bit for bit.
+ * the chosen variant. The default variant runs interactSvea itself, so its numbers are the driver's bit for bit;
+ * the Cayley trapezoid variant runs the previous step as it was written (interactSveaTrapezoid).
  */
 export function interactSveaVariant(
   f: { uRe: Float64Array; uIm: Float64Array; vRe: Float64Array; vIm: Float64Array; bRe: Float64Array; bIm: Float64Array },
@@ -128,7 +134,8 @@ export function interactSveaVariant(
   mean: MeanCoefficients | null,
 ): void {
   const { uRe, uIm, vRe, vIm, bRe, bIm } = f
-  if (variant.exchange === 'cayley' && variant.average === 'trapezoid') return interactSvea(uRe, uIm, vRe, vIm, bRe, bIm, j0, j1, K, cHalf, Er, Ei, h)
+  if (variant.exchange === 'cayley' && variant.average === 'trapezoid') return interactSveaTrapezoid(f, j0, j1, K, cHalf, Er, Ei, h)
+  if (variant.exchange === 'cayley' && variant.average === 'trapezoid-linearised') return interactSvea(uRe, uIm, vRe, vIm, bRe, bIm, j0, j1, K, cHalf, Er, Ei, h)
   if (variant.exchange === 'cayley' && variant.average === 'linearised-source') return interactSveaLinearised(f, j0, j1, K, cHalf, Er, Ei, h, mean!)
   const exact = variant.exchange === 'exact'
   const linear = variant.average === 'linear-source'
@@ -230,6 +237,48 @@ function interactSveaLinearised(
     const er = g * b1r, ei = g * b1i
     const betaR = m0r * br - m0i * bi + m1r * d0r - m1i * d0i + m2r * er - m2i * ei
     const betaI = m0r * bi + m0i * br + m1r * d0i + m1i * d0r + m2r * ei + m2i * er
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + q)
+    const a = 1 - q
+    const nur = (a * ur - betaR * vi - betaI * vr) * den
+    const nui = (a * ui + betaR * vr - betaI * vi) * den
+    const nvr = (a * vr - betaR * ui + betaI * ur) * den
+    const nvi = (a * vi + betaR * ur + betaI * ui) * den
+    uRe[j] = nur
+    uIm[j] = nui
+    vRe[j] = nvr
+    vIm[j] = nvi
+    const sr = br + hh * d0r
+    const si = bi + hh * d0i
+    bRe[j] = Er * sr - Ei * si - hh * K * (nui * nvr - nur * nvi)
+    bIm[j] = Er * si + Ei * sr + hh * K * (nur * nvr + nui * nvi)
+  }
+}
+
+/**
+ * The previous one-channel step, Cayley exchange with the trapezoid mean b̄ = (b + b̃)/2, written flat as it stood
+ * in interactSvea (the same operations in the same order), so that its cost per node-step is measured alike.
+ */
+function interactSveaTrapezoid(
+  f: { uRe: Float64Array; uIm: Float64Array; vRe: Float64Array; vIm: Float64Array; bRe: Float64Array; bIm: Float64Array },
+  j0: number,
+  j1: number,
+  K: number,
+  cHalf: number,
+  Er: number,
+  Ei: number,
+  h: number,
+): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm } = f
+  const hh = 0.5 * h
+  for (let j = j0; j <= j1; j++) {
+    const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j]
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const tr = br + h * d0r
+    const ti = bi + h * d0i
+    const betaR = cHalf * (br + Er * tr - Ei * ti)
+    const betaI = cHalf * (bi + Er * ti + Ei * tr)
     const q = 0.25 * (betaR * betaR + betaI * betaI)
     const den = 1 / (1 + q)
     const a = 1 - q

@@ -9,14 +9,15 @@
 import type { Model } from '../problem/coupled-modes'
 import type { NormalSource } from './seeded-random'
 import type { FieldState } from './interaction-kernel'
+import { sveaStepMean } from './step-mean'
 
 /*
  * General path, as the named steps of the contract above, over a block of up to SCRATCH_NODES nodes at a time
  * (each node's step involves only that node, so running every step over the block before the next step gives
  * the same numbers as running the node through all steps; one call per step and block keeps the per-node cost
  * of the calls away). Scratch per node and channel (SCRATCH_PER_CHANNEL numbers at
- * o = SCRATCH_PER_CHANNEL·(k·SCRATCH_NODES + node in block)): [o, o+1] b̃ then b̄, [o+2, o+3] D₀, [o+4, o+5] B
- * seen by this channel's optics, [o+6, o+7] the step's noise draw, [o+8, o+9] the extra draw that restores
+ * o = SCRATCH_PER_CHANNEL·(k·SCRATCH_NODES + node in block)): [o, o+1] b̃, then b̂, then b̄, [o+2, o+3] D₀, [o+4, o+5] B
+ * seen by this channel's optics (from b̂, then from b̄), [o+6, o+7] the step's noise draw, [o+8, o+9] the extra draw that restores
  * the variance of b̄ (SVEA noise). The noise step draws node by node and channel by channel, the order of the
  * one-function kernel before the split, and every sum keeps its rounding: the results are the same bit for
  * bit (tests/solver/kernel-bits.test.ts).
@@ -38,8 +39,10 @@ export function interactGeneral(m: Model, s: FieldState, j0: number, j1: number,
     predictAcoustic(m, s, a, b)
     if (rng !== null) drawThermalNoise(m, s, a, b, weight, rng)
     averageAcoustic(m, s, a, b, rng !== null && m.higherOrder === null)
-    if (kerr) kerrHalfStep(m, s, a, b, weight)
     fieldSeenByOptics(m, s, a, b)
+    stepMean(m, s, a, b, weight)
+    fieldSeenByOptics(m, s, a, b)
+    if (kerr) kerrHalfStep(m, s, a, b, weight)
     exchangeOptics(m, s, a, b, weight)
     if (kerr) kerrHalfStep(m, s, a, b, weight)
     if (m.higherOrder === null) correctSvea(m, s, a, b, rng !== null)
@@ -115,7 +118,7 @@ function drawThermalNoise(m: Model, s: FieldState, j0: number, j1: number, weigh
   }
 }
 
-/** b̄ = (b + b̃)/2, the acoustic field the light sees over the step, plus the mean's own draw with SVEA noise. */
+/** b̂ = (b + b̃)/2, the trapezoid mean (stepMean's estimate of D₁ − D₀ uses it), plus the mean's own draw with SVEA noise. */
 function averageAcoustic(m: Model, s: FieldState, j0: number, j1: number, meanDraw: boolean): void {
   const nCh = m.nCh
   const nodes = m.nodes
@@ -128,6 +131,39 @@ function averageAcoustic(m: Model, s: FieldState, j0: number, j1: number, meanDr
     if (meanDraw) {
       scratch[o] += scratch[o + 8]
       scratch[o + 1] += scratch[o + 9]
+    }
+  }
+}
+
+/**
+ * Step 2, the step-mean b̄ the light sees (contract, step 2; steppers/step-mean.ts): b̂ plus the source's change over
+ * the step, Δt·φ₃·(D₁ − D₀) (SVEA; higher order the (b, ∂t b) entry of Δt·φ₃(AΔt) on (0, f)·(D₁ − D₀)), with
+ * D₁ − D₀ = K·c·B̂·(|u|² − |v|²) from the trapezoid field B̂ this channel's optics see; b̂ carries the noise.
+ */
+function stepMean(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
+  const { uRe, uIm, vRe, vIm, scratch } = s
+  const c = m.exchangePerB * weight
+  const kc = m.driveK * c
+  const ho = m.higherOrder
+  const { m2r, m2i } = sveaStepMean(m.svea.eRe, m.svea.eIm, m.dtS)
+  for (let j = j0; j <= j1; j++) for (let k = 0; k < nCh; k++) {
+    const i = k * nodes + j
+    const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
+    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
+    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * scratch[o + 4]
+    const ei = g * scratch[o + 5]
+    if (ho === null) {
+      scratch[o] = scratch[o] + (m2r * er - m2i * ei)
+      scratch[o + 1] = scratch[o + 1] + (m2r * ei + m2i * er)
+    } else {
+      const f = ho.sourceFactor[1]
+      const ger = -f * ei, gei = f * er
+      const [q1r, q1i] = ho.meanG1
+      scratch[o] = scratch[o] + (q1r * ger - q1i * gei)
+      scratch[o + 1] = scratch[o + 1] + (q1r * gei + q1i * ger)
     }
   }
 }

@@ -5,7 +5,9 @@
  * general kernel's rounding order and draws, so the results are the same bits. y = (b, w = ∂t b); the ETD
  * step of y' = A y + g with the 2×2 propagator E = e^{AΔt} and its φ-function weights P₀, P₁ (coupled-modes.ts):
  *   D = iK·u·v*,  g = (0, f)·D = (−f·Im D, f·Re D),  f = −2Ω
- *   predictor  b̃ = E₀₀b + E₀₁w + P₀,b·g₀ (+ P₀,b·(0, f)·F with noise),  b̄ = ½(b + b̃)
+ *   predictor  b̃ = E₀₀b + E₀₁w + P₀,b·g₀ (+ P₀,b·(0, f)·F with noise),  b̂ = ½(b + b̃)
+ *   step-mean  b̄ = b̂ + M₁·(0, f)·K·c·w_node·b̂·(|u|² − |v|²), M₁ the (b, ∂t b) entry of Δt·φ₃(AΔt): the source's
+ *              change over the step, D₁ − D₀ from the exchange to first order (steppers/step-mean.ts, acoustic-propagator.ts)
  *   exchange with β = c·w_node·b̄ (Cayley, unitary)
  *   corrector  y ← E y + (P₀ − P₁) g₀ + P₁ g₁ (+ P₀·(0, f)·F),  F = σ_w(ξ₁ + iξ₂)/√2 the Langevin force
  *   held over the step, σ_w = σ_force/√w_node.
@@ -49,6 +51,8 @@ function stepBlock(m: Model, s: FieldState, j0: number, j1: number, weight: numb
   const p1br = ho.p1b[0], p1bi = ho.p1b[1], p1wr = ho.p1w[0], p1wi = ho.p1w[1]
   const qbr = p0br - p1br, qbi = p0bi - p1bi
   const qwr = p0wr - p1wr, qwi = p0wi - p1wi
+  const kc = K * c
+  const [q1r, q1i] = ho.meanG1
   for (let j = j0, d = 0; j <= j1; j++, d += 2) {
     const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j], wr = wRe[j], wi = wIm[j]
     const d0r = -K * (ui * vr - ur * vi)
@@ -69,8 +73,14 @@ function stepBlock(m: Model, s: FieldState, j0: number, j1: number, weight: numb
       tbr += p0br * gfr - p0bi * gfi
       tbi += p0br * gfi + p0bi * gfr
     }
-    const bbr = 0.5 * (br + tbr)
-    const bbi = 0.5 * (bi + tbi)
+    const btr = 0.5 * (br + tbr)
+    const bti = 0.5 * (bi + tbi)
+    const gk = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = gk * btr
+    const ei = gk * bti
+    const ger = -f * ei, gei = f * er
+    const bbr = btr + (q1r * ger - q1i * gei)
+    const bbi = bti + (q1r * gei + q1i * ger)
     // Exchange with b̄ frozen.
     const betaR = c * bbr
     const betaI = c * bbi

@@ -6,22 +6,29 @@
  *     pair the exchange of `weight` characteristic cells (1 inside, ½ at the two facets: trapezoid weights,
  *     so a facet node gives the leaving wave its last half cell and the entering wave its first).
  *  2. Predictor: D₀ = iκAₚAₛ* from the entry fields; b̃ = e^{−λΔt}(b + Δt·D₀) (SVEA) or the ETD step with a
- *     constant source (higher order); b̄ = (b + b̃)/2.
+ *     constant source (higher order); the trapezoid mean b̂ = (b + b̃)/2. The step-mean the light sees adds the
+ *     source's change over the step, the term the trapezoid's held source misses (steppers/step-mean.ts):
+ *       b̄ = b̂ + Δt·φ₃(z)·(D₁ − D₀),  z = −λΔt  (SVEA; higher order: the (b, ∂t b) entry of Δt·φ₃ of the 2×2
+ *       generator on (0, f)·(D₁ − D₀), acoustic-propagator.ts),
+ *     with D₁ − D₀ = K·c·w·b̂·(|u|² − |v|²), the exchange to first order.
  *  3. Optical exchange with b̄ frozen, in Cayley (implicit-midpoint) form:
  *     (u, v) ← [[1 − |β|²/4, iβ], [iβ*, 1 − |β|²/4]](u, v)/(1 + |β|²/4),  β = √(κκp)·vg·Δt·weight·b̄.
  *     The matrix is exactly unitary, so |u|² + |v|² (photon flux) is kept to round-off: Manley–Rowe.
- *     Kerr phases, when on, are applied as half steps before and after, also in Cayley form (unit modulus).
+ *     Kerr phases, when on, are applied as half steps before and after, also in Cayley form (unit modulus);
+ *     their change of D over the step is left out of D₁ − D₀ (b̄ then keeps an O(Δt²) Kerr part: still order 2).
  *  4. Corrector: D₁ from the exchanged fields; b ← e^{−λΔt}(b + Δt/2·D₀) + Δt/2·D₁ (SVEA), or the ETD step
  *     with the linearly interpolated source (higher order).
- *  5. Thermal noise (when on): one complex normal draw per node and step, the exact Ornstein–Uhlenbeck kick
- *     (SVEA) or a Langevin force held over the step (higher order), enters both the predictor b̃ and the
- *     corrected b, so the step-averaged b̄ the light sees carries the step's noise. Facet nodes (weight ½)
- *     get twice the variance, as half cells. Both keep the noise observables second order.
+ *  5. Thermal noise (when on): one complex normal draw per node and step, the exact Ornstein–Uhlenbeck kick X
+ *     (SVEA) or a Langevin force F held over the step (higher order), enters both the predictor b̃ and the
+ *     corrected b, so the step-averaged b̄ the light sees carries the step's noise (SVEA: plus an extra draw that
+ *     gives b̄ its full variance). Facet nodes (weight ½) get twice the variance, as half cells. Both keep the
+ *     noise observables second order.
  * Each part is second order, and the whole step is Strang-symmetric around the transport, so the scheme
  * is globally second order (shown in tests/solver/convergence.test.ts).
  */
 import type { Model } from '../problem/coupled-modes'
 import { SCRATCH_NODES, SCRATCH_PER_CHANNEL } from './general-kernel'
+import { sveaStepMean } from './step-mean'
 
 export { interactGeneral, noiseWeight } from './general-kernel'
 
@@ -62,7 +69,7 @@ export function fastPathApplies(m: Model): boolean {
 
 /**
  * Fast path: one channel, SVEA, no Kerr, no noise. Same arithmetic as `interactGeneral` for that case,
- * written out flat (no allocation, no calls, no trig) for speed.
+ * written out flat (no allocation, no calls, no trig) for speed; cHalf = c·w/2, so c = 2·cHalf exactly.
  */
 export function interactSvea(
   uRe: Float64Array,
@@ -80,6 +87,9 @@ export function interactSvea(
   h: number,
 ): void {
   const hh = 0.5 * h
+  const c = 2 * cHalf
+  const kc = K * c
+  const { m2r, m2i } = sveaStepMean(Er, Ei, h)
   for (let j = j0; j <= j1; j++) {
     const ur = uRe[j]
     const ui = uIm[j]
@@ -92,9 +102,14 @@ export function interactSvea(
     const d0i = K * (ur * vr + ui * vi)
     const tr = br + h * d0r
     const ti = bi + h * d0i
-    // β = c·(b + E(b + hD0))/2
-    const betaR = cHalf * (br + Er * tr - Ei * ti)
-    const betaI = cHalf * (bi + Er * ti + Ei * tr)
+    // Trapezoid mean b̂ = (b + E(b + hD0))/2, then D1 − D0 ≈ K·c·b̂·(|u|² − |v|²) and b̄ = b̂ + hφ3·(D1 − D0).
+    const btr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bti = 0.5 * (bi + (Er * ti + Ei * tr))
+    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * btr
+    const ei = g * bti
+    const betaR = c * (btr + (m2r * er - m2i * ei))
+    const betaI = c * (bti + (m2r * ei + m2i * er))
     const q = 0.25 * (betaR * betaR + betaI * betaI)
     const den = 1 / (1 + q)
     const a = 1 - q

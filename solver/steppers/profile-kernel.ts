@@ -2,7 +2,8 @@
  * The SVEA interaction step and the transport for a waveguide with a longitudinal profile: the arithmetic of
  * interactSvea (interaction-kernel.ts, steps 2–4 of its contract) with the constants read per node,
  *
- *   D₀ = iK_j u v*,  b̃ = E_j(b + Δt D₀),  β_j = cHalf_j (b + b̃)        (cHalf_j carries the trapezoid weight)
+ *   D₀ = iK_j u v*,  b̃ = E_j(b + Δt D₀),  b̂ = (b + b̃)/2,  c_j = 2·cHalf_j   (cHalf_j carries the trapezoid weight)
+ *   b̄ = b̂ + Δt φ₃(z_j)·K_j c_j b̂ (|u|² − |v|²),  β_j = c_j b̄   (steppers/step-mean.ts)
  *   (u, v) ← Cayley exchange with β_j,   b ← E_j(b + Δt/2 D₀) + Δt/2 D₁
  *
  * and the shift along the characteristics with the loss of the cell each wave crosses. With per-node values
@@ -10,6 +11,7 @@
  */
 import type { ProfileArrays } from '../problem/profile-model'
 import type { FieldState } from './interaction-kernel'
+import { sveaStepMean } from './step-mean'
 
 /** Interaction at nodes 0..nz of the single channel. */
 export function interactProfile(s: FieldState, p: ProfileArrays, nz: number, h: number): void {
@@ -31,8 +33,16 @@ export function interactProfile(s: FieldState, p: ProfileArrays, nz: number, h: 
     const d0i = K * (ur * vr + ui * vi)
     const tr = br + h * d0r
     const ti = bi + h * d0i
-    const betaR = cHalf * (br + Er * tr - Ei * ti)
-    const betaI = cHalf * (bi + Er * ti + Ei * tr)
+    // The step-mean's coefficients of this node's E_j (kept from node to node while E_j does not change).
+    const { m2r, m2i } = sveaStepMean(Er, Ei, h)
+    const c = 2 * cHalf
+    const btr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bti = 0.5 * (bi + (Er * ti + Ei * tr))
+    const g = K * c * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * btr
+    const ei = g * bti
+    const betaR = c * (btr + (m2r * er - m2i * ei))
+    const betaI = c * (bti + (m2r * ei + m2i * er))
     const q = 0.25 * (betaR * betaR + betaI * betaI)
     const den = 1 / (1 + q)
     const a = 1 - q

@@ -2,7 +2,8 @@
  * Fast path with Kerr phases: one channel, SVEA, no noise. The steps of the contract in
  * interaction-kernel.ts, as `interactGeneral` computes them for that case, written flat per node (no
  * scratch, no calls) and with the general kernel's own rounding order, so the results are the same bits:
- *   D₀ = iK·u·v*,  b̃ = E(b + h·D₀),  b̄ = ½(b + b̃)
+ *   D₀ = iK·u·v*,  b̃ = E(b + h·D₀),  b̂ = ½(b + b̃),  b̄ = b̂ + hφ₃·K·c·w·b̂·(|u|² − |v|²)
+ *   (the step-mean with D₁ − D₀ from the exchange to first order: steppers/step-mean.ts)
  *   Kerr half step:  φ_p = κ_p,Kerr·w·(2P − P_p),  φ_s = κ_s,Kerr·w·(2P − P_s),  P = P_p + P_s,
  *                    P_p = κ_p|u|²,  P_s = κ|v|²,  A ← A·(1 − φ²/4 + iφ)/(1 + φ²/4)   (Cayley, unit modulus)
  *   exchange with β = c·w·b̄ (Cayley, unitary), Kerr half step again with the exchanged fields,
@@ -12,6 +13,7 @@
  */
 import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
+import { sveaStepMean } from './step-mean'
 
 /** True when the single-channel SVEA path with Kerr phases applies (Kerr on, no noise, no higher-order term). */
 export function kerrFastPathApplies(m: Model): boolean {
@@ -31,6 +33,8 @@ export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number
   const ks = m.rates.kappa
   const fp = m.kerrHalfPump * weight
   const fs = m.kerrHalfStokes * weight
+  const kc = K * c
+  const { m2r, m2i } = sveaStepMean(Er, Ei, h)
   for (let j = j0; j <= j1; j++) {
     let ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j]
     const br = bRe[j], bi = bIm[j]
@@ -38,8 +42,13 @@ export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number
     const d0i = K * (ur * vr + ui * vi)
     const tr = br + h * d0r
     const ti = bi + h * d0i
-    const bbr = 0.5 * (br + (Er * tr - Ei * ti))
-    const bbi = 0.5 * (bi + (Er * ti + Ei * tr))
+    const btr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bti = 0.5 * (bi + (Er * ti + Ei * tr))
+    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * btr
+    const ei = g * bti
+    const bbr = btr + (m2r * er - m2i * ei)
+    const bbi = bti + (m2r * ei + m2i * er)
     // Kerr half step before the exchange.
     let pp = kp * (ur * ur + ui * ui)
     let ps = ks * (vr * vr + vi * vi)

@@ -4,7 +4,8 @@
  * exchangeOptics, correctSvea), written flat per node with the general kernel's rounding order and its order
  * of draws (per node: the kick's real and imaginary parts, then the mean's), so the results are the same bits:
  *   D₀ = iK·u·v*,  b̃ = E(b + h·D₀) + X,  X = σ_w(ξ₁ + iξ₂)/√2,  σ_w = σ_kick/√w
- *   b̄ = ½(b + b̃) + Y,  Y = σ̄_w(ξ₃ + iξ₄)/√2   (restores ⟨|b̄|²⟩ lost to the trapezoid mean; docs/numerics.md)
+ *   b̂ = ½(b + b̃) + Y,  Y = σ̄_w(ξ₃ + iξ₄)/√2   (restores ⟨|b̄|²⟩ lost to the trapezoid mean; docs/numerics.md)
+ *   b̄ = b̂ + hφ₃·K·c·w·b̂·(|u|² − |v|²)   (b̂ carries X/2 + Y; steppers/step-mean.ts)
  *   exchange with β = c·w·b̄ (Cayley, unitary),  b ← E(b + h/2·D₀) + h/2·D₁ + X.
  * tests/solver/svea-noise-kernel.test.ts compares it with the general kernel bit for bit.
  */
@@ -12,6 +13,7 @@ import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
 import { noiseWeight } from './general-kernel'
 import { drawNormals, type NormalSource } from './seeded-random'
+import { sveaStepMean, type StepMean } from './step-mean'
 
 /** Nodes per block of draws: the block's deviates are drawn first (in the general kernel's order), then used. */
 const BLOCK_NODES = 256
@@ -36,14 +38,16 @@ export function interactSveaNoise(m: Model, s: FieldState, j0: number, j1: numbe
   for (let a0 = j0; a0 <= j1; a0 += BLOCK_NODES) {
     const a1 = Math.min(j1, a0 + BLOCK_NODES - 1)
     drawNormals(rng, draws, 4 * (a1 - a0 + 1))
-    stepBlock(uRe, uIm, vRe, vIm, bRe, bIm, a0, a1, K, h, hh, Er, Ei, c, sd, sdMean)
+    stepBlock(uRe, uIm, vRe, vIm, bRe, bIm, a0, a1, K, h, hh, Er, Ei, c, sd, sdMean, sveaStepMean(Er, Ei, h))
   }
 }
 
 function stepBlock(
   uRe: Float64Array, uIm: Float64Array, vRe: Float64Array, vIm: Float64Array, bRe: Float64Array, bIm: Float64Array,
-  j0: number, j1: number, K: number, h: number, hh: number, Er: number, Ei: number, c: number, sd: number, sdMean: number,
+  j0: number, j1: number, K: number, h: number, hh: number, Er: number, Ei: number, c: number, sd: number, sdMean: number, mean: StepMean,
 ): void {
+  const kc = K * c
+  const { m2r, m2i } = mean
   for (let j = j0, d = 0; j <= j1; j++, d += 4) {
     const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j]
     const d0r = -K * (ui * vr - ur * vi)
@@ -56,8 +60,13 @@ function stepBlock(
     const tbi = Er * ti + Ei * tr + xi
     const mr = sdMean * draws[d + 2]
     const mi = sdMean * draws[d + 3]
-    const bbr = 0.5 * (br + tbr) + mr
-    const bbi = 0.5 * (bi + tbi) + mi
+    const btr = 0.5 * (br + tbr) + mr
+    const bti = 0.5 * (bi + tbi) + mi
+    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * btr
+    const ei = g * bti
+    const bbr = btr + (m2r * er - m2i * ei)
+    const bbi = bti + (m2r * ei + m2i * er)
     // Exchange with b̄ frozen.
     const betaR = c * bbr
     const betaI = c * bbi

@@ -114,7 +114,9 @@ describe('Richardson estimate against closed forms: true error within a factor 2
     const ratio = fb.value / fa.value
     const exact = Math.exp(-GAMMA_B * 4e-9)
     const estRatio = (fb.coarseValue / fa.coarseValue - ratio) / 3
-    expect(fa.relError!).toBeGreaterThan(1e-5)
+    // The efficiency itself has a grid error to compare with (8.9e-6 with the step-mean that follows the source's
+    // change over the step, 3.7e-5 with the trapezoid mean before it; the ratio's estimate is 3.5e-8 with both).
+    expect(fa.relError!).toBeGreaterThan(3e-6)
     expect(Math.abs(estRatio / exact)).toBeLessThan(0.01 * fa.relError!)
     expect(Math.abs(ratio / exact - 1)).toBeLessThan(1e-6)
   })

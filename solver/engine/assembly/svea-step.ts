@@ -3,16 +3,112 @@
  * for tsc: the types v128, usize and f64 are AssemblyScript's).
  *
  * The same arithmetic as `interactSvea` in solver/steppers/interaction-kernel.ts, operation for operation,
- * two nodes at a time in f64x2 lanes. With u = A_p, v = A_s, E = e^{−λΔt}, c = exchange per unit b:
- *   D₀ = iK·u·v*,  b̃ = b + h·D₀,  β = (c/2)·(b + E·b̃),  q = |β|²/4
- *   (u, v) ← [[1 − q, iβ], [iβ*, 1 − q]](u, v)/(1 + q)
+ * two nodes at a time in f64x2 lanes. With u = A_p, v = A_s, E = e^{−λΔt} = e^z, c = exchange per unit b·weight:
+ *   D₀ = iK·u·v*,  t = b + h·D₀,  b̂ = ½(b + E·t)   (the trapezoid mean)
+ *   b̄ = b̂ + hφ₃(z)·K·c·b̂·(|u|² − |v|²)   (the step-mean: solver/steppers/step-mean.ts)
+ *   β = c·b̄,  q = |β|²/4,  (u, v) ← [[1 − q, iβ], [iβ*, 1 − q]](u, v)/(1 + q)
  *   b ← E·(b + h/2·D₀) + h/2·D₁,  D₁ = iK·u·v* from the exchanged fields.
- * IEEE 754 add, sub, mul and div are correctly rounded in each lane, WebAssembly has no fused multiply-add,
- * and every expression below keeps the reference's evaluation order, so the results are the same bits.
+ * The φ-coefficients come from E and h by `stepMean` below, step-mean.ts's computeStepMean line for line (only
+ * +, −, ×, ÷ and √). IEEE 754 add, sub, mul, div and sqrt are correctly rounded in each lane, WebAssembly has no
+ * fused multiply-add, and every expression below keeps the reference's evaluation order, so the results are the
+ * same bits.
  *
  * Memory: the driver's Float64Arrays are views into this module's imported memory; the arguments are byte
  * addresses. Nothing is allocated here (stub runtime).
  */
+
+// The step-mean's coefficients φ₁, hφ₂, hφ₃ of the last (E, h) asked for (each instance keeps its own).
+let lastEr: f64 = NaN
+let lastEi: f64 = NaN
+let lastH: f64 = NaN
+let m0r: f64 = 1.0
+let m0i: f64 = 0.0
+let m1r: f64 = 0.0
+let m1i: f64 = 0.0
+let m2r: f64 = 0.0
+let m2i: f64 = 0.0
+
+/** solver/steppers/step-mean.ts, computeStepMean, operation for operation. */
+function stepMean(Er: f64, Ei: f64, h: f64): void {
+  if (Er == lastEr && Ei == lastEi && h == lastH) return
+  let wr = Er
+  let wi = Ei
+  let scale: f64 = 1.0
+  for (let k = 0; k < 60 && (wr - 1.0) * (wr - 1.0) + wi * wi > 0.01; k++) {
+    const r = Math.sqrt(wr * wr + wi * wi)
+    if (wr >= 0.0) {
+      const sr = Math.sqrt(0.5 * (r + wr))
+      wi = wi / (2.0 * sr)
+      wr = sr
+    } else {
+      let si = Math.sqrt(0.5 * (r - wr))
+      if (wi < 0.0) si = -si
+      wr = wi / (2.0 * si)
+      wi = si
+    }
+    scale = 2.0 * scale
+  }
+  const ar = wr - 1.0
+  const br = wr + 1.0
+  const dd = br * br + wi * wi
+  const yr = (ar * br + wi * wi) / dd
+  const yi = (wi * br - ar * wi) / dd
+  const y2r = yr * yr - yi * yi
+  const y2i = 2.0 * yr * yi
+  let sr: f64 = 1.0 / 23.0
+  let si: f64 = 0.0
+  for (let n = 10; n >= 0; n--) {
+    const tr = sr * y2r - si * y2i
+    si = sr * y2i + si * y2r
+    sr = tr + 1.0 / <f64>(2 * n + 1)
+  }
+  const lr = sr * yr - si * yi
+  const li = sr * yi + si * yr
+  const zr = 2.0 * scale * lr
+  const zi = 2.0 * scale * li
+  let p1r: f64 = 0.0, p1i: f64 = 0.0, p2r: f64 = 0.0, p2i: f64 = 0.0, p3r: f64 = 0.0, p3i: f64 = 0.0
+  if (zr * zr + zi * zi < 0.25) {
+    let pr: f64 = 1.0
+    let pi: f64 = 0.0
+    let f1: f64 = 1.0
+    let f2: f64 = 2.0
+    let f3: f64 = 6.0
+    for (let n = 0; n < 20; n++) {
+      p1r += pr / f1
+      p1i += pi / f1
+      p2r += pr / f2
+      p2i += pi / f2
+      p3r += pr / f3
+      p3i += pi / f3
+      const t = pr * zr - pi * zi
+      pi = pr * zi + pi * zr
+      pr = t
+      f1 = f1 * <f64>(n + 2)
+      f2 = f2 * <f64>(n + 3)
+      f3 = f3 * <f64>(n + 4)
+    }
+  } else {
+    const zz = zr * zr + zi * zi
+    const xr1 = Er - 1.0
+    p1r = (xr1 * zr + Ei * zi) / zz
+    p1i = (Ei * zr - xr1 * zi) / zz
+    const xr2 = p1r - 1.0
+    p2r = (xr2 * zr + p1i * zi) / zz
+    p2i = (p1i * zr - xr2 * zi) / zz
+    const xr3 = p2r - 0.5
+    p3r = (xr3 * zr + p2i * zi) / zz
+    p3i = (p2i * zr - xr3 * zi) / zz
+  }
+  m0r = p1r
+  m0i = p1i
+  m1r = h * p2r
+  m1i = h * p2i
+  m2r = h * p3r
+  m2i = h * p3i
+  lastEr = Er
+  lastEi = Ei
+  lastH = h
+}
 
 // @ts-ignore: decorator
 @inline
@@ -20,12 +116,19 @@ function exchange(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bI
   const hh = 0.5 * h
   const hhK = hh * K
   const negK = -K
+  const c = 2.0 * cHalf
+  const kc = K * c
+  stepMean(Er, Ei, h)
+  const vC = f64x2.splat(c)
+  const vKc = f64x2.splat(kc)
+  const vHalf = f64x2.splat(0.5)
+  const vM2r = f64x2.splat(m2r)
+  const vM2i = f64x2.splat(m2i)
   const vNegK = f64x2.splat(negK)
   const vK = f64x2.splat(K)
   const vH = f64x2.splat(h)
   const vHh = f64x2.splat(hh)
   const vHhK = f64x2.splat(hhK)
-  const vCHalf = f64x2.splat(cHalf)
   const vEr = f64x2.splat(Er)
   const vEi = f64x2.splat(Ei)
   const vQuarter = f64x2.splat(0.25)
@@ -44,9 +147,14 @@ function exchange(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bI
     const d0i = f64x2.mul(vK, f64x2.add(f64x2.mul(ur, vr), f64x2.mul(ui, vi)))
     const tr = f64x2.add(br, f64x2.mul(vH, d0r))
     const ti = f64x2.add(bi, f64x2.mul(vH, d0i))
-    // β = c/2·((b + E·t)): betaR = cHalf·((br + Er·tr) − Ei·ti), betaI = cHalf·((bi + Er·ti) + Ei·tr)
-    const betaR = f64x2.mul(vCHalf, f64x2.sub(f64x2.add(br, f64x2.mul(vEr, tr)), f64x2.mul(vEi, ti)))
-    const betaI = f64x2.mul(vCHalf, f64x2.add(f64x2.add(bi, f64x2.mul(vEr, ti)), f64x2.mul(vEi, tr)))
+    // b̂ = ½(b + (Er·tr − Ei·ti), b + (Er·ti + Ei·tr)); e = (K·c·(|u|² − |v|²))·b̂; β = c·(b̂ + m2·e)
+    const btr = f64x2.mul(vHalf, f64x2.add(br, f64x2.sub(f64x2.mul(vEr, tr), f64x2.mul(vEi, ti))))
+    const bti = f64x2.mul(vHalf, f64x2.add(bi, f64x2.add(f64x2.mul(vEr, ti), f64x2.mul(vEi, tr))))
+    const g = f64x2.mul(vKc, f64x2.sub(f64x2.sub(f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)), f64x2.mul(vr, vr)), f64x2.mul(vi, vi)))
+    const er = f64x2.mul(g, btr)
+    const ei = f64x2.mul(g, bti)
+    const betaR = f64x2.mul(vC, f64x2.add(btr, f64x2.sub(f64x2.mul(vM2r, er), f64x2.mul(vM2i, ei))))
+    const betaI = f64x2.mul(vC, f64x2.add(bti, f64x2.add(f64x2.mul(vM2r, ei), f64x2.mul(vM2i, er))))
     const q = f64x2.mul(vQuarter, f64x2.add(f64x2.mul(betaR, betaR), f64x2.mul(betaI, betaI)))
     const den = f64x2.div(vOne, f64x2.add(vOne, q))
     const a = f64x2.sub(vOne, q)
@@ -79,8 +187,13 @@ function exchange(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bI
     const d0i = K * (ur * vr + ui * vi)
     const tr = br + h * d0r
     const ti = bi + h * d0i
-    const betaR = cHalf * (br + Er * tr - Ei * ti)
-    const betaI = cHalf * (bi + Er * ti + Ei * tr)
+    const btr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bti = 0.5 * (bi + (Er * ti + Ei * tr))
+    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * btr
+    const ei = g * bti
+    const betaR = c * (btr + (m2r * er - m2i * ei))
+    const betaI = c * (bti + (m2r * ei + m2i * er))
     const q = 0.25 * (betaR * betaR + betaI * betaI)
     const den = 1.0 / (1.0 + q)
     const a = 1.0 - q
@@ -144,6 +257,11 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
   const c = exchangePerB * weight
   const fp = kerrHalfPump * weight
   const fs = kerrHalfStokes * weight
+  const kc = K * c
+  stepMean(Er, Ei, h)
+  const vKc = f64x2.splat(kc)
+  const vM2r = f64x2.splat(m2r)
+  const vM2i = f64x2.splat(m2i)
   const vNegK = f64x2.splat(-K)
   const vK = f64x2.splat(K)
   const vH = f64x2.splat(h)
@@ -172,8 +290,13 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const d0i = f64x2.mul(vK, f64x2.add(f64x2.mul(ur, vr), f64x2.mul(ui, vi)))
     const tr = f64x2.add(br, f64x2.mul(vH, d0r))
     const ti = f64x2.add(bi, f64x2.mul(vH, d0i))
-    const bbr = f64x2.mul(vHalf, f64x2.add(br, f64x2.sub(f64x2.mul(vEr, tr), f64x2.mul(vEi, ti))))
-    const bbi = f64x2.mul(vHalf, f64x2.add(bi, f64x2.add(f64x2.mul(vEr, ti), f64x2.mul(vEi, tr))))
+    const btr = f64x2.mul(vHalf, f64x2.add(br, f64x2.sub(f64x2.mul(vEr, tr), f64x2.mul(vEi, ti))))
+    const bti = f64x2.mul(vHalf, f64x2.add(bi, f64x2.add(f64x2.mul(vEr, ti), f64x2.mul(vEi, tr))))
+    const g = f64x2.mul(vKc, f64x2.sub(f64x2.sub(f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)), f64x2.mul(vr, vr)), f64x2.mul(vi, vi)))
+    const er = f64x2.mul(g, btr)
+    const ei = f64x2.mul(g, bti)
+    const bbr = f64x2.add(btr, f64x2.sub(f64x2.mul(vM2r, er), f64x2.mul(vM2i, ei)))
+    const bbi = f64x2.add(bti, f64x2.add(f64x2.mul(vM2r, ei), f64x2.mul(vM2i, er)))
     // Kerr half step before the exchange.
     let pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)))
     let ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(vr, vr), f64x2.mul(vi, vi)))
@@ -245,8 +368,13 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const d0i = K * (ur * vr + ui * vi)
     const tr = br + h * d0r
     const ti = bi + h * d0i
-    const bbr = 0.5 * (br + (Er * tr - Ei * ti))
-    const bbi = 0.5 * (bi + (Er * ti + Ei * tr))
+    const btr = 0.5 * (br + (Er * tr - Ei * ti))
+    const bti = 0.5 * (bi + (Er * ti + Ei * tr))
+    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const er = g * btr
+    const ei = g * bti
+    const bbr = btr + (m2r * er - m2i * ei)
+    const bbi = bti + (m2r * ei + m2i * er)
     let pp = kp * (ur * ur + ui * ui)
     let ps = ks * (vr * vr + vi * vi)
     let total = pp + ps
