@@ -113,3 +113,36 @@ describe('subnormal flush: a long free decay', () => {
     for (let k = 0; k < flushed.waveOut.length; k++) expect(maxDiffOverPeak(flushed.waveOut[k], plain.waveOut[k])).toBeLessThan(1e-12)
   })
 })
+
+describe('subnormal flush: two threads at chunk edges', () => {
+  it('a field near the threshold on 1201 cells (three chunks) flushes to the same bits on one and two threads and the TypeScript engine', () => {
+    const config = chipConfig({
+      windowNs: 3,
+      waveguide: { lossDbPerM: 30 },
+      grid: { timeStepPs: (0.05 / (VG * 1201)) * 1e12, mapRows: 16, mapCols: 16 },
+      options: { errorEstimate: false },
+      channels: [{ pump: { pulses: [gaussian(1, 1.5, 0.3)] }, stokes: { backgroundPowerW: 1e-3 } }],
+    })
+    const start = (options: ConstructorParameters<typeof SimulationRun>[2]) => {
+      const r = new SimulationRun(config, planGrid(config), options)
+      // Every value of the state within a factor 2 of the threshold, either sign: each flush then clears some of them
+      // everywhere, chunk edges included.
+      let x = 12345
+      for (const a of stateOf(r)) for (let j = 0; j < a.length; j++) {
+        x = (Math.imul(x, 1103515245) + 12345) >>> 0
+        a[j] = (x & 1 ? 1 : -1) * FLUSH_THRESHOLD * 2 ** ((x / 2 ** 32) * 2 - 1)
+      }
+      r.advance(600)
+      return r
+    }
+    const ts = start({ engine: 'ts' })
+    const unflushed = start({ engine: 'wasm', threads: 2, subnormalFlush: false })
+    expect(ts.flushEvery).toBeLessThan(600)
+    for (const r of [start({ engine: 'wasm', threads: 1 }), start({ engine: 'wasm', threads: 2 })]) {
+      for (const [k, a] of stateOf(r).entries()) expect(a.every((v, i) => Object.is(v, stateOf(ts)[k][i]))).toBe(true)
+      r.close()
+    }
+    expect(stateOf(unflushed)[4].every((v, i) => Object.is(v, ts.state.bRe[i]))).toBe(false)
+    unflushed.close()
+  })
+})
