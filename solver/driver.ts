@@ -16,6 +16,7 @@ import { EngineUnavailableError, resolveEngine, WasmSveaEngine, type EngineChoic
 import { interactSveaKerr, kerrFastPathApplies } from './steppers/svea-kerr-kernel'
 import { interactSveaNoise, noiseFastPathApplies } from './steppers/svea-noise-kernel'
 import { higherOrderFastPathApplies, interactHigherOrder } from './steppers/higher-order-kernel'
+import { channelsFastPathApplies, interactSveaChannels } from './steppers/svea-channels-kernel'
 import { ZigguratNormal } from './steppers/ziggurat-normal'
 import { buildProfileModel, type ProfileArrays } from './problem/profile-model'
 import { interactProfile, transportProfile } from './steppers/profile-kernel'
@@ -51,6 +52,8 @@ export class SimulationRun {
   /** One channel, SVEA, thermal noise, no Kerr / one channel, higher-order term, no Kerr: flat kernels (same bits). */
   private readonly noiseFast: boolean
   private readonly higherOrderFast: boolean
+  /** Several channels, SVEA, no option: the flat several-channel kernel (same bits). */
+  private readonly channelsFast: boolean
   /** Per-node constants of a waveguide with a longitudinal profile (its own kernel), else null. */
   readonly profile: ProfileArrays | null
   private readonly forceGeneral: boolean
@@ -108,6 +111,7 @@ export class SimulationRun {
     this.kerrFast = !this.profile && !this.forceGeneral && kerrFastPathApplies(m)
     this.noiseFast = !this.profile && !this.forceGeneral && this.rng !== null && !this.fast && noiseFastPathApplies(m)
     this.higherOrderFast = !this.profile && !this.forceGeneral && higherOrderFastPathApplies(m)
+    this.channelsFast = !this.profile && !this.forceGeneral && this.rng === null && channelsFastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
@@ -133,6 +137,7 @@ export class SimulationRun {
     if (this.kerrFast) return 'kerr'
     if (this.noiseFast) return 'noise'
     if (this.higherOrderFast) return 'higher-order'
+    if (this.channelsFast) return 'channels'
     return 'general'
   }
 
@@ -218,6 +223,10 @@ export class SimulationRun {
         interactHigherOrder(m, s, 0, 0, 0.5, this.rng)
         interactHigherOrder(m, s, 1, nz - 1, 1, this.rng)
         interactHigherOrder(m, s, nz, nz, 0.5, this.rng)
+      } else if (this.channelsFast) {
+        interactSveaChannels(m, s, 0, 0, 0.5)
+        interactSveaChannels(m, s, 1, nz - 1, 1)
+        interactSveaChannels(m, s, nz, nz, 0.5)
       } else {
         // Node order 0, 1..nz−1, nz: the order of the random draws.
         interactGeneral(m, s, 0, 0, 0.5, this.rng)

@@ -5,10 +5,11 @@ import { z } from 'zod'
 
 /**
  * The interaction kernel: the plain SVEA fast path, its flat Kerr, thermal-noise and second-order-acoustic
- * variants, the per-node kernel of a longitudinal profile, the multi-wave solver, and the general reference
- * kernel that takes every other combination (several channels, or two options together).
+ * variants, the flat kernel of several channels without options, the per-node kernel of a longitudinal profile,
+ * the multi-wave solver, and the general reference kernel that takes every other combination (several channels
+ * with an option, or two options together).
  */
-export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'higher-order', 'profile', 'network', 'general'])
+export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'higher-order', 'channels', 'profile', 'network', 'general'])
 export type KernelPath = z.infer<typeof KernelPath>
 
 export const KernelClass = z.object({
@@ -28,9 +29,10 @@ const PATH_WORDS: Record<KernelPath, string> = {
   kerr: 'Kerr effect',
   noise: 'thermal noise',
   'higher-order': 'second-order acoustic equation',
+  channels: 'several channels',
   profile: 'properties varying along the length',
   network: 'several waves',
-  general: 'general kernel (several channels or options together)',
+  general: 'general kernel (several channels with options, or options together)',
 }
 
 /** The class in words a user reads ("WebAssembly engine, plain scheme, 2 threads"). */

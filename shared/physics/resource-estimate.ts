@@ -138,9 +138,11 @@ export function predictKernel(config: SimulationConfig, grid: GridCounts, engine
     if (engine === 'ts') return { engine: 'ts', threads: 1, path: kerr ? 'kerr' : 'plain' }
     return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
   }
-  // One flat kernel per option; Kerr with another option, or several channels, take the general kernel.
+  // One flat kernel per option, and one for several channels without options; Kerr with another option, or
+  // several channels with one, take the general kernel.
   const single = config.channels.length === 1 && !kerr
-  const path = single && o.higherOrderAcoustic ? 'higher-order' : single && o.noise.enabled ? 'noise' : 'general'
+  const several = config.channels.length > 1 && !kerr && !o.noise.enabled && !o.higherOrderAcoustic
+  const path = single && o.higherOrderAcoustic ? 'higher-order' : single && o.noise.enabled ? 'noise' : several ? 'channels' : 'general'
   return { engine: 'ts', threads: 1, path }
 }
 

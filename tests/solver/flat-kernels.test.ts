@@ -1,5 +1,6 @@
 // The flat one-channel kernels for thermal noise (solver/steppers/svea-noise-kernel.ts) and for the
-// higher-order acoustic equation (higher-order-kernel.ts) against the general kernel they are written from:
+// higher-order acoustic equation (higher-order-kernel.ts), and the flat kernel for several channels
+// (svea-channels-kernel.ts), against the general kernel they are written from:
 // whole runs with the same seed, every returned array compared bit for bit (Object.is on each number). The
 // flat kernels claim the general kernel's IEEE operations in its order and its order of random draws, so a
 // reordered sum, a draw taken out of turn or a wrong facet weight shows as a differing bit.
@@ -30,6 +31,18 @@ const HIGHER_ORDER_CASES: Record<string, SimulationConfig> = {
   'chip, 40 cells, 1 GHz shift, CW, advection, with noise, seed 4': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { brillouinShiftGHz: 1 }, channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }], options: { higherOrderAcoustic: true, acousticAdvection: true, noise: noise(4) } }),
 }
 
+// Channel spacings of ≥ 10 linewidths (34 MHz on the chip), as the configuration's rule asks.
+const CHANNELS_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, two channels 1 GHz apart, lossy, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30 }, channels: [crossing, { ...crossing, offsetGHz: 1 }] }),
+  'chip, 40 cells, three channels (0, 0.7, −1.5 GHz), CW and pulses, acoustic advection': chipConfig({
+    windowNs: 3,
+    grid: cells(40),
+    channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }, { ...crossing, offsetGHz: 0.7 }, { offsetGHz: -1.5, pump: { pulses: [gaussian(0.5, 1, 0.4)] } }],
+    options: { acousticAdvection: true },
+  }),
+  'chip, 101 cells, four channels 0.5 GHz apart, lossless': chipConfig({ windowNs: 3, grid: cells(101), channels: [0, 0.5, 1, 1.5].map((offsetGHz) => ({ ...crossing, offsetGHz })) }),
+}
+
 /** The first number that differs between two runs (by array name and index), or null when every bit agrees. */
 function firstDifference(a: SimulationResult, b: SimulationResult): string | null {
   const names = Object.keys(a.arrays)
@@ -42,7 +55,7 @@ function firstDifference(a: SimulationResult, b: SimulationResult): string | nul
   return null
 }
 
-function compare(config: SimulationConfig, flag: 'noiseFast' | 'higherOrderFast'): void {
+function compare(config: SimulationConfig, flag: 'noiseFast' | 'higherOrderFast' | 'channelsFast'): void {
   // The automatic choice takes the flat kernel (read off the run, so the comparison is not general vs general).
   expect(new SimulationRun(config, planGrid(config))[flag]).toBe(true)
   const flat = simulateSync(config, { engine: 'ts' })
@@ -59,4 +72,8 @@ describe('flat thermal-noise kernel: bit-identical to the general kernel', () =>
 
 describe('flat higher-order kernel: bit-identical to the general kernel', () => {
   for (const [name, config] of Object.entries(HIGHER_ORDER_CASES)) it(name, () => compare(config, 'higherOrderFast'))
+})
+
+describe('flat several-channel kernel: bit-identical to the general kernel', () => {
+  for (const [name, config] of Object.entries(CHANNELS_CASES)) it(name, () => compare(config, 'channelsFast'))
 })

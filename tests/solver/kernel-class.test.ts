@@ -25,7 +25,9 @@ const cases: Array<[string, SimulationConfigInput, string]> = [
   ['thermal noise', base({ options: { ...off, noise: { enabled: true } } }), 'ts/noise'],
   ['second-order acoustic term', base({ options: { ...off, higherOrderAcoustic: true } }), 'ts/higher-order'],
   ['Kerr with noise', base({ waveguide: kerrWg, options: { ...off, kerr: true, noise: { enabled: true } } }), 'ts/general'],
-  ['two channels', base({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: off }), 'ts/general'],
+  ['two channels', base({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: off }), 'ts/channels'],
+  ['two channels with Kerr', base({ waveguide: kerrWg, channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: { ...off, kerr: true } }), 'ts/general'],
+  ['two channels with thermal noise', base({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: { ...off, noise: { enabled: true } } }), 'ts/general'],
   ['a longitudinal profile', base({ waveguide: { ...wg, profile: { segments: [{ startM: 0.01, endM: 0.03, shiftOffsetMHz: 20 }] } }, options: off }), 'ts/profile'],
   ['a forward resonance', base({ waveguide: { ...wg, forwardResonances: [{ frequencyMHz: 2000, linewidthMHz: 80, gainCoefficientMPerW: 3e-10, antiStokesMismatchPerM: 40 }] }, options: off }), 'ts/network'],
 ]
