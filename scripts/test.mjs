@@ -40,6 +40,9 @@ const VITEST = join('node_modules', 'vitest', 'vitest.mjs')
 const totals = { passed: 0, failed: 0, skipped: 0 }
 const unit = await runVitest('unit and API tests', [VITEST, 'run'])
 if (unit !== 0) failures.push('vitest')
+// The solver's validation tests once more on the TypeScript reference kernels (vitest.ts-engine.config.ts):
+// the first pass ran them on the engine the solver picks by default.
+if ((await runVitest('validation tests on the TypeScript engine', [VITEST, 'run', '-c', 'vitest.ts-engine.config.ts'])) !== 0) failures.push('validation on the TypeScript engine')
 
 const E2E_CONFIG = 'vitest.e2e.config.ts'
 if (existsSync(join(ROOT, E2E_CONFIG))) {
