@@ -11,7 +11,9 @@
  *   b_k ← E(b_k + h/2·D₀,k) + h/2·D₁,k.
  * The sum over channels is formed once per node and rotated for each k, where the general kernel forms it again
  * for each k: the same operations in the same order, so the same bits, with O(channels) work per node instead of
- * O(channels²). tests/solver/flat-kernels.test.ts compares whole runs with the general kernel bit for bit.
+ * O(channels²). Each pass runs over a block of one channel's nodes (contiguous in memory), channel after channel,
+ * so every node's sums still run over the channels in order. tests/solver/flat-kernels.test.ts compares whole runs
+ * with the general kernel bit for bit.
  */
 import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
@@ -19,9 +21,20 @@ import { sveaStepMean } from './step-mean'
 
 /** The configuration's limit on channels (shared/physics/simulation-config.ts). */
 const MAX_CHANNELS = 8
-/** Per channel of the present node: D₀ (re, im), b̂, then b̄ (re, im). */
-const d0 = new Float64Array(2 * MAX_CHANNELS)
-const mean = new Float64Array(2 * MAX_CHANNELS)
+/** Nodes per block: each pass runs over one channel's nodes of the block (contiguous), the scratch stays in cache. */
+const BLOCK = 256
+/** Per channel and node of the block: D₀ and b̂ (re, im), at k·BLOCK + node. */
+const d0Re = new Float64Array(MAX_CHANNELS * BLOCK)
+const d0Im = new Float64Array(MAX_CHANNELS * BLOCK)
+const hatRe = new Float64Array(MAX_CHANNELS * BLOCK)
+const hatIm = new Float64Array(MAX_CHANNELS * BLOCK)
+/** |u|² − |v|² from the entry fields, for the step-mean. */
+const powerDiff = new Float64Array(MAX_CHANNELS * BLOCK)
+/** Per node of the block: Σ_m b̂_m p_m, then Σ_m b̄_m p_m. */
+const sumRe = new Float64Array(BLOCK)
+const sumIm = new Float64Array(BLOCK)
+const barSumRe = new Float64Array(BLOCK)
+const barSumIm = new Float64Array(BLOCK)
 
 /** True when the several-channel SVEA path applies (no Kerr, no noise, no higher-order term). */
 export function channelsFastPathApplies(m: Model): boolean {
@@ -30,76 +43,175 @@ export function channelsFastPathApplies(m: Model): boolean {
 
 /** The interaction step at nodes j0..j1 of trapezoid weight `weight`, every channel. */
 export function interactSveaChannels(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  if (m.nCh === 2) return interactTwoChannels(m, s, j0, j1, weight)
+  for (let a = j0; a <= j1; a += BLOCK) {
+    const n = Math.min(j1, a + BLOCK - 1) - a + 1
+    sumRe.fill(0, 0, n)
+    sumIm.fill(0, 0, n)
+    barSumRe.fill(0, 0, n)
+    barSumIm.fill(0, 0, n)
+    // Channel by channel, so that every node's sums are taken over the channels in order 0, 1, …, as in the general kernel.
+    for (let k = 0; k < m.nCh; k++) predictBlock(m, s, k * m.nodes + a, k * BLOCK, n)
+    for (let k = 0; k < m.nCh; k++) stepMeanBlock(m, k * m.nodes + a, k * BLOCK, n, weight)
+    for (let k = 0; k < m.nCh; k++) exchangeBlock(m, s, k * m.nodes + a, k * BLOCK, n, weight)
+  }
+}
+
+/** D₀, b̂ = ½(b + E(b + h·D₀)) of one channel's nodes i0..i0+n−1, and Σ b̂_m p_m. */
+function predictBlock(m: Model, s: FieldState, i0: number, o: number, n: number): void {
   const { uRe, uIm, vRe, vIm, bRe, bIm } = s
   const pr = m.phaseRe!, pim = m.phaseIm!
-  const nCh = m.nCh
+  const K = m.driveK, h = m.dtS, Er = m.svea.eRe, Ei = m.svea.eIm
+  for (let t = 0; t < n; t++) {
+    const i = i0 + t
+    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
+    const d0r = -K * (ui * vr - ur * vi)
+    const d0i = K * (ur * vr + ui * vi)
+    const tr = br + h * d0r
+    const ti = bi + h * d0i
+    const x = 0.5 * (br + (Er * tr - Ei * ti))
+    const y = 0.5 * (bi + (Er * ti + Ei * tr))
+    d0Re[o + t] = d0r
+    d0Im[o + t] = d0i
+    hatRe[o + t] = x
+    hatIm[o + t] = y
+    powerDiff[o + t] = ur * ur + ui * ui - vr * vr - vi * vi
+    const cr = pr[i], ci = pim[i]
+    sumRe[t] += x * cr - y * ci
+    sumIm[t] += x * ci + y * cr
+  }
+}
+
+/** b̄ = b̂ + hφ₃·K·c·w·B̂·(|u|² − |v|²) of one channel, B̂ its light's view of Σ b̂_m p_m; adds b̄ p to Σ b̄_m p_m. */
+function stepMeanBlock(m: Model, i0: number, o: number, n: number, weight: number): void {
+  const pr = m.phaseRe!, pim = m.phaseIm!
+  const kc = m.driveK * (m.exchangePerB * weight)
+  const { m2r, m2i } = sveaStepMean(m.svea.eRe, m.svea.eIm, m.dtS)
+  for (let t = 0; t < n; t++) {
+    const i = i0 + t
+    const kr = pr[i], ki = pim[i]
+    const sr = sumRe[t], si = sumIm[t]
+    const Br = sr * kr + si * ki
+    const Bi = si * kr - sr * ki
+    const g = kc * powerDiff[o + t]
+    const er = g * Br
+    const ei = g * Bi
+    const x = hatRe[o + t] + (m2r * er - m2i * ei)
+    const y = hatIm[o + t] + (m2r * ei + m2i * er)
+    barSumRe[t] += x * kr - y * ki
+    barSumIm[t] += x * ki + y * kr
+  }
+}
+
+/** Exchange of one channel's (u, v) with β = c·w·B, B its light's view of Σ b̄_m p_m; then the corrector of its b. */
+function exchangeBlock(m: Model, s: FieldState, i0: number, o: number, n: number, weight: number): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm } = s
+  const pr = m.phaseRe!, pim = m.phaseIm!
+  const K = m.driveK, hh = 0.5 * m.dtS, Er = m.svea.eRe, Ei = m.svea.eIm
+  const c = m.exchangePerB * weight
+  for (let t = 0; t < n; t++) {
+    const i = i0 + t
+    const kr = pr[i], ki = pim[i]
+    const sr = barSumRe[t], si = barSumIm[t]
+    const betaR = c * (sr * kr + si * ki)
+    const betaI = c * (si * kr - sr * ki)
+    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
+    const q = 0.25 * (betaR * betaR + betaI * betaI)
+    const den = 1 / (1 + q)
+    const a = 1 - q
+    const nur = (a * ur - betaR * vi - betaI * vr) * den
+    const nui = (a * ui + betaR * vr - betaI * vi) * den
+    const nvr = (a * vr - betaR * ui + betaI * ur) * den
+    const nvi = (a * vi + betaR * ur + betaI * ui) * den
+    uRe[i] = nur
+    uIm[i] = nui
+    vRe[i] = nvr
+    vIm[i] = nvi
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const br = bRe[i], bi = bIm[i]
+    const sbr = br + hh * d0Re[o + t]
+    const sbi = bi + hh * d0Im[o + t]
+    bRe[i] = Er * sbr - Ei * sbi + hh * d1r
+    bIm[i] = Er * sbi + Ei * sbr + hh * d1i
+  }
+}
+
+/** Exchange of one channel's (u, v) with β, in the general kernel's form; returns nothing, writes u, v at i. */
+function exchangeAt(s: FieldState, i: number, betaR: number, betaI: number): void {
+  const ur = s.uRe[i], ui = s.uIm[i], vr = s.vRe[i], vi = s.vIm[i]
+  const q = 0.25 * (betaR * betaR + betaI * betaI)
+  const den = 1 / (1 + q)
+  const a = 1 - q
+  s.uRe[i] = (a * ur - betaR * vi - betaI * vr) * den
+  s.uIm[i] = (a * ui + betaR * vr - betaI * vi) * den
+  s.vRe[i] = (a * vr - betaR * ui + betaI * ur) * den
+  s.vIm[i] = (a * vi + betaR * ur + betaI * ui) * den
+}
+
+/**
+ * Two channels, the commonest case, node by node with everything in locals (no scratch): the same expressions
+ * as the passes above, each sum over the channels starting from 0 as there.
+ */
+function interactTwoChannels(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm } = s
+  const pr = m.phaseRe!, pim = m.phaseIm!
   const nodes = m.nodes
-  const K = m.driveK
-  const h = m.dtS
-  const hh = 0.5 * m.dtS
-  const Er = m.svea.eRe
-  const Ei = m.svea.eIm
+  const K = m.driveK, h = m.dtS, hh = 0.5 * m.dtS, Er = m.svea.eRe, Ei = m.svea.eIm
   const c = m.exchangePerB * weight
   const kc = K * c
   const { m2r, m2i } = sveaStepMean(Er, Ei, h)
   for (let j = j0; j <= j1; j++) {
-    // Predictor and trapezoid mean of every channel, and their sum Σ b̂_m p_m.
-    let sr = 0, si = 0
-    for (let k = 0, i = j; k < nCh; k++, i += nodes) {
-      const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
-      const d0r = -K * (ui * vr - ur * vi)
-      const d0i = K * (ur * vr + ui * vi)
-      const tr = br + h * d0r
-      const ti = bi + h * d0i
-      const x = 0.5 * (br + (Er * tr - Ei * ti))
-      const y = 0.5 * (bi + (Er * ti + Ei * tr))
-      d0[2 * k] = d0r
-      d0[2 * k + 1] = d0i
-      mean[2 * k] = x
-      mean[2 * k + 1] = y
-      const cr = pr[i], ci = pim[i]
-      sr += x * cr - y * ci
-      si += x * ci + y * cr
-    }
-    // Step-mean of every channel from the trapezoid field its light sees, and the new sum Σ b̄_m p_m.
-    let tr = 0, ti = 0
-    for (let k = 0, i = j; k < nCh; k++, i += nodes) {
-      const kr = pr[i], ki = pim[i]
-      const Br = sr * kr + si * ki
-      const Bi = si * kr - sr * ki
-      const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
-      const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
-      const er = g * Br
-      const ei = g * Bi
-      const x = mean[2 * k] + (m2r * er - m2i * ei)
-      const y = mean[2 * k + 1] + (m2r * ei + m2i * er)
-      tr += x * kr - y * ki
-      ti += x * ki + y * kr
-    }
-    // Exchange with B_k frozen, then the corrector, channel by channel.
-    for (let k = 0, i = j; k < nCh; k++, i += nodes) {
-      const kr = pr[i], ki = pim[i]
-      const betaR = c * (tr * kr + ti * ki)
-      const betaI = c * (ti * kr - tr * ki)
-      const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
-      const q = 0.25 * (betaR * betaR + betaI * betaI)
-      const den = 1 / (1 + q)
-      const a = 1 - q
-      const nur = (a * ur - betaR * vi - betaI * vr) * den
-      const nui = (a * ui + betaR * vr - betaI * vi) * den
-      const nvr = (a * vr - betaR * ui + betaI * ur) * den
-      const nvi = (a * vi + betaR * ur + betaI * ui) * den
-      uRe[i] = nur
-      uIm[i] = nui
-      vRe[i] = nvr
-      vIm[i] = nvi
-      const d1r = -K * (nui * nvr - nur * nvi)
-      const d1i = K * (nur * nvr + nui * nvi)
-      const br = bRe[i], bi = bIm[i]
-      const sbr = br + hh * d0[2 * k]
-      const sbi = bi + hh * d0[2 * k + 1]
-      bRe[i] = Er * sbr - Ei * sbi + hh * d1r
-      bIm[i] = Er * sbi + Ei * sbr + hh * d1i
-    }
+    const i = j + nodes
+    const p0r = pr[j], p0i = pim[j], p1r = pr[i], p1i = pim[i]
+    // Predictor, trapezoid mean b̂ and |u|² − |v|² of each channel.
+    let ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j]
+    const d0r0 = -K * (ui * vr - ur * vi)
+    const d0i0 = K * (ur * vr + ui * vi)
+    let tr = br + h * d0r0
+    let ti = bi + h * d0i0
+    const x0 = 0.5 * (br + (Er * tr - Ei * ti))
+    const y0 = 0.5 * (bi + (Er * ti + Ei * tr))
+    const w0 = ur * ur + ui * ui - vr * vr - vi * vi
+    ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
+    const d0r1 = -K * (ui * vr - ur * vi)
+    const d0i1 = K * (ur * vr + ui * vi)
+    tr = br + h * d0r1
+    ti = bi + h * d0i1
+    const x1 = 0.5 * (br + (Er * tr - Ei * ti))
+    const y1 = 0.5 * (bi + (Er * ti + Ei * tr))
+    const w1 = ur * ur + ui * ui - vr * vr - vi * vi
+    // Σ b̂_m p_m, each channel's view of it, the step-mean b̄ of each, and Σ b̄_m p_m.
+    const sr = 0 + (x0 * p0r - y0 * p0i) + (x1 * p1r - y1 * p1i)
+    const si = 0 + (x0 * p0i + y0 * p0r) + (x1 * p1i + y1 * p1r)
+    let g = kc * w0
+    let er = g * (sr * p0r + si * p0i)
+    let ei = g * (si * p0r - sr * p0i)
+    const bx0 = x0 + (m2r * er - m2i * ei)
+    const by0 = y0 + (m2r * ei + m2i * er)
+    g = kc * w1
+    er = g * (sr * p1r + si * p1i)
+    ei = g * (si * p1r - sr * p1i)
+    const bx1 = x1 + (m2r * er - m2i * ei)
+    const by1 = y1 + (m2r * ei + m2i * er)
+    const zr = 0 + (bx0 * p0r - by0 * p0i) + (bx1 * p1r - by1 * p1i)
+    const zi = 0 + (bx0 * p0i + by0 * p0r) + (bx1 * p1i + by1 * p1r)
+    // Exchange and corrector of each channel.
+    exchangeAt(s, j, c * (zr * p0r + zi * p0i), c * (zi * p0r - zr * p0i))
+    exchangeAt(s, i, c * (zr * p1r + zi * p1i), c * (zi * p1r - zr * p1i))
+    ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j], br = bRe[j], bi = bIm[j]
+    let d1r = -K * (ui * vr - ur * vi)
+    let d1i = K * (ur * vr + ui * vi)
+    let sbr = br + hh * d0r0
+    let sbi = bi + hh * d0i0
+    bRe[j] = Er * sbr - Ei * sbi + hh * d1r
+    bIm[j] = Er * sbi + Ei * sbr + hh * d1i
+    ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
+    d1r = -K * (ui * vr - ur * vi)
+    d1i = K * (ur * vr + ui * vi)
+    sbr = br + hh * d0r1
+    sbi = bi + hh * d0i1
+    bRe[i] = Er * sbr - Ei * sbi + hh * d1r
+    bIm[i] = Er * sbi + Ei * sbr + hh * d1i
   }
 }
