@@ -22,7 +22,9 @@
  *     one rotation, the plain kernel's). Each rotation keeps |a_h|² + |a_l|²: total photon flux is kept to
  *     round-off (Manley–Rowe; Boyd, Nonlinear Optics).
  *     With Kerr on, self- and cross-phase half steps before and after the exchange: wave w turns by
- *     γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7), in Cayley form.
+ *     γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7), in Cayley form,
+ *     a ← a·(1 − q + iφ)·r, q = φ²/4, r = 1/(1 + q) (one reciprocal per factor; the pump–Stokes kernels share one
+ *     between the pump's and the Stokes's factors, steppers/general-kernel.ts, so the two agree to round-off).
  *  3. Corrector from the exchanged waves: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  *  Thermal noise (when on), per field as the plain kernel (steppers/general-kernel.ts): the exact
  *  Ornstein–Uhlenbeck kick x enters b̃ and the corrected b, and an independent draw gives b̄ its full variance
@@ -116,7 +118,7 @@ function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number
   }
 }
 
-/** Self- and cross-phase over half a step at nodes j0..j1: multiply by (1 + iφ/2)/(1 − iφ/2) (unit modulus). */
+/** Self- and cross-phase over half a step at nodes j0..j1: multiply by (1 + iφ/2)/(1 − iφ/2) = (1 − q + iφ)/(1 + q) (unit modulus). */
 function kerrHalfStep(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
   const total = s.total
   total.fill(0, j0, j1 + 1)
@@ -130,8 +132,9 @@ function kerrHalfStep(m: NetworkModel, s: NetworkState, j0: number, j1: number, 
       const r = re[j], x = im[j]
       const phi = g * (2 * total[j] - ppf * (r * r + x * x))
       const q = 0.25 * phi * phi
-      const cr = (1 - q) / (1 + q)
-      const ci = phi / (1 + q)
+      const rec = 1 / (1 + q)
+      const cr = (1 - q) * rec
+      const ci = phi * rec
       re[j] = cr * r - ci * x
       im[j] = cr * x + ci * r
     }

@@ -301,11 +301,17 @@ export function noiseWeight(weight: number): number {
   return weight === 1 ? 1 : Math.sqrt(1 / weight)
 }
 
-/** SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation, at nodes j0..j1. */
+/**
+ * SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation, at nodes j0..j1:
+ * A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, the pump's and the Stokes's factors of a channel over one reciprocal
+ * r = 1/((1 + q_p)(1 + q_s)): one division per channel and half step (svea-kerr-kernel.ts, the same order).
+ */
 function kerrHalfStep(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
   const nCh = m.nCh
   const nodes = m.nodes
   const { uRe, uIm, vRe, vIm } = s
+  const fp = m.kerrHalfPump * weight
+  const fs = m.kerrHalfStokes * weight
   for (let j = j0; j <= j1; j++) {
     let total = 0
     for (let k = 0; k < nCh; k++) {
@@ -316,19 +322,24 @@ function kerrHalfStep(m: Model, s: FieldState, j0: number, j1: number, weight: n
       const i = k * nodes + j
       const pp = m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i])
       const ps = m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
-      rotate(uRe, uIm, i, m.kerrHalfPump * weight * (2 * total - pp))
-      rotate(vRe, vIm, i, m.kerrHalfStokes * weight * (2 * total - ps))
+      const phiP = fp * (2 * total - pp)
+      const phiS = fs * (2 * total - ps)
+      const qp = 0.25 * phiP * phiP
+      const qs = 0.25 * phiS * phiS
+      const dp = 1 + qp
+      const ds = 1 + qs
+      const r = 1 / (dp * ds)
+      const rp = ds * r
+      const rs = dp * r
+      rotate(uRe, uIm, i, (1 - qp) * rp, phiP * rp)
+      rotate(vRe, vIm, i, (1 - qs) * rs, phiS * rs)
     }
   }
 }
 
-/** Multiply element i by (1 + iφ/2)/(1 − iφ/2): unit modulus, phase 2·atan(φ/2) = φ + O(φ³). */
-function rotate(re: Float64Array, im: Float64Array, i: number, phi: number): void {
-  const q = 0.25 * phi * phi
-  const cr = (1 - q) / (1 + q)
-  const ci = phi / (1 + q)
+/** Multiply element i by cr + i·ci. */
+function rotate(re: Float64Array, im: Float64Array, i: number, cr: number, ci: number): void {
   const r = re[i], x = im[i]
   re[i] = cr * r - ci * x
   im[i] = cr * x + ci * r
 }
-

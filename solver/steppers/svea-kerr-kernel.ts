@@ -5,7 +5,10 @@
  *   D₀ = iK·u·v*,  b̃ = E(b + h·D₀),  b̂ = ½(b + b̃),  b̄ = b̂ + hφ₃·K·c·w·b̂·(|u|² − |v|²)
  *   (the step-mean with D₁ − D₀ from the exchange to first order: steppers/step-mean.ts)
  *   Kerr half step:  φ_p = κ_p,Kerr·w·(2P − P_p),  φ_s = κ_s,Kerr·w·(2P − P_s),  P = P_p + P_s,
- *                    P_p = κ_p|u|²,  P_s = κ|v|²,  A ← A·(1 − φ²/4 + iφ)/(1 + φ²/4)   (Cayley, unit modulus)
+ *                    P_p = κ_p|u|²,  P_s = κ|v|²,  A ← A·(1 − q + iφ)/(1 + q),  q = φ²/4   (Cayley, unit modulus),
+ *                    both factors over one reciprocal r = 1/((1 + q_p)(1 + q_s)):
+ *                    u ← u·((1 − q_p) + iφ_p)·r_p,  r_p = (1 + q_s)·r;   v ← v·((1 − q_s) + iφ_s)·r_s,  r_s = (1 + q_p)·r
+ *                    (one division per half step where the quotients took four; the divisions set the cost)
  *   exchange with β = c·w·b̄ (Cayley, unitary), Kerr half step again with the exchanged fields,
  *   b ← E(b + h/2·D₀) + h/2·D₁.
  * tests/solver/kernel-bits.test.ts holds the general kernel's recorded hash of a Kerr run, which this path
@@ -53,18 +56,23 @@ export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number
     let pp = kp * (ur * ur + ui * ui)
     let ps = ks * (vr * vr + vi * vi)
     let total = pp + ps
-    let phi = fp * (2 * total - pp)
-    let q = 0.25 * phi * phi
-    let cr = (1 - q) / (1 + q)
-    let ci = phi / (1 + q)
+    let phiP = fp * (2 * total - pp)
+    let phiS = fs * (2 * total - ps)
+    let qp = 0.25 * phiP * phiP
+    let qs = 0.25 * phiS * phiS
+    let dp = 1 + qp
+    let ds = 1 + qs
+    let r = 1 / (dp * ds)
+    let rp = ds * r
+    let rs = dp * r
+    let cr = (1 - qp) * rp
+    let ci = phiP * rp
     let xr = cr * ur - ci * ui
     let xi = cr * ui + ci * ur
     ur = xr
     ui = xi
-    phi = fs * (2 * total - ps)
-    q = 0.25 * phi * phi
-    cr = (1 - q) / (1 + q)
-    ci = phi / (1 + q)
+    cr = (1 - qs) * rs
+    ci = phiS * rs
     xr = cr * vr - ci * vi
     xi = cr * vi + ci * vr
     vr = xr
@@ -83,16 +91,21 @@ export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number
     pp = kp * (eur * eur + eui * eui)
     ps = ks * (evr * evr + evi * evi)
     total = pp + ps
-    phi = fp * (2 * total - pp)
-    q = 0.25 * phi * phi
-    cr = (1 - q) / (1 + q)
-    ci = phi / (1 + q)
+    phiP = fp * (2 * total - pp)
+    phiS = fs * (2 * total - ps)
+    qp = 0.25 * phiP * phiP
+    qs = 0.25 * phiS * phiS
+    dp = 1 + qp
+    ds = 1 + qs
+    r = 1 / (dp * ds)
+    rp = ds * r
+    rs = dp * r
+    cr = (1 - qp) * rp
+    ci = phiP * rp
     const nur = cr * eur - ci * eui
     const nui = cr * eui + ci * eur
-    phi = fs * (2 * total - ps)
-    q = 0.25 * phi * phi
-    cr = (1 - q) / (1 + q)
-    ci = phi / (1 + q)
+    cr = (1 - qs) * rs
+    ci = phiS * rs
     const nvr = cr * evr - ci * evi
     const nvi = cr * evi + ci * evr
     uRe[j] = nur

@@ -248,7 +248,9 @@ export function transport(uRe: usize, uIm: usize, vRe: usize, vIm: usize, nz: i3
 
 /*
  * The single-channel SVEA step with Kerr phases: `interactSveaKerr` of solver/steppers/svea-kerr-kernel.ts
- * (the general kernel's order, equations there), two nodes at a time.
+ * (the general kernel's order, equations there), two nodes at a time. Kerr half step:
+ *   φ_p = f_p(2P − P_p), φ_s = f_s(2P − P_s), q = φ²/4, r = 1/((1 + q_p)(1 + q_s)),
+ *   u ← u·((1 − q_p) + iφ_p)·(1 + q_s)·r,  v ← v·((1 − q_s) + iφ_s)·(1 + q_p)·r   (Cayley, one division).
  */
 // @ts-ignore: decorator
 @inline
@@ -301,19 +303,24 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     let pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)))
     let ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(vr, vr), f64x2.mul(vi, vi)))
     let total = f64x2.add(pp, ps)
-    // A ← A·(1 − q + iφ)/(1 + q), q = φ²/4: cr = (1 − q)/(1 + q), ci = φ/(1 + q), in the reference's order.
-    let phi = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
-    let q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
-    let cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
-    let ci = f64x2.div(phi, f64x2.add(vOne, q))
+    // A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, pump and Stokes over one reciprocal: r = 1/((1 + q_p)(1 + q_s)).
+    let phiP = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
+    let phiS = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
+    let qp = f64x2.mul(f64x2.mul(vQuarter, phiP), phiP)
+    let qs = f64x2.mul(f64x2.mul(vQuarter, phiS), phiS)
+    let dp = f64x2.add(vOne, qp)
+    let ds = f64x2.add(vOne, qs)
+    let r = f64x2.div(vOne, f64x2.mul(dp, ds))
+    let rp = f64x2.mul(ds, r)
+    let rs = f64x2.mul(dp, r)
+    let cr = f64x2.mul(f64x2.sub(vOne, qp), rp)
+    let ci = f64x2.mul(phiP, rp)
     let xr = f64x2.sub(f64x2.mul(cr, ur), f64x2.mul(ci, ui))
     let xi = f64x2.add(f64x2.mul(cr, ui), f64x2.mul(ci, ur))
     ur = xr
     ui = xi
-    phi = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
-    q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
-    cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
-    ci = f64x2.div(phi, f64x2.add(vOne, q))
+    cr = f64x2.mul(f64x2.sub(vOne, qs), rs)
+    ci = f64x2.mul(phiS, rs)
     xr = f64x2.sub(f64x2.mul(cr, vr), f64x2.mul(ci, vi))
     xi = f64x2.add(f64x2.mul(cr, vi), f64x2.mul(ci, vr))
     vr = xr
@@ -332,16 +339,21 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(eur, eur), f64x2.mul(eui, eui)))
     ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(evr, evr), f64x2.mul(evi, evi)))
     total = f64x2.add(pp, ps)
-    phi = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
-    q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
-    cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
-    ci = f64x2.div(phi, f64x2.add(vOne, q))
+    phiP = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
+    phiS = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
+    qp = f64x2.mul(f64x2.mul(vQuarter, phiP), phiP)
+    qs = f64x2.mul(f64x2.mul(vQuarter, phiS), phiS)
+    dp = f64x2.add(vOne, qp)
+    ds = f64x2.add(vOne, qs)
+    r = f64x2.div(vOne, f64x2.mul(dp, ds))
+    rp = f64x2.mul(ds, r)
+    rs = f64x2.mul(dp, r)
+    cr = f64x2.mul(f64x2.sub(vOne, qp), rp)
+    ci = f64x2.mul(phiP, rp)
     const nur = f64x2.sub(f64x2.mul(cr, eur), f64x2.mul(ci, eui))
     const nui = f64x2.add(f64x2.mul(cr, eui), f64x2.mul(ci, eur))
-    phi = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
-    q = f64x2.mul(f64x2.mul(vQuarter, phi), phi)
-    cr = f64x2.div(f64x2.sub(vOne, q), f64x2.add(vOne, q))
-    ci = f64x2.div(phi, f64x2.add(vOne, q))
+    cr = f64x2.mul(f64x2.sub(vOne, qs), rs)
+    ci = f64x2.mul(phiS, rs)
     const nvr = f64x2.sub(f64x2.mul(cr, evr), f64x2.mul(ci, evi))
     const nvi = f64x2.add(f64x2.mul(cr, evi), f64x2.mul(ci, evr))
     v128.store(uRe + o, nur)
@@ -378,18 +390,23 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     let pp = kp * (ur * ur + ui * ui)
     let ps = ks * (vr * vr + vi * vi)
     let total = pp + ps
-    let phi = fp * (2.0 * total - pp)
-    let q = 0.25 * phi * phi
-    let cr = (1.0 - q) / (1.0 + q)
-    let ci = phi / (1.0 + q)
+    let phiP = fp * (2.0 * total - pp)
+    let phiS = fs * (2.0 * total - ps)
+    let qp = 0.25 * phiP * phiP
+    let qs = 0.25 * phiS * phiS
+    let dp = 1.0 + qp
+    let ds = 1.0 + qs
+    let r = 1.0 / (dp * ds)
+    let rp = ds * r
+    let rs = dp * r
+    let cr = (1.0 - qp) * rp
+    let ci = phiP * rp
     let xr = cr * ur - ci * ui
     let xi = cr * ui + ci * ur
     ur = xr
     ui = xi
-    phi = fs * (2.0 * total - ps)
-    q = 0.25 * phi * phi
-    cr = (1.0 - q) / (1.0 + q)
-    ci = phi / (1.0 + q)
+    cr = (1.0 - qs) * rs
+    ci = phiS * rs
     xr = cr * vr - ci * vi
     xi = cr * vi + ci * vr
     vr = xr
@@ -406,16 +423,21 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     pp = kp * (eur * eur + eui * eui)
     ps = ks * (evr * evr + evi * evi)
     total = pp + ps
-    phi = fp * (2.0 * total - pp)
-    q = 0.25 * phi * phi
-    cr = (1.0 - q) / (1.0 + q)
-    ci = phi / (1.0 + q)
+    phiP = fp * (2.0 * total - pp)
+    phiS = fs * (2.0 * total - ps)
+    qp = 0.25 * phiP * phiP
+    qs = 0.25 * phiS * phiS
+    dp = 1.0 + qp
+    ds = 1.0 + qs
+    r = 1.0 / (dp * ds)
+    rp = ds * r
+    rs = dp * r
+    cr = (1.0 - qp) * rp
+    ci = phiP * rp
     const nur = cr * eur - ci * eui
     const nui = cr * eui + ci * eur
-    phi = fs * (2.0 * total - ps)
-    q = 0.25 * phi * phi
-    cr = (1.0 - q) / (1.0 + q)
-    ci = phi / (1.0 + q)
+    cr = (1.0 - qs) * rs
+    ci = phiS * rs
     const nvr = cr * evr - ci * evi
     const nvi = cr * evi + ci * evr
     store<f64>(uRe + o, nur)
