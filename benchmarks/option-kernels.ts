@@ -1,10 +1,12 @@
 // `node --import tsx benchmarks/option-kernels.ts` (also part of `npm run bench -- --engines`): options on the
 // TypeScript fast path, side by side. The
-// plain SVEA case (Nz × Nt of the engines table), then thermal noise and the higher-order acoustic term each
-// through the general kernel (forced) and through its flat one-channel kernel (solver/steppers/
-// svea-noise-kernel.ts, higher-order-kernel.ts), all on the TypeScript engine. Interleaved case by case, best
-// of 3, so a change of machine load hits every column. Prints M cell-updates/s and each flat kernel's ratio to
-// the plain path; never asserts. Record the figures in benchmarks/README.md with the date and load.
+// plain SVEA case (Nz × Nt of the engines table), then thermal noise, the higher-order acoustic term and two
+// channels (1 GHz apart) each through the general kernel (forced) and through its flat kernel (solver/steppers/
+// svea-noise-kernel.ts, higher-order-kernel.ts, svea-channels-kernel.ts), and four channels through the flat
+// kernel's form for any count, all on the TypeScript engine.
+// Interleaved case by case, best of 3, so a change of machine load hits every column. Prints M cell-updates/s
+// (a cell-update is one node of one channel in one step) and each flat kernel's ratio to the plain path; never
+// asserts. Record the figures in benchmarks/README.md with the date and load.
 import os from 'node:os'
 import { fileURLToPath } from 'node:url'
 import { simulateSync } from '../solver/index'
@@ -26,8 +28,11 @@ function rate(config: SimulationConfig, forceGeneralKernel: boolean): number {
 }
 
 export function optionKernelTable(): void {
-  console.log('\n## Options on the fast path (one channel, TypeScript engine; best of 3, interleaved; Mcell/s)')
-  console.log(`${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('plain', 7)} ${pad('noise gen', 10)} ${pad('noise flat', 11)} ${pad('flat/plain', 11)} ${pad('h-o gen', 8)} ${pad('h-o flat', 9)} ${pad('flat/plain', 11)} ${pad('load avg', 9)}`)
+  console.log('\n## Options on the fast path (TypeScript engine; best of 3, interleaved; Mcell/s)')
+  console.log(
+    `${pad('Nz', 6)} ${pad('Nt', 7)} ${pad('plain', 7)} ${pad('noise gen', 10)} ${pad('noise flat', 11)} ${pad('flat/plain', 11)} ${pad('h-o gen', 8)} ${pad('h-o flat', 9)} ${pad('flat/plain', 11)} ` +
+      `${pad('2 ch gen', 9)} ${pad('2 ch flat', 10)} ${pad('flat/plain', 11)} ${pad('4 ch flat', 10)} ${pad('flat/plain', 11)} ${pad('load avg', 9)}`,
+  )
   for (const [nz, nt] of SIZES) {
     const runs: [string, SimulationConfig, boolean][] = [
       ['plain', gridCase(nz, nt), false],
@@ -35,12 +40,17 @@ export function optionKernelTable(): void {
       ['noiseFlat', gridCase(nz, nt, { noise: true }), false],
       ['higherGeneral', gridCase(nz, nt, { higherOrderAcoustic: true }), true],
       ['higherFlat', gridCase(nz, nt, { higherOrderAcoustic: true }), false],
+      ['channelsGeneral', gridCase(nz, nt, { channels: 2 }), true],
+      ['channelsFlat', gridCase(nz, nt, { channels: 2 }), false],
+      ['fourChannelsFlat', gridCase(nz, nt, { channels: 4 }), false],
     ]
     const best: Record<string, number> = {}
     for (let rep = 0; rep < 3; rep++) for (const [key, config, general] of runs) best[key] = Math.max(best[key] ?? 0, rate(config, general))
     console.log(
       `${pad(nz, 6)} ${pad(nt, 7)} ${pad(fmt(best.plain), 7)} ${pad(fmt(best.noiseGeneral), 10)} ${pad(fmt(best.noiseFlat), 11)} ${pad((best.noiseFlat / best.plain).toFixed(2), 11)} ` +
-        `${pad(fmt(best.higherGeneral), 8)} ${pad(fmt(best.higherFlat), 9)} ${pad((best.higherFlat / best.plain).toFixed(2), 11)} ${pad(os.loadavg()[0].toFixed(2), 9)}`,
+        `${pad(fmt(best.higherGeneral), 8)} ${pad(fmt(best.higherFlat), 9)} ${pad((best.higherFlat / best.plain).toFixed(2), 11)} ` +
+        `${pad(fmt(best.channelsGeneral), 9)} ${pad(fmt(best.channelsFlat), 10)} ${pad((best.channelsFlat / best.plain).toFixed(2), 11)} ` +
+        `${pad(fmt(best.fourChannelsFlat), 10)} ${pad((best.fourChannelsFlat / best.plain).toFixed(2), 11)} ${pad(os.loadavg()[0].toFixed(2), 9)}`,
     )
   }
 }

@@ -28,7 +28,7 @@ describe('estimateResources', () => {
     const two = config({ channels: [{ offsetGHz: 0 }, { offsetGHz: 5 }], options: { errorEstimate: false } })
     const e = estimateResources(two, { dtS: 5e-12, nz: 2000, nt: 20000 }, 3)
     expect(e.cellUpdates).toBe(2 * 2001 * 20001 * 3)
-    // Two channels take the general kernel (SPEED_FACTOR_SEVERAL_CHANNELS of the plain path).
+    // Two channels take the flat several-channel kernel (SPEED_FACTOR_SEVERAL_CHANNELS of the plain path).
     expect(e.expectedSeconds).toBeCloseTo(e.cellUpdates / (CELL_UPDATES_PER_S_SVEA * SPEED_FACTOR_SEVERAL_CHANNELS), 9)
   })
 

@@ -100,12 +100,13 @@ export const PLAIN_FIELDS = 1
  */
 export const SPEED_FACTOR_WAVE_NETWORK = 0.25
 /**
- * Relative speed of the general kernel with several channels and no option (each channel a separate 2-wave
- * problem, but through the general reference kernel) against the TypeScript plain path, per cell-update:
- * benchmarks/estimate-check.ts 2026-12-04, 0.20 and 0.31 in two runs at load average 4–5 (benchmarks/README.md,
- * "Estimate against measurement"); the lower half, so estimates err long.
+ * Relative speed of several channels and no option against the TypeScript plain path, per cell-update (one
+ * node of one channel in one step). They run on the flat several-channel kernel (solver/steppers/
+ * svea-channels-kernel.ts): benchmarks/option-kernels.ts 2026-12-04 (benchmarks/README.md), 0.76–0.80 with two
+ * channels and 0.61 with four at load average 1.6–2.2; the four-channel figure, so estimates err long with two.
+ * Through the general kernel, before that kernel: 0.20–0.31 (benchmarks/estimate-check.ts, load average 4–5).
  */
-export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.25
+export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.6
 
 /**
  * Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or
