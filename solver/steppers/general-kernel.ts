@@ -42,8 +42,8 @@ export function interactGeneral(m: Model, s: FieldState, j0: number, j1: number,
     fieldSeenByOptics(m, s, a, b)
     stepMean(m, s, a, b, weight)
     fieldSeenByOptics(m, s, a, b)
-    if (kerr) kerrHalfStep(m, s, a, b, weight)
-    exchangeOptics(m, s, a, b, weight)
+    if (kerr) kerrHalfStepAndExchange(m, s, a, b, weight)
+    else exchangeOptics(m, s, a, b, weight)
     if (kerr) kerrHalfStep(m, s, a, b, weight)
     if (m.higherOrder === null) correctSvea(m, s, a, b, rng !== null)
     else correctHigherOrder(m, s, a, b, rng !== null)
@@ -304,7 +304,8 @@ export function noiseWeight(weight: number): number {
 /**
  * SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation, at nodes j0..j1:
  * A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, the pump's and the Stokes's factors of a channel over one reciprocal
- * r = 1/((1 + q_p)(1 + q_s)): one division per channel and half step (svea-kerr-kernel.ts, the same order).
+ * r = 1/((1 + q_p)(1 + q_s)): one division per channel and half step (svea-kerr-kernel.ts, the same order). The
+ * half step after the exchange; the one before it shares its division with the exchange (above).
  */
 function kerrHalfStep(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
   const nCh = m.nCh
@@ -333,6 +334,57 @@ function kerrHalfStep(m: Model, s: FieldState, j0: number, j1: number, weight: n
       const rs = dp * r
       rotate(uRe, uIm, i, (1 - qp) * rp, phiP * rp)
       rotate(vRe, vIm, i, (1 - qs) * rs, phiS * rs)
+    }
+  }
+}
+
+/**
+ * Step 3 with Kerr: the first Kerr half step and the exchange with B frozen over one division. The half step's
+ * factors (1 − q + iφ)/(1 + q) and the exchange's 1/(1 + q_e) share r = 1/((1 + q_e)((1 + q_p)(1 + q_s))): the
+ * pump turned by ((1 − q_p) + iφ_p)(1 + q_s), the Stokes wave by ((1 − q_s) + iφ_s)(1 + q_p), then the exchange's
+ * numerators, then ·r.
+ */
+function kerrHalfStepAndExchange(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+  const nCh = m.nCh
+  const nodes = m.nodes
+  const { uRe, uIm, vRe, vIm, scratch } = s
+  const fp = m.kerrHalfPump * weight
+  const fs = m.kerrHalfStokes * weight
+  const c = m.exchangePerB * weight
+  for (let j = j0; j <= j1; j++) {
+    let total = 0
+    for (let k = 0; k < nCh; k++) {
+      const i = k * nodes + j
+      total += m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+    }
+    for (let k = 0; k < nCh; k++) {
+      const i = k * nodes + j
+      const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
+      const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
+      const pp = m.kappaP * (ur * ur + ui * ui)
+      const ps = m.rates.kappa * (vr * vr + vi * vi)
+      const phiP = fp * (2 * total - pp)
+      const phiS = fs * (2 * total - ps)
+      const qp = 0.25 * phiP * phiP
+      const qs = 0.25 * phiS * phiS
+      const dp = 1 + qp
+      const ds = 1 + qs
+      const betaR = c * scratch[o + 4], betaI = c * scratch[o + 5]
+      const qe = 0.25 * (betaR * betaR + betaI * betaI)
+      const a = 1 - qe
+      const den = 1 / ((1 + qe) * (dp * ds))
+      let cr = (1 - qp) * ds
+      let ci = phiP * ds
+      const kur = cr * ur - ci * ui
+      const kui = cr * ui + ci * ur
+      cr = (1 - qs) * dp
+      ci = phiS * dp
+      const kvr = cr * vr - ci * vi
+      const kvi = cr * vi + ci * vr
+      uRe[i] = (a * kur - betaR * kvi - betaI * kvr) * den
+      uIm[i] = (a * kui + betaR * kvr - betaI * kvi) * den
+      vRe[i] = (a * kvr - betaR * kui + betaI * kur) * den
+      vIm[i] = (a * kvi + betaR * kur + betaI * kui) * den
     }
   }
 }

@@ -248,9 +248,11 @@ export function transport(uRe: usize, uIm: usize, vRe: usize, vIm: usize, nz: i3
 
 /*
  * The single-channel SVEA step with Kerr phases: `interactSveaKerr` of solver/steppers/svea-kerr-kernel.ts
- * (the general kernel's order, equations there), two nodes at a time. Kerr half step:
- *   φ_p = f_p(2P − P_p), φ_s = f_s(2P − P_s), q = φ²/4, r = 1/((1 + q_p)(1 + q_s)),
- *   u ← u·((1 − q_p) + iφ_p)·(1 + q_s)·r,  v ← v·((1 − q_s) + iφ_s)·(1 + q_p)·r   (Cayley, one division).
+ * (the general kernel's order, equations there), two nodes at a time. Kerr half step with φ_p = f_p(2P − P_p),
+ * φ_s = f_s(2P − P_s), q = φ²/4, A ← A·(1 − q + iφ)/(1 + q) (Cayley), over shared reciprocals:
+ *   first half step and exchange:  r = 1/((1 + q_e)·((1 + q_p)(1 + q_s))),  ũ = ((1 − q_p) + iφ_p)(1 + q_s)·u,
+ *                                  ṽ = ((1 − q_s) + iφ_s)(1 + q_p)·v,  (u, v) ← (a·ũ + iβ·ṽ, a·ṽ + iβ*·ũ)·r
+ *   second half step:              r = 1/((1 + q_p)(1 + q_s)),  u ← u·((1 − q_p) + iφ_p)·(1 + q_s)r, v likewise.
  */
 // @ts-ignore: decorator
 @inline
@@ -282,10 +284,10 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
   let j = j0
   for (; j < j1; j += 2) {
     const o = <usize>j << 3
-    let ur = v128.load(uRe + o)
-    let ui = v128.load(uIm + o)
-    let vr = v128.load(vRe + o)
-    let vi = v128.load(vIm + o)
+    const ur = v128.load(uRe + o)
+    const ui = v128.load(uIm + o)
+    const vr = v128.load(vRe + o)
+    const vi = v128.load(vIm + o)
     const br = v128.load(bRe + o)
     const bi = v128.load(bIm + o)
     const d0r = f64x2.mul(vNegK, f64x2.sub(f64x2.mul(ui, vr), f64x2.mul(ur, vi)))
@@ -294,47 +296,40 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const ti = f64x2.add(bi, f64x2.mul(vH, d0i))
     const btr = f64x2.mul(vHalf, f64x2.add(br, f64x2.sub(f64x2.mul(vEr, tr), f64x2.mul(vEi, ti))))
     const bti = f64x2.mul(vHalf, f64x2.add(bi, f64x2.add(f64x2.mul(vEr, ti), f64x2.mul(vEi, tr))))
-    const g = f64x2.mul(vKc, f64x2.sub(f64x2.sub(f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)), f64x2.mul(vr, vr)), f64x2.mul(vi, vi)))
+    const uu = f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui))
+    const vv = f64x2.add(f64x2.mul(vr, vr), f64x2.mul(vi, vi))
+    const g = f64x2.mul(vKc, f64x2.sub(f64x2.sub(uu, f64x2.mul(vr, vr)), f64x2.mul(vi, vi)))
     const er = f64x2.mul(g, btr)
     const ei = f64x2.mul(g, bti)
     const bbr = f64x2.add(btr, f64x2.sub(f64x2.mul(vM2r, er), f64x2.mul(vM2i, ei)))
     const bbi = f64x2.add(bti, f64x2.add(f64x2.mul(vM2r, ei), f64x2.mul(vM2i, er)))
-    // Kerr half step before the exchange.
-    let pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(ur, ur), f64x2.mul(ui, ui)))
-    let ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(vr, vr), f64x2.mul(vi, vi)))
+    // Kerr half step and exchange with b̄ frozen over one reciprocal.
+    let pp = f64x2.mul(vKp, uu)
+    let ps = f64x2.mul(vKs, vv)
     let total = f64x2.add(pp, ps)
-    // A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, pump and Stokes over one reciprocal: r = 1/((1 + q_p)(1 + q_s)).
     let phiP = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
     let phiS = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
     let qp = f64x2.mul(f64x2.mul(vQuarter, phiP), phiP)
     let qs = f64x2.mul(f64x2.mul(vQuarter, phiS), phiS)
     let dp = f64x2.add(vOne, qp)
     let ds = f64x2.add(vOne, qs)
-    let r = f64x2.div(vOne, f64x2.mul(dp, ds))
-    let rp = f64x2.mul(ds, r)
-    let rs = f64x2.mul(dp, r)
-    let cr = f64x2.mul(f64x2.sub(vOne, qp), rp)
-    let ci = f64x2.mul(phiP, rp)
-    let xr = f64x2.sub(f64x2.mul(cr, ur), f64x2.mul(ci, ui))
-    let xi = f64x2.add(f64x2.mul(cr, ui), f64x2.mul(ci, ur))
-    ur = xr
-    ui = xi
-    cr = f64x2.mul(f64x2.sub(vOne, qs), rs)
-    ci = f64x2.mul(phiS, rs)
-    xr = f64x2.sub(f64x2.mul(cr, vr), f64x2.mul(ci, vi))
-    xi = f64x2.add(f64x2.mul(cr, vi), f64x2.mul(ci, vr))
-    vr = xr
-    vi = xi
-    // Exchange with b̄ frozen.
     const betaR = f64x2.mul(vC, bbr)
     const betaI = f64x2.mul(vC, bbi)
     const qe = f64x2.mul(vQuarter, f64x2.add(f64x2.mul(betaR, betaR), f64x2.mul(betaI, betaI)))
-    const den = f64x2.div(vOne, f64x2.add(vOne, qe))
     const a = f64x2.sub(vOne, qe)
-    const eur = f64x2.mul(f64x2.sub(f64x2.sub(f64x2.mul(a, ur), f64x2.mul(betaR, vi)), f64x2.mul(betaI, vr)), den)
-    const eui = f64x2.mul(f64x2.sub(f64x2.add(f64x2.mul(a, ui), f64x2.mul(betaR, vr)), f64x2.mul(betaI, vi)), den)
-    const evr = f64x2.mul(f64x2.add(f64x2.sub(f64x2.mul(a, vr), f64x2.mul(betaR, ui)), f64x2.mul(betaI, ur)), den)
-    const evi = f64x2.mul(f64x2.add(f64x2.add(f64x2.mul(a, vi), f64x2.mul(betaR, ur)), f64x2.mul(betaI, ui)), den)
+    const den = f64x2.div(vOne, f64x2.mul(f64x2.add(vOne, qe), f64x2.mul(dp, ds)))
+    let cr = f64x2.mul(f64x2.sub(vOne, qp), ds)
+    let ci = f64x2.mul(phiP, ds)
+    const kur = f64x2.sub(f64x2.mul(cr, ur), f64x2.mul(ci, ui))
+    const kui = f64x2.add(f64x2.mul(cr, ui), f64x2.mul(ci, ur))
+    cr = f64x2.mul(f64x2.sub(vOne, qs), dp)
+    ci = f64x2.mul(phiS, dp)
+    const kvr = f64x2.sub(f64x2.mul(cr, vr), f64x2.mul(ci, vi))
+    const kvi = f64x2.add(f64x2.mul(cr, vi), f64x2.mul(ci, vr))
+    const eur = f64x2.mul(f64x2.sub(f64x2.sub(f64x2.mul(a, kur), f64x2.mul(betaR, kvi)), f64x2.mul(betaI, kvr)), den)
+    const eui = f64x2.mul(f64x2.sub(f64x2.add(f64x2.mul(a, kui), f64x2.mul(betaR, kvr)), f64x2.mul(betaI, kvi)), den)
+    const evr = f64x2.mul(f64x2.add(f64x2.sub(f64x2.mul(a, kvr), f64x2.mul(betaR, kui)), f64x2.mul(betaI, kur)), den)
+    const evi = f64x2.mul(f64x2.add(f64x2.add(f64x2.mul(a, kvi), f64x2.mul(betaR, kur)), f64x2.mul(betaI, kui)), den)
     // Kerr half step after the exchange.
     pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(eur, eur), f64x2.mul(eui, eui)))
     ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(evr, evr), f64x2.mul(evi, evi)))
@@ -345,9 +340,9 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     qs = f64x2.mul(f64x2.mul(vQuarter, phiS), phiS)
     dp = f64x2.add(vOne, qp)
     ds = f64x2.add(vOne, qs)
-    r = f64x2.div(vOne, f64x2.mul(dp, ds))
-    rp = f64x2.mul(ds, r)
-    rs = f64x2.mul(dp, r)
+    const r = f64x2.div(vOne, f64x2.mul(dp, ds))
+    const rp = f64x2.mul(ds, r)
+    const rs = f64x2.mul(dp, r)
     cr = f64x2.mul(f64x2.sub(vOne, qp), rp)
     ci = f64x2.mul(phiP, rp)
     const nur = f64x2.sub(f64x2.mul(cr, eur), f64x2.mul(ci, eui))
@@ -370,10 +365,10 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
   }
   for (; j <= j1; j++) {
     const o = <usize>j << 3
-    let ur = load<f64>(uRe + o)
-    let ui = load<f64>(uIm + o)
-    let vr = load<f64>(vRe + o)
-    let vi = load<f64>(vIm + o)
+    const ur = load<f64>(uRe + o)
+    const ui = load<f64>(uIm + o)
+    const vr = load<f64>(vRe + o)
+    const vi = load<f64>(vIm + o)
     const br = load<f64>(bRe + o)
     const bi = load<f64>(bIm + o)
     const d0r = -K * (ui * vr - ur * vi)
@@ -382,13 +377,15 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const ti = bi + h * d0i
     const btr = 0.5 * (br + (Er * tr - Ei * ti))
     const bti = 0.5 * (bi + (Er * ti + Ei * tr))
-    const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
+    const uu = ur * ur + ui * ui
+    const vv = vr * vr + vi * vi
+    const g = kc * (uu - vr * vr - vi * vi)
     const er = g * btr
     const ei = g * bti
     const bbr = btr + (m2r * er - m2i * ei)
     const bbi = bti + (m2r * ei + m2i * er)
-    let pp = kp * (ur * ur + ui * ui)
-    let ps = ks * (vr * vr + vi * vi)
+    let pp = kp * uu
+    let ps = ks * vv
     let total = pp + ps
     let phiP = fp * (2.0 * total - pp)
     let phiS = fs * (2.0 * total - ps)
@@ -396,30 +393,23 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     let qs = 0.25 * phiS * phiS
     let dp = 1.0 + qp
     let ds = 1.0 + qs
-    let r = 1.0 / (dp * ds)
-    let rp = ds * r
-    let rs = dp * r
-    let cr = (1.0 - qp) * rp
-    let ci = phiP * rp
-    let xr = cr * ur - ci * ui
-    let xi = cr * ui + ci * ur
-    ur = xr
-    ui = xi
-    cr = (1.0 - qs) * rs
-    ci = phiS * rs
-    xr = cr * vr - ci * vi
-    xi = cr * vi + ci * vr
-    vr = xr
-    vi = xi
     const betaR = c * bbr
     const betaI = c * bbi
     const qe = 0.25 * (betaR * betaR + betaI * betaI)
-    const den = 1.0 / (1.0 + qe)
     const a = 1.0 - qe
-    const eur = (a * ur - betaR * vi - betaI * vr) * den
-    const eui = (a * ui + betaR * vr - betaI * vi) * den
-    const evr = (a * vr - betaR * ui + betaI * ur) * den
-    const evi = (a * vi + betaR * ur + betaI * ui) * den
+    const den = 1.0 / ((1.0 + qe) * (dp * ds))
+    let cr = (1.0 - qp) * ds
+    let ci = phiP * ds
+    const kur = cr * ur - ci * ui
+    const kui = cr * ui + ci * ur
+    cr = (1.0 - qs) * dp
+    ci = phiS * dp
+    const kvr = cr * vr - ci * vi
+    const kvi = cr * vi + ci * vr
+    const eur = (a * kur - betaR * kvi - betaI * kvr) * den
+    const eui = (a * kui + betaR * kvr - betaI * kvi) * den
+    const evr = (a * kvr - betaR * kui + betaI * kur) * den
+    const evi = (a * kvi + betaR * kur + betaI * kui) * den
     pp = kp * (eur * eur + eui * eui)
     ps = ks * (evr * evr + evi * evi)
     total = pp + ps
@@ -429,9 +419,9 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     qs = 0.25 * phiS * phiS
     dp = 1.0 + qp
     ds = 1.0 + qs
-    r = 1.0 / (dp * ds)
-    rp = ds * r
-    rs = dp * r
+    const r = 1.0 / (dp * ds)
+    const rp = ds * r
+    const rs = dp * r
     cr = (1.0 - qp) * rp
     ci = phiP * rp
     const nur = cr * eur - ci * eui
