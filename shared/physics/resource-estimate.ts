@@ -68,11 +68,12 @@ export const SPEED_FACTOR_KERR = 0.45
  * node-steps when a core is idle. Relative speed against one thread of the same engine, `npm run bench --
  * --threads` 2026-12-03 at load average 2.5–3.5 (a core only partly free; benchmarks/README.md): 1.46–1.55 at
  * N_z = 8000–16000 through the driver (0.86–1.27 in a run while the other core was busier), 1.56–1.73 for the
- * engine alone; research runs with a core idle gave
- * 1.4–1.5. The estimate assumes a free core; on a busy machine the run keeps one thread and the estimate errs
- * short by this factor.
+ * engine alone. With one barrier per step and the maps sampled in the phase, 2026-12-04 with both cores free:
+ * 1.71–1.78 at N_z = 4000 and 1.57–1.89 at 8000 through the driver; the low end of those. The estimate assumes a
+ * free core; on a busy machine the run keeps one thread and the benchmark-figure estimate errs short by this
+ * factor (the calibrated estimate, speed-calibration.ts, learns the server's own figure).
  */
-export const SPEED_FACTOR_TWO_THREADS = 1.4
+export const SPEED_FACTOR_TWO_THREADS = 1.6
 /**
  * Shortest grid (cells) at which two threads are taken: below it the per-step barrier costs more than it saves.
  * With one barrier per step and the maps sampled in the phase, measured 2026-12-04 with both cores free
@@ -97,8 +98,11 @@ export const PLAIN_FIELDS = 1
  * couplings. Measured (benchmarks/README.md, "Multi-wave solver", machine loaded): 0.25–0.99 of the plain
  * TypeScript path per envelope, lowest with several processes per field; the low end, so estimates err long.
  * benchmarks/estimate-check.ts 2026-12-04 (one forward resonance, side by side with the plain path): 0.27 and 0.31.
+ * The step-mean with the sources' change (steppers/step-mean.ts) costs the multi-wave kernel three more passes
+ * over its arrays: the same forward-resonance run took 4.9 s of CPU against 3.0 s before it (1.63×, two runs
+ * each, 2026-12-04), so 0.25/1.63.
  */
-export const SPEED_FACTOR_WAVE_NETWORK = 0.25
+export const SPEED_FACTOR_WAVE_NETWORK = 0.15
 /**
  * Relative speed of several channels and no option against the TypeScript plain path, per cell-update (one
  * node of one channel in one step). They run on the flat several-channel kernel (solver/steppers/
