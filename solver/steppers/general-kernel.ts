@@ -5,6 +5,11 @@
  * interactSveaKerr, interactSveaNoise and interactHigherOrder for one channel with Kerr, with thermal noise and
  * with the higher-order term (svea-kerr-kernel.ts, svea-noise-kernel.ts, higher-order-kernel.ts): a change of
  * rounding order or of the order of draws here must be made there too (tests/solver/flat-kernels.test.ts).
+ * Kerr step (kerrHalfStepAndExchange, kerrHalfStep below), with q = φ²/4 and a = 1 − q_e, q_e = |β|²/4:
+ *   r = 1/((1 + q_e)((1 + q_p)(1 + q_s))),  ũ = ((1 − q_p) + iφ_p)(1 + q_s)·u,  ṽ = ((1 − q_s) + iφ_s)(1 + q_p)·v,
+ *   (u, v) ← (a·ũ + iβ·ṽ, a·ṽ + iβ*·ũ)·r   (first half step and exchange: one division),
+ *   r = 1/((1 + q_p)(1 + q_s)),  u ← u·((1 − q_p) + iφ_p)(1 + q_s)r,  v ← v·((1 − q_s) + iφ_s)(1 + q_p)r
+ *   (second half step, with the phases of the exchanged fields), each the Cayley factor (1 − q + iφ)/(1 + q).
  */
 import type { Model } from '../problem/coupled-modes'
 import type { NormalSource } from './seeded-random'

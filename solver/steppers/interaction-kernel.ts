@@ -14,7 +14,9 @@
  *  3. Optical exchange with b̄ frozen, in Cayley (implicit-midpoint) form:
  *     (u, v) ← [[1 − |β|²/4, iβ], [iβ*, 1 − |β|²/4]](u, v)/(1 + |β|²/4),  β = √(κκp)·vg·Δt·weight·b̄.
  *     The matrix is exactly unitary, so |u|² + |v|² (photon flux) is kept to round-off: Manley–Rowe.
- *     Kerr phases, when on, are applied as half steps before and after, also in Cayley form (unit modulus);
+ *     Kerr phases, when on, are applied as half steps before and after, also in Cayley form (unit modulus),
+ *     A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, φ_p = f_p(2P − P_p), φ_s = f_s(2P − P_s); the quotients share
+ *     reciprocals (the first half step's with the exchange's: general-kernel.ts, docs/numerics.md);
  *     their change of D over the step is left out of D₁ − D₀ (b̄ then keeps an O(Δt²) Kerr part: still order 2).
  *  4. Corrector: D₁ from the exchanged fields; b ← e^{−λΔt}(b + Δt/2·D₀) + Δt/2·D₁ (SVEA), or the ETD step
  *     with the linearly interpolated source (higher order).
