@@ -56,12 +56,12 @@ export const SPEED_FACTOR_HIGHER_ORDER = 0.55
  */
 export const SPEED_FACTOR_NOISE = 0.35
 /**
- * Relative speed with Kerr phases (four Cayley rotations, nine divisions per cell), on the WebAssembly engine's
- * Kerr path against its plain one: benchmark 2026-12-03 (benchmarks/README.md), 0.46–0.51 (0.30–0.70 with the
- * machine heavily loaded). Runs that need the general kernel (several channels, noise) are slower still:
- * there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
+ * Relative speed with Kerr phases (four Cayley rotations over two divisions per cell), on the WebAssembly
+ * engine's Kerr path against its plain one: benchmarks/kerr-noise-kernels.ts 2026-12-04 (benchmarks/README.md),
+ * 0.55–0.59 at load average 1.6–2.1 (0.46–0.51 before, with nine divisions). Runs that need the general kernel
+ * (several channels, noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
  */
-export const SPEED_FACTOR_KERR = 0.45
+export const SPEED_FACTOR_KERR = 0.55
 /**
  * Two threads on one run (solver/engine/threaded-engine.ts): the engine's plain path with z in chunks shared by
  * the run's thread and one helper, taken automatically from THREAD_MIN_CELLS cells and THREAD_MIN_NODE_STEPS
