@@ -20,12 +20,13 @@ export interface GridCounts {
 }
 
 /**
- * Throughput of the SVEA scheme on one core of the reference machine (cell-updates per second), from
- * `npm run bench` on 2026-12-01 (benchmarks/README.md: 68–83 M/s idle, 12–30 M/s with the machine loaded);
- * set between the two, since a worker shares its machine, so expected times err long. Slower options are
- * expressed as factors of it.
+ * Throughput of the SVEA scheme's TypeScript path on one idle core of the reference machine (cell-updates per
+ * second): benchmarks/estimate-check.ts 2026-12-04 02:00 UTC, load average 0.55–0.99, measured 68.6 M/s (61–83
+ * in earlier idle runs, benchmarks/README.md); a little under, so expected times err long. These benchmark
+ * figures stand for an idle machine: they are what a server with no history of its own is told. A loaded
+ * server's own measured speeds replace them (speed-calibration.ts). Slower options are factors of it.
  */
-export const CELL_UPDATES_PER_S_SVEA = 40e6
+export const CELL_UPDATES_PER_S_SVEA = 60e6
 /**
  * Relative speed of the WebAssembly step engine (solver/engine/) against the TypeScript fast path, for the
  * runs it covers (`wasmEngineCovers`); benchmark 2026-12-03, interleaved side by side (benchmarks/README.md):
@@ -38,7 +39,8 @@ export const SPEED_FACTOR_WASM_ENGINE = 2
  * TypeScript fast path; benchmark 2026-12-03, interleaved on one 1 km grid, machine loaded: 0.80. Profile runs
  * never use the WebAssembly engine.
  */
-export const SPEED_FACTOR_PROFILE = 0.8
+// estimate-check.ts 2026-12-04 02:00 UTC, idle, the 1 km sensing point with its maps and figures: 0.49.
+export const SPEED_FACTOR_PROFILE = 0.55
 /**
  * Relative speed with the second-order acoustic equation (2×2 propagator per cell), one channel, on its flat
  * kernel (solver/steppers/higher-order-kernel.ts) against the plain TypeScript path: benchmark 2026-12-03,
@@ -46,7 +48,8 @@ export const SPEED_FACTOR_PROFILE = 0.8
  * (0.48–1.15 heavily loaded); a little under, so estimates err long. Several channels take the general kernel:
  * 0.20–0.31 there.
  */
-export const SPEED_FACTOR_HIGHER_ORDER = 0.55
+// estimate-check.ts 2026-12-04 02:00 UTC, idle: 0.69.
+export const SPEED_FACTOR_HIGHER_ORDER = 0.65
 /**
  * Relative speed with thermal noise (four normal deviates per cell and step by the ziggurat), one channel, on
  * its flat kernel (solver/steppers/svea-noise-kernel.ts) against the plain TypeScript path: benchmark
@@ -54,7 +57,8 @@ export const SPEED_FACTOR_HIGHER_ORDER = 0.55
  * generator's fill). Several channels or Kerr with noise take the general kernel, which measured 0.10–0.12 with
  * the former generator.
  */
-export const SPEED_FACTOR_NOISE = 0.35
+// kerr-noise-kernels.ts 2026-12-04: 0.42–0.46; estimate-check.ts 02:00 UTC, idle: 0.48.
+export const SPEED_FACTOR_NOISE = 0.45
 /**
  * Relative speed with Kerr phases (four Cayley rotations over two divisions per cell), on the WebAssembly
  * engine's Kerr path against its plain one: benchmarks/kerr-noise-kernels.ts 2026-12-04 (benchmarks/README.md),
@@ -102,7 +106,9 @@ export const PLAIN_FIELDS = 1
  * over its arrays: the same forward-resonance run took 4.9 s of CPU against 3.0 s before it (1.63×, two runs
  * each, 2026-12-04), so 0.25/1.63.
  */
-export const SPEED_FACTOR_WAVE_NETWORK = 0.15
+// estimate-check.ts 2026-12-04 02:00 UTC, idle, one forward resonance (6 envelopes): 1e8 cell-updates in 15.4 s, 6.5 M/s,
+// 0.22 of the base rate after the 3/6 scaling above; 0.18 keeps the estimate long by about 1.2 there.
+export const SPEED_FACTOR_WAVE_NETWORK = 0.18
 /**
  * Relative speed of several channels and no option against the TypeScript plain path, per cell-update (one
  * node of one channel in one step). They run on the flat several-channel kernel (solver/steppers/
@@ -110,7 +116,8 @@ export const SPEED_FACTOR_WAVE_NETWORK = 0.15
  * channels and 0.61 with four at load average 1.6–2.2; the four-channel figure, so estimates err long with two.
  * Through the general kernel, before that kernel: 0.20–0.31 (benchmarks/estimate-check.ts, load average 4–5).
  */
-export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.6
+// estimate-check.ts 2026-12-04 02:00 UTC, idle, two channels: 0.74.
+export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.65
 
 /**
  * Runs the WebAssembly engine computes: one channel of the plain pump–Stokes pair, SVEA, no noise, Kerr on or
