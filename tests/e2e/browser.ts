@@ -2,7 +2,7 @@
 // browser), sign-in through the real form, and screenshots for review under tests/artifacts/.
 import { mkdirSync } from 'node:fs'
 import { join } from 'node:path'
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
+import { chromium, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core'
 import { REPO_ROOT } from '../../server/env'
 
 export const ARTIFACTS = join(REPO_ROOT, 'tests', 'artifacts')
@@ -41,4 +41,17 @@ export async function signIn(page: Page, who: { email: string; password: string 
 export async function screenshot(page: Page, name: string): Promise<void> {
   mkdirSync(ARTIFACTS, { recursive: true })
   await page.screenshot({ path: join(ARTIFACTS, `${name}.png`), fullPage: true })
+}
+
+/**
+ * Clicks `button` until `shows` is visible. On a loaded machine a click can land while a panel is still opening
+ * (or before the page's handlers are ready) and be lost; each try waits 10 s for its effect before clicking again.
+ */
+export async function clickUntilVisible(button: Locator, shows: Locator, tries = 6): Promise<void> {
+  for (let attempt = 0; attempt < tries && !(await shows.isVisible()); attempt++) {
+    await button.evaluate((el) => el.scrollIntoView({ block: 'center' })).catch(() => {})
+    await button.click({ timeout: 10_000 }).catch(() => {})
+    await shows.waitFor({ timeout: 10_000 }).catch(() => {})
+  }
+  await shows.waitFor()
 }

@@ -3,7 +3,7 @@
 // of the new resonance and the isolation estimate, and queues the run. Screenshots at 1440 and 390 px, both themes.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { DEMO, launchBrowser, newContext, screenshot, signIn } from './browser'
+import { clickUntilVisible, DEMO, launchBrowser, newContext, screenshot, signIn } from './browser'
 
 const base = inject('e2eBaseUrl')
 let browser: Browser
@@ -28,9 +28,10 @@ async function editorPage(theme: 'light' | 'dark', signedInAs?: BrowserContext):
 /** Fills the form: one further backward resonance at 7.9 GHz and a co-propagating copy of the Stokes input. */
 async function fillWaves(page: Page): Promise<void> {
   await page.goto('/simulations/new')
-  await page.getByRole('button', { name: /Waveguide parameters/ }).click()
-  await page.getByRole('button', { name: 'Add backward resonance' }).click()
+  const add = page.getByRole('button', { name: 'Add backward resonance' })
   const row = page.getByRole('listitem', { name: 'Backward resonance 1' })
+  await clickUntilVisible(page.getByRole('button', { name: /Waveguide parameters/ }), add)
+  await clickUntilVisible(add, row)
   await row.getByLabel('Shift ν_B,r').fill('7.9')
   await row.getByLabel('Linewidth Δν_r').fill('40')
   await row.getByLabel('Gain coefficient g_B,r').fill('2e-10')
