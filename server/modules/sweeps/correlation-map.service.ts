@@ -13,6 +13,7 @@ import type { SimulationConfig } from '@shared/physics/simulation-config'
 import { AppError } from '../../errors'
 import { findArray, findRun } from '../runs/runs.repo'
 import type { SweepsDeps } from './sweeps.service'
+import { sensingMapColumns } from './sensing-map-columns'
 
 const unusable = (message: string) => new AppError('not_a_sensing_scan', 422, message)
 
@@ -59,14 +60,7 @@ export async function correlationMapFor(deps: SweepsDeps, sweep: SweepDetail, no
     return {
       readOut: 'correlation',
       brillouinShiftGHz: wg.brillouinShiftGHz,
-      positionsM: map.positionsM,
-      detuningsMHz: map.detuningsMHz,
-      gainLn: map.gain,
-      fittedShiftMHz: map.fits.map((f) => f.shiftMHz),
-      sigmaMHz: map.fits.map((f) => f.sigmaMHz),
-      peakGainLn: map.fits.map((f) => f.peakGain),
-      usable: map.fits.map((f) => f.usable),
-      outsideScan: map.fits.map((f) => f.outsideScan === true),
+      ...sensingMapColumns(map),
       trueShiftMHz: fig.trueShiftMHz,
       nominalResolutionM: fig.nominalResolutionM,
       measuredResolutionM: fig.measuredResolutionM,

@@ -12,6 +12,7 @@ import type { AuthContext } from '../auth/auth-context'
 import { findArray, findRun } from '../runs/runs.repo'
 import { correlationMapFor } from './correlation-map.service'
 import { getSweep, type SweepsDeps } from './sweeps.service'
+import { sensingMapColumns } from './sensing-map-columns'
 
 /** Positions in the answer: enough for a readable heatmap, small enough for a JSON answer of a few MB. */
 const MAX_POSITIONS = 1000
@@ -57,14 +58,7 @@ export async function sensingMapFor(deps: SweepsDeps, auth: AuthContext | undefi
     const fig = sensingFigures(map, wg.profile?.segments ?? [], wg.groupIndex, durationNs, wg.linewidthMHz, clean)
     return {
       brillouinShiftGHz: wg.brillouinShiftGHz,
-      positionsM: map.positionsM,
-      detuningsMHz: map.detuningsMHz,
-      gainLn: map.gain,
-      fittedShiftMHz: map.fits.map((f) => f.shiftMHz),
-      sigmaMHz: map.fits.map((f) => f.sigmaMHz),
-      peakGainLn: map.fits.map((f) => f.peakGain),
-      usable: map.fits.map((f) => f.usable),
-      outsideScan: map.fits.map((f) => f.outsideScan === true),
+      ...sensingMapColumns(map),
       trueShiftMHz: fig.trueShiftMHz,
       nominalResolutionM: fig.nominalResolutionM,
       measuredResolutionM: fig.measuredResolutionM,
