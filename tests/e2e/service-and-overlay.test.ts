@@ -73,14 +73,22 @@ async function alignWithDetector(page: Page, runId: string): Promise<number> {
   await page.goto(`/runs/${runId}`)
   const panel = page.locator('.v-card', { hasText: 'Measured traces' }).first()
   await panel.scrollIntoViewIfNeeded()
-  await panel.locator('.v-select', { hasText: 'Traces' }).first().click()
+  const traceSelect = panel.locator('.v-select', { hasText: 'Traces' }).first()
   const traceOption = page.getByRole('option', { name: 'Scope, pump out' })
-  await traceOption.waitFor()
-  await traceOption.click()
-  await page.keyboard.press('Escape')
-  // The multiple select's menu stays open until Escape; the next menu opens only once it has gone.
-  await traceOption.waitFor({ state: 'hidden' })
-  await panel.locator('.overlay-note', { hasText: 'peaks matched' }).waitFor()
+  const matched = panel.locator('.overlay-note', { hasText: 'peaks matched' })
+  // On a busy machine the option's click can land while the menu is still opening and select nothing:
+  // the choice is repeated until the overlay's note shows.
+  for (let i = 0; i < 6 && !(await matched.isVisible()); i++) {
+    if (!(await traceOption.isVisible())) await traceSelect.click({ timeout: 10_000 }).catch(() => {})
+    await traceOption.waitFor({ timeout: 10_000 }).catch(() => {})
+    const picked = await traceOption.getAttribute('aria-selected', { timeout: 5_000 }).catch(() => null)
+    if (picked !== 'true') await traceOption.click({ timeout: 10_000 }).catch(() => {})
+    await page.keyboard.press('Escape')
+    // The multiple select's menu stays open until Escape; the next menu opens only once it has gone.
+    await traceOption.waitFor({ state: 'hidden', timeout: 10_000 }).catch(() => {})
+    await matched.waitFor({ timeout: 10_000 }).catch(() => {})
+  }
+  await matched.waitFor()
   const detector = panel.locator('.v-select', { hasText: 'Detector response' })
   // Mid-screen, so its menu does not open under the fixed app bar.
   await detector.evaluate((node) => (node as unknown as { scrollIntoView(o: { block: string }): void }).scrollIntoView({ block: 'center' }))
