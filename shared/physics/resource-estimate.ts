@@ -60,12 +60,14 @@ export const SPEED_FACTOR_HIGHER_ORDER = 0.65
 // kerr-noise-kernels.ts 2026-12-04: 0.42–0.46; estimate-check.ts 02:00 UTC, idle: 0.48.
 export const SPEED_FACTOR_NOISE = 0.45
 /**
- * Relative speed with Kerr phases (four Cayley rotations over two divisions per cell), on the WebAssembly
- * engine's Kerr path against its plain one: benchmarks/kerr-noise-kernels.ts 2026-12-04 (benchmarks/README.md),
- * 0.55–0.59 at load average 1.6–2.1 (0.46–0.51 before, with nine divisions). Runs that need the general kernel
- * (several channels, noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
+ * Relative speed with Kerr phases (one exchange in the first half step's frame and one rotation by the whole step's
+ * phase, one division per cell: solver/steppers/kerr-phase.ts), on the WebAssembly engine's Kerr path against its
+ * plain one: benchmarks/kerr-noise-kernels.ts 2026-12-04 04:30 UTC (benchmarks/README.md), 0.67–0.71 at load
+ * average 0.7–0.9 (TypeScript kernels 0.62–0.70); estimate-check.ts 04:35 UTC, load 1.1: 0.65 (85.1 M/s against the
+ * engine's 2 × 65.4). Before, with two half steps: 0.55–0.59. Runs that need the general kernel (several channels,
+ * noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
  */
-export const SPEED_FACTOR_KERR = 0.55
+export const SPEED_FACTOR_KERR = 0.65
 /**
  * Two threads on one run (solver/engine/threaded-engine.ts): the engine's plain path with z in chunks shared by
  * the run's thread and one helper, taken automatically from THREAD_MIN_CELLS cells and THREAD_MIN_NODE_STEPS

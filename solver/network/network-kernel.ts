@@ -22,9 +22,14 @@
  *     one rotation, the plain kernel's). Each rotation keeps |a_h|² + |a_l|²: total photon flux is kept to
  *     round-off (Manley–Rowe; Boyd, Nonlinear Optics).
  *     With Kerr on, self- and cross-phase half steps before and after the exchange: wave w turns by
- *     γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7), in Cayley form,
- *     a ← a·(1 − q + iφ)·r, q = φ²/4, r = 1/(1 + q) (one reciprocal per factor; the pump–Stokes kernels share one
- *     between the pump's and the Stokes's factors, steppers/general-kernel.ts, so the two agree to round-off).
+ *     φ_w = γ_w(P_w + 2Σ_{v≠w} P_v)·v_g Δt/2 (cross-phase factor 2 for every other wave; Agrawal ch. 7). As in the
+ *     pump–Stokes kernels (steppers/kerr-phase.ts, general-kernel.ts): the first half step, a diagonal rotation, is
+ *     moved through the exchanges, turning each process's β by the Cayley factor of φ_l − φ_h (first half step's
+ *     phases, entry powers); then each wave turns once, a ← a·(1 − q + iθ)/(1 + q), q = θ²/4, by the whole step's
+ *     θ_w = 2φ_w + γ_w·v_gΔt/2·(2ΔT − ΔP_w), the phase at the midpoint powers, where ΔP_w = 2·Re(a_w*·δa_w)·P/|a|²
+ *     is the wave's first-order power change under the step's exchanges (δa of the step-mean, 1.) and ΔT their sum,
+ *     its Cayley angle taken as θ(1 + θ²/12), so that the factor turns by θ to O(θ⁵) (steppers/kerr-phase.ts).
+ *     (The pump–Stokes kernels share reciprocals differently, so the two agree to round-off.)
  *  3. Corrector from the exchanged waves: b ← E(b + Δt/2·D₀) + Δt/2·D₁.
  *  Thermal noise (when on), per field as the plain kernel (steppers/general-kernel.ts): the exact
  *  Ornstein–Uhlenbeck kick x enters b̃ and the corrected b, and an independent draw gives b̄ its full variance
@@ -34,6 +39,7 @@
  */
 import type { NormalSource } from '../steppers/seeded-random'
 import { noiseWeight } from '../steppers/general-kernel'
+import { TWELFTH } from '../steppers/kerr-phase'
 import { sveaStepMean } from '../steppers/step-mean'
 import type { NetworkModel } from './network-model'
 
@@ -47,8 +53,12 @@ export interface NetworkState {
   dIm: Float64Array[]
   mRe: Float64Array[]
   mIm: Float64Array[]
-  /** Total power per node, for the Kerr phases. */
+  /** Total power per node and its first-order change over the step, for the Kerr phases. */
   total: Float64Array
+  totalChange: Float64Array
+  /** Per wave and node with Kerr on: the first half step's phase φ and the whole step's θ. */
+  phi: Float64Array[]
+  theta: Float64Array[]
   /** Per field and node: the step's noise kick (empty with noise off). */
   xRe: Float64Array[]
   xIm: Float64Array[]
@@ -64,6 +74,7 @@ export function allocateNetworkState(m: NetworkModel): NetworkState {
   const W = m.waves.length, F = m.fields.length
   return {
     aRe: arrays(W), aIm: arrays(W), bRe: arrays(F), bIm: arrays(F), dRe: arrays(F), dIm: arrays(F), mRe: arrays(F), mIm: arrays(F), total: new Float64Array(m.nodes),
+    totalChange: new Float64Array(m.nodes), phi: m.kerr ? arrays(W) : [], theta: m.kerr ? arrays(W) : [],
     xRe: m.noise ? arrays(F) : [], xIm: m.noise ? arrays(F) : [],
     daRe: arrays(W), daIm: arrays(W), eRe: arrays(F), eIm: arrays(F),
   }
@@ -93,8 +104,11 @@ function sources(m: NetworkModel, s: NetworkState, j0: number, j1: number, outRe
   }
 }
 
-/** Cayley rotation of (a_h, a_l) with generator i[[0, β], [β*, 0]], β = c·b̄·e^{iθ}, over nodes j0..j1. */
-function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number, j0: number, j1: number): void {
+/**
+ * Cayley rotation of (a_h, a_l) with generator i[[0, β], [β*, 0]], β = c·b̄·e^{iθ}, over nodes j0..j1; with Kerr on,
+ * in the first Kerr half step's frame: β' = β·((1 − q_r) + iΔφ)/(1 + q_r), Δφ = φ_l − φ_h, q_r = Δφ²/4.
+ */
+function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number, j0: number, j1: number, kerr: boolean): void {
   const hRe = s.aRe[p.higher], hIm = s.aIm[p.higher], lRe = s.aRe[p.lower], lIm = s.aIm[p.lower]
   const mRe = s.mRe[p.field], mIm = s.mIm[p.field]
   const cRe = p.phaseRe, cIm = p.phaseIm
@@ -109,8 +123,21 @@ function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number
     }
     const ur = hRe[j], ui = hIm[j], vr = lRe[j], vi = lIm[j]
     const q = 0.25 * (betaR * betaR + betaI * betaI)
-    const den = 1 / (1 + q)
-    const a = 1 - q
+    let den: number
+    let a: number
+    if (kerr) {
+      const dphi = s.phi[p.lower][j] - s.phi[p.higher][j]
+      const qr = 0.25 * dphi * dphi
+      const cr0 = 1 - qr
+      const r = betaR * cr0 - betaI * dphi
+      betaI = betaR * dphi + betaI * cr0
+      betaR = r
+      den = 1 / ((1 + q) * (1 + qr))
+      a = (1 - q) * (1 + qr)
+    } else {
+      den = 1 / (1 + q)
+      a = 1 - q
+    }
     hRe[j] = (a * ur - betaR * vi - betaI * vr) * den
     hIm[j] = (a * ui + betaR * vr - betaI * vi) * den
     lRe[j] = (a * vr - betaR * ui + betaI * ur) * den
@@ -118,23 +145,44 @@ function rotate(s: NetworkState, p: NetworkModel['processes'][number], c: number
   }
 }
 
-/** Self- and cross-phase over half a step at nodes j0..j1: multiply by (1 + iφ/2)/(1 − iφ/2) = (1 − q + iφ)/(1 + q) (unit modulus). */
-function kerrHalfStep(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
-  const total = s.total
+/**
+ * Kerr phases at nodes j0..j1 (contract, 2.): φ_w of the first half step from the entry powers, and the whole step's
+ * θ_w at the midpoint powers, from the waves' first-order changes δa over the step (left by stepMean).
+ */
+function kerrPhases(m: NetworkModel, s: NetworkState, j0: number, j1: number, weight: number): void {
+  const { total, totalChange } = s
   total.fill(0, j0, j1 + 1)
+  totalChange.fill(0, j0, j1 + 1)
   m.waves.forEach((w, k) => {
-    const re = s.aRe[k], im = s.aIm[k], ppf = w.powerPerFlux
-    for (let j = j0; j <= j1; j++) total[j] += ppf * (re[j] * re[j] + im[j] * im[j])
+    const re = s.aRe[k], im = s.aIm[k], dre = s.daRe[k], dim = s.daIm[k], ppf = w.powerPerFlux
+    for (let j = j0; j <= j1; j++) {
+      total[j] += ppf * (re[j] * re[j] + im[j] * im[j])
+      totalChange[j] += 2 * ppf * (re[j] * dre[j] + im[j] * dim[j])
+    }
   })
   m.waves.forEach((w, k) => {
-    const re = s.aRe[k], im = s.aIm[k], ppf = w.powerPerFlux, g = w.kerrHalf * weight
+    const re = s.aRe[k], im = s.aIm[k], dre = s.daRe[k], dim = s.daIm[k], ppf = w.powerPerFlux, g = w.kerrHalf * weight
+    const phi = s.phi[k], theta = s.theta[k]
     for (let j = j0; j <= j1; j++) {
       const r = re[j], x = im[j]
-      const phi = g * (2 * total[j] - ppf * (r * r + x * x))
-      const q = 0.25 * phi * phi
+      const f = g * (2 * total[j] - ppf * (r * r + x * x))
+      phi[j] = f
+      const t = 2 * f + g * (2 * totalChange[j] - 2 * ppf * (r * dre[j] + x * dim[j]))
+      theta[j] = t * (1 + TWELFTH * t * t)
+    }
+  })
+}
+
+/** Each wave turned by its whole step's Kerr phase θ: a ← a·(1 − q + iθ)/(1 + q), q = θ²/4 (unit modulus; θ tangent-corrected). */
+function kerrRotation(m: NetworkModel, s: NetworkState, j0: number, j1: number): void {
+  m.waves.forEach((_, k) => {
+    const re = s.aRe[k], im = s.aIm[k], theta = s.theta[k]
+    for (let j = j0; j <= j1; j++) {
+      const r = re[j], x = im[j], t = theta[j]
+      const q = 0.25 * t * t
       const rec = 1 / (1 + q)
       const cr = (1 - q) * rec
-      const ci = phi * rec
+      const ci = t * rec
       re[j] = cr * r - ci * x
       im[j] = cr * x + ci * r
     }
@@ -236,13 +284,13 @@ export function interactNetwork(m: NetworkModel, s: NetworkState, j0: number, j1
     }
   }
   stepMean(m, s, j0, j1, weight)
-  if (m.kerr) kerrHalfStep(m, s, j0, j1, weight)
+  if (m.kerr) kerrPhases(m, s, j0, j1, weight)
   for (let k = 0; k < 2 * P - 1; k++) {
     const pi = k < P ? k : 2 * P - 2 - k
     const p = m.processes[pi]
-    rotate(s, p, (pi === P - 1 ? 1 : 0.5) * weight * p.c, j0, j1)
+    rotate(s, p, (pi === P - 1 ? 1 : 0.5) * weight * p.c, j0, j1, m.kerr)
   }
-  if (m.kerr) kerrHalfStep(m, s, j0, j1, weight)
+  if (m.kerr) kerrRotation(m, s, j0, j1)
   // b ← E(b + h/2·D₀) + h/2·D₁, with D₁ written over b̄ (no longer needed).
   sources(m, s, j0, j1, s.mRe, s.mIm)
   for (let f = 0; f < F; f++) {

@@ -5,15 +5,16 @@
  * interactSveaKerr, interactSveaNoise and interactHigherOrder for one channel with Kerr, with thermal noise and
  * with the higher-order term (svea-kerr-kernel.ts, svea-noise-kernel.ts, higher-order-kernel.ts): a change of
  * rounding order or of the order of draws here must be made there too (tests/solver/flat-kernels.test.ts).
- * Kerr step (kerrHalfStepAndExchange, kerrHalfStep below), with q = φ²/4 and a = 1 − q_e, q_e = |β|²/4:
- *   r = 1/((1 + q_e)((1 + q_p)(1 + q_s))),  ũ = ((1 − q_p) + iφ_p)(1 + q_s)·u,  ṽ = ((1 − q_s) + iφ_s)(1 + q_p)·v,
- *   (u, v) ← (a·ũ + iβ·ṽ, a·ṽ + iβ*·ũ)·r   (first half step and exchange: one division),
- *   r = 1/((1 + q_p)(1 + q_s)),  u ← u·((1 − q_p) + iφ_p)(1 + q_s)r,  v ← v·((1 − q_s) + iφ_s)(1 + q_p)r
- *   (second half step, with the phases of the exchanged fields), each the Cayley factor (1 − q + iφ)/(1 + q).
+ * Kerr step (kerrExchange below; coefficients and midpoint powers in kerr-phase.ts), with q = (·)²/4, a = (1 − q_e)(1 + q_r):
+ *   r = 1/(((1 + q_e)(1 + q_r))((1 + q_p)(1 + q_s))),  β' = β·((1 − q_r) + iΔφ),  Δφ = φ_s − φ_p  (first half step's phases),
+ *   (u, v) ← (((1 − q_p) + iθ_p)(1 + q_s)·(a·u + iβ'·v), ((1 − q_s) + iθ_s)(1 + q_p)·(a·v + iβ'*·u))·r,
+ * i.e. the first Kerr half step moved through the exchange (which turns β by the pair's phase difference), then
+ * both half steps' rotations as one, θ the whole step's phase at the midpoint powers: one division per node.
  */
 import type { Model } from '../problem/coupled-modes'
 import type { NormalSource } from './seeded-random'
 import type { FieldState } from './interaction-kernel'
+import { kerrPhaseCoefficients, TWELFTH } from './kerr-phase'
 import { sveaStepMean } from './step-mean'
 
 /*
@@ -23,13 +24,13 @@ import { sveaStepMean } from './step-mean'
  * of the calls away). Scratch per node and channel (SCRATCH_PER_CHANNEL numbers at
  * o = SCRATCH_PER_CHANNEL·(k·SCRATCH_NODES + node in block)): [o, o+1] b̃, then b̂, then b̄, [o+2, o+3] D₀, [o+4, o+5] B
  * seen by this channel's optics (from b̂, then from b̄), [o+6, o+7] the step's noise draw, [o+8, o+9] the extra draw that restores
- * the variance of b̄ (SVEA noise). The noise step draws node by node and channel by channel, the order of the
+ * the variance of b̄ (SVEA noise), [o+10] with Kerr, y of the exchange's first-order power change (kerr-phase.ts). The noise step draws node by node and channel by channel, the order of the
  * one-function kernel before the split, and every sum keeps its rounding: the results are the same bit for
  * bit (tests/solver/kernel-bits.test.ts).
  */
 
 /** Numbers of scratch per node and channel (layout above). */
-export const SCRATCH_PER_CHANNEL = 10
+export const SCRATCH_PER_CHANNEL = 11
 /** Nodes per block: enough to spread the calls, small enough for the scratch to stay in the L1 cache. */
 export const SCRATCH_NODES = 32
 
@@ -45,11 +46,10 @@ export function interactGeneral(m: Model, s: FieldState, j0: number, j1: number,
     if (rng !== null) drawThermalNoise(m, s, a, b, weight, rng)
     averageAcoustic(m, s, a, b, rng !== null && m.higherOrder === null)
     fieldSeenByOptics(m, s, a, b)
-    stepMean(m, s, a, b, weight)
+    stepMean(m, s, a, b, weight, kerr)
     fieldSeenByOptics(m, s, a, b)
-    if (kerr) kerrHalfStepAndExchange(m, s, a, b, weight)
+    if (kerr) kerrExchange(m, s, a, b, weight)
     else exchangeOptics(m, s, a, b, weight)
-    if (kerr) kerrHalfStep(m, s, a, b, weight)
     if (m.higherOrder === null) correctSvea(m, s, a, b, rng !== null)
     else correctHigherOrder(m, s, a, b, rng !== null)
   }
@@ -145,7 +145,7 @@ function averageAcoustic(m: Model, s: FieldState, j0: number, j1: number, meanDr
  * the step, Δt·φ₃·(D₁ − D₀) (SVEA; higher order the (b, ∂t b) entry of Δt·φ₃(AΔt) on (0, f)·(D₁ − D₀)), with
  * D₁ − D₀ = K·c·B̂·(|u|² − |v|²) from the trapezoid field B̂ this channel's optics see; b̂ carries the noise.
  */
-function stepMean(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+function stepMean(m: Model, s: FieldState, j0: number, j1: number, weight: number, kerr: boolean): void {
   const nCh = m.nCh
   const nodes = m.nodes
   const { uRe, uIm, vRe, vIm, scratch } = s
@@ -160,6 +160,8 @@ function stepMean(m: Model, s: FieldState, j0: number, j1: number, weight: numbe
     const g = kc * (ur * ur + ui * ui - vr * vr - vi * vi)
     const er = g * scratch[o + 4]
     const ei = g * scratch[o + 5]
+    // With Kerr: y = Re(B̂)·Im(uv*) − Im(B̂)·Re(uv*), the exchange's first-order power change over 2c (kerr-phase.ts).
+    if (kerr) scratch[o + 10] = scratch[o + 4] * (ui * vr - ur * vi) - scratch[o + 5] * (ur * vr + ui * vi)
     if (ho === null) {
       scratch[o] = scratch[o] + (m2r * er - m2i * ei)
       scratch[o + 1] = scratch[o + 1] + (m2r * ei + m2i * er)
@@ -307,96 +309,70 @@ export function noiseWeight(weight: number): number {
 }
 
 /**
- * SPM + XPM (factor 2 for every other wave present) over half a step, as a Cayley rotation, at nodes j0..j1:
- * A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, the pump's and the Stokes's factors of a channel over one reciprocal
- * r = 1/((1 + q_p)(1 + q_s)): one division per channel and half step (svea-kerr-kernel.ts, the same order). The
- * half step after the exchange; the one before it shares its division with the exchange (above).
+ * Step 3 with Kerr (kerr-phase.ts, docs/numerics.md "Kerr phases"): per channel, the first half step's phases φ
+ * from the entry powers and the whole step's θ at the midpoint powers; the exchange in the frame of the first half
+ * step (β turned by the Cayley factor of φ_s − φ_p), then both half steps as one Cayley rotation by θ, over one
+ * reciprocal r = 1/(((1 + q_e)(1 + q_r))((1 + q_p)(1 + q_s))), q = (·)²/4 (svea-kerr-kernel.ts, the same order).
  */
-function kerrHalfStep(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
-  const nCh = m.nCh
-  const nodes = m.nodes
-  const { uRe, uIm, vRe, vIm } = s
-  const fp = m.kerrHalfPump * weight
-  const fs = m.kerrHalfStokes * weight
-  for (let j = j0; j <= j1; j++) {
-    let total = 0
-    for (let k = 0; k < nCh; k++) {
-      const i = k * nodes + j
-      total += m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
-    }
-    for (let k = 0; k < nCh; k++) {
-      const i = k * nodes + j
-      const pp = m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i])
-      const ps = m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
-      const phiP = fp * (2 * total - pp)
-      const phiS = fs * (2 * total - ps)
-      const qp = 0.25 * phiP * phiP
-      const qs = 0.25 * phiS * phiS
-      const dp = 1 + qp
-      const ds = 1 + qs
-      const r = 1 / (dp * ds)
-      const rp = ds * r
-      const rs = dp * r
-      rotate(uRe, uIm, i, (1 - qp) * rp, phiP * rp)
-      rotate(vRe, vIm, i, (1 - qs) * rs, phiS * rs)
-    }
-  }
-}
-
-/**
- * Step 3 with Kerr: the first Kerr half step and the exchange with B frozen over one division. The half step's
- * factors (1 − q + iφ)/(1 + q) and the exchange's 1/(1 + q_e) share r = 1/((1 + q_e)((1 + q_p)(1 + q_s))): the
- * pump turned by ((1 − q_p) + iφ_p)(1 + q_s), the Stokes wave by ((1 − q_s) + iφ_s)(1 + q_p), then the exchange's
- * numerators, then ·r.
- */
-function kerrHalfStepAndExchange(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
+function kerrExchange(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
   const nCh = m.nCh
   const nodes = m.nodes
   const { uRe, uIm, vRe, vIm, scratch } = s
-  const fp = m.kerrHalfPump * weight
-  const fs = m.kerrHalfStokes * weight
+  const kp = m.kappaP
+  const ks = m.rates.kappa
   const c = m.exchangePerB * weight
+  const { app, aps, asp, ass, dpc, dsc, gp, gs, epc, esc } = kerrPhaseCoefficients(m.kerrHalfPump * weight, m.kerrHalfStokes * weight, kp, ks, c)
   for (let j = j0; j <= j1; j++) {
     let total = 0
+    let ySum = 0
     for (let k = 0; k < nCh; k++) {
       const i = k * nodes + j
-      total += m.kappaP * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + m.rates.kappa * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+      total += kp * (uRe[i] * uRe[i] + uIm[i] * uIm[i]) + ks * (vRe[i] * vRe[i] + vIm[i] * vIm[i])
+      ySum += scratch[SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0) + 10]
     }
     for (let k = 0; k < nCh; k++) {
       const i = k * nodes + j
       const o = SCRATCH_PER_CHANNEL * (k * SCRATCH_NODES + j - j0)
       const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
-      const pp = m.kappaP * (ur * ur + ui * ui)
-      const ps = m.rates.kappa * (vr * vr + vi * vi)
-      const phiP = fp * (2 * total - pp)
-      const phiS = fs * (2 * total - ps)
-      const qp = 0.25 * phiP * phiP
-      const qs = 0.25 * phiS * phiS
+      const uu = ur * ur + ui * ui
+      const vv = vr * vr + vi * vi
+      const other = total - (kp * uu + ks * vv)
+      const y = scratch[o + 10]
+      const yOther = ySum - y
+      const phiP = app * uu + aps * vv + gp * other
+      const phiS = asp * uu + ass * vv + gs * other
+      const tp0 = 2 * phiP + dpc * y + epc * yOther
+      const ts0 = 2 * phiS + dsc * y + esc * yOther
+      const tp = tp0 * (1 + TWELFTH * tp0 * tp0)
+      const ts = ts0 * (1 + TWELFTH * ts0 * ts0)
+      const dphi = phiS - phiP
+      const qr = 0.25 * dphi * dphi
+      const qp = 0.25 * tp * tp
+      const qs = 0.25 * ts * ts
       const dp = 1 + qp
       const ds = 1 + qs
       const betaR = c * scratch[o + 4], betaI = c * scratch[o + 5]
       const qe = 0.25 * (betaR * betaR + betaI * betaI)
-      const a = 1 - qe
-      const den = 1 / ((1 + qe) * (dp * ds))
-      let cr = (1 - qp) * ds
-      let ci = phiP * ds
-      const kur = cr * ur - ci * ui
-      const kui = cr * ui + ci * ur
-      cr = (1 - qs) * dp
-      ci = phiS * dp
-      const kvr = cr * vr - ci * vi
-      const kvi = cr * vi + ci * vr
-      uRe[i] = (a * kur - betaR * kvi - betaI * kvr) * den
-      uIm[i] = (a * kui + betaR * kvr - betaI * kvi) * den
-      vRe[i] = (a * kvr - betaR * kui + betaI * kur) * den
-      vIm[i] = (a * kvi + betaR * kur + betaI * kui) * den
+      const dr = 1 + qr
+      const r = 1 / (((1 + qe) * dr) * (dp * ds))
+      const a = (1 - qe) * dr
+      const cr0 = 1 - qr
+      const xr = betaR * cr0 - betaI * dphi
+      const xi = betaR * dphi + betaI * cr0
+      const eur = a * ur - xr * vi - xi * vr
+      const eui = a * ui + xr * vr - xi * vi
+      const evr = a * vr - xr * ui + xi * ur
+      const evi = a * vi + xr * ur + xi * ui
+      const rp = ds * r
+      const rs = dp * r
+      let cr = (1 - qp) * rp
+      let ci = tp * rp
+      uRe[i] = cr * eur - ci * eui
+      uIm[i] = cr * eui + ci * eur
+      cr = (1 - qs) * rs
+      ci = ts * rs
+      vRe[i] = cr * evr - ci * evi
+      vIm[i] = cr * evi + ci * evr
     }
   }
-}
-
-/** Multiply element i by cr + i·ci. */
-function rotate(re: Float64Array, im: Float64Array, i: number, cr: number, ci: number): void {
-  const r = re[i], x = im[i]
-  re[i] = cr * r - ci * x
-  im[i] = cr * x + ci * r
 }

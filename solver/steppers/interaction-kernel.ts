@@ -14,10 +14,12 @@
  *  3. Optical exchange with b̄ frozen, in Cayley (implicit-midpoint) form:
  *     (u, v) ← [[1 − |β|²/4, iβ], [iβ*, 1 − |β|²/4]](u, v)/(1 + |β|²/4),  β = √(κκp)·vg·Δt·weight·b̄.
  *     The matrix is exactly unitary, so |u|² + |v|² (photon flux) is kept to round-off: Manley–Rowe.
- *     Kerr phases, when on, are applied as half steps before and after, also in Cayley form (unit modulus),
- *     A ← A·(1 − q + iφ)/(1 + q), q = φ²/4, φ_p = f_p(2P − P_p), φ_s = f_s(2P − P_s); the quotients share
- *     reciprocals (the first half step's with the exchange's: general-kernel.ts, docs/numerics.md);
- *     their change of D over the step is left out of D₁ − D₀ (b̄ then keeps an O(Δt²) Kerr part: still order 2).
+ *     Kerr phases, when on, are half steps before and after (Strang), computed as one exchange and one rotation
+ *     (kerr-phase.ts): the first half step moved through the exchange turns β by the Cayley factor of φ_s − φ_p,
+ *     then each field turns once by the whole step's phase θ at the midpoint powers (the exchange's power change to
+ *     first order, from b̂), as the Cayley factor of θ(1 + θ²/12) (unit modulus, turns by θ to O(θ⁵)); one
+ *     reciprocal per node (general-kernel.ts, docs/numerics.md). Their change of D over the step is left out of
+ *     D₁ − D₀ (b̄ then keeps an O(Δt²) Kerr part: still order 2).
  *  4. Corrector: D₁ from the exchanged fields; b ← e^{−λΔt}(b + Δt/2·D₀) + Δt/2·D₁ (SVEA), or the ETD step
  *     with the linearly interpolated source (higher order).
  *  5. Thermal noise (when on): one complex normal draw per node and step, the exact Ornstein–Uhlenbeck kick X

@@ -2,22 +2,22 @@
  * Fast path with Kerr phases: one channel, SVEA, no noise. The steps of the contract in
  * interaction-kernel.ts, as `interactGeneral` computes them for that case, written flat per node (no
  * scratch, no calls) and with the general kernel's own rounding order, so the results are the same bits:
- *   D₀ = iK·u·v*,  b̃ = E(b + h·D₀),  b̂ = ½(b + b̃),  b̄ = b̂ + hφ₃·K·c·w·b̂·(|u|² − |v|²)
+ *   p = u·v*,  D₀ = iK·p,  b̃ = E(b + h·D₀),  b̂ = ½(b + b̃),  b̄ = b̂ + hφ₃·K·c·w·b̂·(|u|² − |v|²)
  *   (the step-mean with D₁ − D₀ from the exchange to first order: steppers/step-mean.ts)
- *   Kerr half step:  φ_p = κ_p,Kerr·w·(2P − P_p),  φ_s = κ_s,Kerr·w·(2P − P_s),  P = P_p + P_s,
- *                    P_p = κ_p|u|²,  P_s = κ|v|²,  A ← A·(1 − q + iφ)/(1 + q),  q = φ²/4   (Cayley, unit modulus)
- *   exchange with β = c·w·b̄ (Cayley, unitary): (u, v) ← (a·u + iβ·v, a·v + iβ*·u)/(1 + q_e),  a = 1 − q_e,  q_e = |β|²/4,
- *   Kerr half step again with the exchanged fields,  b ← E(b + h/2·D₀) + h/2·D₁.
- * Divisions set the cost of this step, so the quotients share reciprocals (two divisions where nine stood):
- *   first half step and exchange:  r = 1/((1 + q_e)·((1 + q_p)(1 + q_s))),  ũ = ((1 − q_p) + iφ_p)(1 + q_s)·u,
- *                                  ṽ = ((1 − q_s) + iφ_s)(1 + q_p)·v,  (u, v) ← (a·ũ + iβ·ṽ, a·ṽ + iβ*·ũ)·r
- *   second half step:              r = 1/((1 + q_p)(1 + q_s)),  u ← u·((1 − q_p) + iφ_p)·(1 + q_s)r,
- *                                  v ← v·((1 − q_s) + iφ_s)·(1 + q_p)r
+ *   φ_p = a_pp|u|² + a_ps|v|²,  φ_s = a_sp|u|² + a_ss|v|²  (first half step),  y = Re(b̂)·Im(p) − Im(b̂)·Re(p),
+ *   θ = 2φ + d·y  (whole step, midpoint powers),  ψ = θ(1 + θ²/12),  Δφ = φ_s − φ_p   (kerr-phase.ts)
+ *   r = 1/(((1 + q_e)(1 + q_r))((1 + q_p)(1 + q_s))),  q_e = |β|²/4, β = c·w·b̄,  q_r = Δφ²/4,  q_p,s = ψ_p,s²/4,
+ *   a = (1 − q_e)(1 + q_r),  β' = β·((1 − q_r) + iΔφ)   (exchange in the first half step's frame, numerators)
+ *   u ← ((1 − q_p) + iψ_p)·(1 + q_s)r·(a·u + iβ'·v),  v ← ((1 − q_s) + iψ_s)·(1 + q_p)r·(a·v + iβ'*·u),
+ *   b ← E(b + h/2·D₀) + h/2·D₁.
+ * The rotation does not wait for the exchange (its phase comes from the entry fields and b̂), so the chain of
+ * dependent operations per node is barely longer than the plain step's, with one division.
  * tests/solver/kernel-bits.test.ts holds the general kernel's recorded hash of a Kerr run, which this path
  * must reproduce.
  */
 import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
+import { kerrPhaseCoefficients, TWELFTH } from './kerr-phase'
 import { sveaStepMean } from './step-mean'
 
 /** True when the single-channel SVEA path with Kerr phases applies (Kerr on, no noise, no higher-order term). */
@@ -38,13 +38,17 @@ export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number
   const ks = m.rates.kappa
   const fp = m.kerrHalfPump * weight
   const fs = m.kerrHalfStokes * weight
+  const { app, aps, asp, ass, dpc, dsc } = kerrPhaseCoefficients(fp, fs, kp, ks, c)
   const kc = K * c
   const { m2r, m2i } = sveaStepMean(Er, Ei, h)
   for (let j = j0; j <= j1; j++) {
     const ur = uRe[j], ui = uIm[j], vr = vRe[j], vi = vIm[j]
     const br = bRe[j], bi = bIm[j]
-    const d0r = -K * (ui * vr - ur * vi)
-    const d0i = K * (ur * vr + ui * vi)
+    // p = u·v*: D₀ = iK·p, and the exchange's first-order change of the powers.
+    const pr = ur * vr + ui * vi
+    const pi = ui * vr - ur * vi
+    const d0r = -K * pi
+    const d0i = K * pr
     const tr = br + h * d0r
     const ti = bi + h * d0i
     const btr = 0.5 * (br + (Er * tr - Ei * ti))
@@ -56,52 +60,43 @@ export function interactSveaKerr(m: Model, s: FieldState, j0: number, j1: number
     const ei = g * bti
     const bbr = btr + (m2r * er - m2i * ei)
     const bbi = bti + (m2r * ei + m2i * er)
-    // Kerr half step and exchange with b̄ frozen over one reciprocal.
-    let pp = kp * uu
-    let ps = ks * vv
-    let total = pp + ps
-    let phiP = fp * (2 * total - pp)
-    let phiS = fs * (2 * total - ps)
-    let qp = 0.25 * phiP * phiP
-    let qs = 0.25 * phiS * phiS
-    let dp = 1 + qp
-    let ds = 1 + qs
+    // Kerr phases: the first half step's from the entry powers, the whole step's at the midpoint powers.
+    const phiP = app * uu + aps * vv
+    const phiS = asp * uu + ass * vv
+    const y = btr * pi - bti * pr
+    const tp0 = 2 * phiP + dpc * y
+    const ts0 = 2 * phiS + dsc * y
+    const tp = tp0 * (1 + TWELFTH * tp0 * tp0)
+    const ts = ts0 * (1 + TWELFTH * ts0 * ts0)
+    const dphi = phiS - phiP
+    const qr = 0.25 * dphi * dphi
+    const qp = 0.25 * tp * tp
+    const qs = 0.25 * ts * ts
+    const dp = 1 + qp
+    const ds = 1 + qs
     const betaR = c * bbr
     const betaI = c * bbi
     const qe = 0.25 * (betaR * betaR + betaI * betaI)
-    const a = 1 - qe
-    const den = 1 / ((1 + qe) * (dp * ds))
-    let cr = (1 - qp) * ds
-    let ci = phiP * ds
-    const kur = cr * ur - ci * ui
-    const kui = cr * ui + ci * ur
-    cr = (1 - qs) * dp
-    ci = phiS * dp
-    const kvr = cr * vr - ci * vi
-    const kvi = cr * vi + ci * vr
-    const eur = (a * kur - betaR * kvi - betaI * kvr) * den
-    const eui = (a * kui + betaR * kvr - betaI * kvi) * den
-    const evr = (a * kvr - betaR * kui + betaI * kur) * den
-    const evi = (a * kvi + betaR * kur + betaI * kui) * den
-    // Kerr half step after the exchange.
-    pp = kp * (eur * eur + eui * eui)
-    ps = ks * (evr * evr + evi * evi)
-    total = pp + ps
-    phiP = fp * (2 * total - pp)
-    phiS = fs * (2 * total - ps)
-    qp = 0.25 * phiP * phiP
-    qs = 0.25 * phiS * phiS
-    dp = 1 + qp
-    ds = 1 + qs
-    const r = 1 / (dp * ds)
+    const dr = 1 + qr
+    const r = 1 / (((1 + qe) * dr) * (dp * ds))
+    // The exchange in the first half step's frame: β turned by the Cayley factor of φ_s − φ_p (numerators).
+    const a = (1 - qe) * dr
+    const cr0 = 1 - qr
+    const xr = betaR * cr0 - betaI * dphi
+    const xi = betaR * dphi + betaI * cr0
+    const eur = a * ur - xr * vi - xi * vr
+    const eui = a * ui + xr * vr - xi * vi
+    const evr = a * vr - xr * ui + xi * ur
+    const evi = a * vi + xr * ur + xi * ui
+    // The whole step's Kerr rotations, each over the shared reciprocal.
     const rp = ds * r
     const rs = dp * r
-    cr = (1 - qp) * rp
-    ci = phiP * rp
+    let cr = (1 - qp) * rp
+    let ci = tp * rp
     const nur = cr * eur - ci * eui
     const nui = cr * eui + ci * eur
     cr = (1 - qs) * rs
-    ci = phiS * rs
+    ci = ts * rs
     const nvr = cr * evr - ci * evi
     const nvi = cr * evi + ci * evr
     uRe[j] = nur

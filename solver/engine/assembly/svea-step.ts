@@ -248,12 +248,16 @@ export function transport(uRe: usize, uIm: usize, vRe: usize, vIm: usize, nz: i3
 
 /*
  * The single-channel SVEA step with Kerr phases: `interactSveaKerr` of solver/steppers/svea-kerr-kernel.ts
- * (the general kernel's order, equations there), two nodes at a time. Kerr half step with φ_p = f_p(2P − P_p),
- * φ_s = f_s(2P − P_s), q = φ²/4, A ← A·(1 − q + iφ)/(1 + q) (Cayley), over shared reciprocals:
- *   first half step and exchange:  r = 1/((1 + q_e)·((1 + q_p)(1 + q_s))),  ũ = ((1 − q_p) + iφ_p)(1 + q_s)·u,
- *                                  ṽ = ((1 − q_s) + iφ_s)(1 + q_p)·v,  (u, v) ← (a·ũ + iβ·ṽ, a·ṽ + iβ*·ũ)·r
- *   second half step:              r = 1/((1 + q_p)(1 + q_s)),  u ← u·((1 − q_p) + iφ_p)·(1 + q_s)r, v likewise.
+ * (the general kernel's order, equations there and in solver/steppers/kerr-phase.ts), two nodes at a time:
+ *   φ_p = a_pp|u|² + a_ps|v|²,  φ_s = a_sp|u|² + a_ss|v|²  (first half step),  y = Re(b̂)·Im(uv*) − Im(b̂)·Re(uv*),
+ *   θ_p = 2φ_p + d_p·y,  θ_s = 2φ_s + d_s·y  (whole step at the midpoint powers),  Δφ = φ_s − φ_p,  q = (·)²/4,
+ *   θ ← θ(1 + θ²/12) (the Cayley factor of that turns by θ to O(θ⁵)),
+ *   r = 1/(((1 + q_e)(1 + q_r))((1 + q_p)(1 + q_s))),  a = (1 − q_e)(1 + q_r),  β' = β·((1 − q_r) + iΔφ),
+ *   u ← ((1 − q_p) + iθ_p)·(1 + q_s)r·(a·u + iβ'·v),  v ← ((1 − q_s) + iθ_s)·(1 + q_p)r·(a·v + iβ'*·u).
  */
+/** 1/12, the tangent correction of a Cayley angle (solver/steppers/kerr-phase.ts). */
+const TWELFTH: f64 = 1.0 / 12.0
+
 // @ts-ignore: decorator
 @inline
 function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize, bIm: usize, j0: i32, j1: i32, weight: f64, K: f64, exchangePerB: f64, Er: f64, Ei: f64, h: f64, kp: f64, ks: f64, kerrHalfPump: f64, kerrHalfStokes: f64): void {
@@ -261,6 +265,13 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
   const c = exchangePerB * weight
   const fp = kerrHalfPump * weight
   const fs = kerrHalfStokes * weight
+  // kerrPhaseCoefficients of solver/steppers/kerr-phase.ts, the same expressions.
+  const app = fp * kp
+  const aps = 2.0 * fp * ks
+  const asp = 2.0 * fs * kp
+  const ass = fs * ks
+  const dpc = 2.0 * c * (app - aps)
+  const dsc = 2.0 * c * (asp - ass)
   const kc = K * c
   stepMean(Er, Ei, h)
   const vKc = f64x2.splat(kc)
@@ -273,14 +284,17 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
   const vEr = f64x2.splat(Er)
   const vEi = f64x2.splat(Ei)
   const vC = f64x2.splat(c)
-  const vKp = f64x2.splat(kp)
-  const vKs = f64x2.splat(ks)
-  const vFp = f64x2.splat(fp)
-  const vFs = f64x2.splat(fs)
+  const vApp = f64x2.splat(app)
+  const vAps = f64x2.splat(aps)
+  const vAsp = f64x2.splat(asp)
+  const vAss = f64x2.splat(ass)
+  const vDpc = f64x2.splat(dpc)
+  const vDsc = f64x2.splat(dsc)
   const vHalf = f64x2.splat(0.5)
   const vTwo = f64x2.splat(2.0)
   const vQuarter = f64x2.splat(0.25)
   const vOne = f64x2.splat(1.0)
+  const vTwelfth = f64x2.splat(TWELFTH)
   let j = j0
   for (; j < j1; j += 2) {
     const o = <usize>j << 3
@@ -290,8 +304,10 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const vi = v128.load(vIm + o)
     const br = v128.load(bRe + o)
     const bi = v128.load(bIm + o)
-    const d0r = f64x2.mul(vNegK, f64x2.sub(f64x2.mul(ui, vr), f64x2.mul(ur, vi)))
-    const d0i = f64x2.mul(vK, f64x2.add(f64x2.mul(ur, vr), f64x2.mul(ui, vi)))
+    const pr = f64x2.add(f64x2.mul(ur, vr), f64x2.mul(ui, vi))
+    const pi = f64x2.sub(f64x2.mul(ui, vr), f64x2.mul(ur, vi))
+    const d0r = f64x2.mul(vNegK, pi)
+    const d0i = f64x2.mul(vK, pr)
     const tr = f64x2.add(br, f64x2.mul(vH, d0r))
     const ti = f64x2.add(bi, f64x2.mul(vH, d0i))
     const btr = f64x2.mul(vHalf, f64x2.add(br, f64x2.sub(f64x2.mul(vEr, tr), f64x2.mul(vEi, ti))))
@@ -303,52 +319,42 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const ei = f64x2.mul(g, bti)
     const bbr = f64x2.add(btr, f64x2.sub(f64x2.mul(vM2r, er), f64x2.mul(vM2i, ei)))
     const bbi = f64x2.add(bti, f64x2.add(f64x2.mul(vM2r, ei), f64x2.mul(vM2i, er)))
-    // Kerr half step and exchange with b̄ frozen over one reciprocal.
-    let pp = f64x2.mul(vKp, uu)
-    let ps = f64x2.mul(vKs, vv)
-    let total = f64x2.add(pp, ps)
-    let phiP = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
-    let phiS = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
-    let qp = f64x2.mul(f64x2.mul(vQuarter, phiP), phiP)
-    let qs = f64x2.mul(f64x2.mul(vQuarter, phiS), phiS)
-    let dp = f64x2.add(vOne, qp)
-    let ds = f64x2.add(vOne, qs)
+    // Kerr phases: the first half step's from the entry powers, the whole step's at the midpoint powers.
+    const phiP = f64x2.add(f64x2.mul(vApp, uu), f64x2.mul(vAps, vv))
+    const phiS = f64x2.add(f64x2.mul(vAsp, uu), f64x2.mul(vAss, vv))
+    const y = f64x2.sub(f64x2.mul(btr, pi), f64x2.mul(bti, pr))
+    const tp0 = f64x2.add(f64x2.mul(vTwo, phiP), f64x2.mul(vDpc, y))
+    const ts0 = f64x2.add(f64x2.mul(vTwo, phiS), f64x2.mul(vDsc, y))
+    const tp = f64x2.mul(tp0, f64x2.add(vOne, f64x2.mul(f64x2.mul(vTwelfth, tp0), tp0)))
+    const ts = f64x2.mul(ts0, f64x2.add(vOne, f64x2.mul(f64x2.mul(vTwelfth, ts0), ts0)))
+    const dphi = f64x2.sub(phiS, phiP)
+    const qr = f64x2.mul(f64x2.mul(vQuarter, dphi), dphi)
+    const qp = f64x2.mul(f64x2.mul(vQuarter, tp), tp)
+    const qs = f64x2.mul(f64x2.mul(vQuarter, ts), ts)
+    const dp = f64x2.add(vOne, qp)
+    const ds = f64x2.add(vOne, qs)
     const betaR = f64x2.mul(vC, bbr)
     const betaI = f64x2.mul(vC, bbi)
     const qe = f64x2.mul(vQuarter, f64x2.add(f64x2.mul(betaR, betaR), f64x2.mul(betaI, betaI)))
-    const a = f64x2.sub(vOne, qe)
-    const den = f64x2.div(vOne, f64x2.mul(f64x2.add(vOne, qe), f64x2.mul(dp, ds)))
-    let cr = f64x2.mul(f64x2.sub(vOne, qp), ds)
-    let ci = f64x2.mul(phiP, ds)
-    const kur = f64x2.sub(f64x2.mul(cr, ur), f64x2.mul(ci, ui))
-    const kui = f64x2.add(f64x2.mul(cr, ui), f64x2.mul(ci, ur))
-    cr = f64x2.mul(f64x2.sub(vOne, qs), dp)
-    ci = f64x2.mul(phiS, dp)
-    const kvr = f64x2.sub(f64x2.mul(cr, vr), f64x2.mul(ci, vi))
-    const kvi = f64x2.add(f64x2.mul(cr, vi), f64x2.mul(ci, vr))
-    const eur = f64x2.mul(f64x2.sub(f64x2.sub(f64x2.mul(a, kur), f64x2.mul(betaR, kvi)), f64x2.mul(betaI, kvr)), den)
-    const eui = f64x2.mul(f64x2.sub(f64x2.add(f64x2.mul(a, kui), f64x2.mul(betaR, kvr)), f64x2.mul(betaI, kvi)), den)
-    const evr = f64x2.mul(f64x2.add(f64x2.sub(f64x2.mul(a, kvr), f64x2.mul(betaR, kui)), f64x2.mul(betaI, kur)), den)
-    const evi = f64x2.mul(f64x2.add(f64x2.add(f64x2.mul(a, kvi), f64x2.mul(betaR, kur)), f64x2.mul(betaI, kui)), den)
-    // Kerr half step after the exchange.
-    pp = f64x2.mul(vKp, f64x2.add(f64x2.mul(eur, eur), f64x2.mul(eui, eui)))
-    ps = f64x2.mul(vKs, f64x2.add(f64x2.mul(evr, evr), f64x2.mul(evi, evi)))
-    total = f64x2.add(pp, ps)
-    phiP = f64x2.mul(vFp, f64x2.sub(f64x2.mul(vTwo, total), pp))
-    phiS = f64x2.mul(vFs, f64x2.sub(f64x2.mul(vTwo, total), ps))
-    qp = f64x2.mul(f64x2.mul(vQuarter, phiP), phiP)
-    qs = f64x2.mul(f64x2.mul(vQuarter, phiS), phiS)
-    dp = f64x2.add(vOne, qp)
-    ds = f64x2.add(vOne, qs)
-    const r = f64x2.div(vOne, f64x2.mul(dp, ds))
+    const dr = f64x2.add(vOne, qr)
+    const r = f64x2.div(vOne, f64x2.mul(f64x2.mul(f64x2.add(vOne, qe), dr), f64x2.mul(dp, ds)))
+    // The exchange in the first half step's frame (numerators), then the whole step's rotations over r.
+    const a = f64x2.mul(f64x2.sub(vOne, qe), dr)
+    const cr0 = f64x2.sub(vOne, qr)
+    const xr = f64x2.sub(f64x2.mul(betaR, cr0), f64x2.mul(betaI, dphi))
+    const xi = f64x2.add(f64x2.mul(betaR, dphi), f64x2.mul(betaI, cr0))
+    const eur = f64x2.sub(f64x2.sub(f64x2.mul(a, ur), f64x2.mul(xr, vi)), f64x2.mul(xi, vr))
+    const eui = f64x2.sub(f64x2.add(f64x2.mul(a, ui), f64x2.mul(xr, vr)), f64x2.mul(xi, vi))
+    const evr = f64x2.add(f64x2.sub(f64x2.mul(a, vr), f64x2.mul(xr, ui)), f64x2.mul(xi, ur))
+    const evi = f64x2.add(f64x2.add(f64x2.mul(a, vi), f64x2.mul(xr, ur)), f64x2.mul(xi, ui))
     const rp = f64x2.mul(ds, r)
     const rs = f64x2.mul(dp, r)
-    cr = f64x2.mul(f64x2.sub(vOne, qp), rp)
-    ci = f64x2.mul(phiP, rp)
+    let cr = f64x2.mul(f64x2.sub(vOne, qp), rp)
+    let ci = f64x2.mul(tp, rp)
     const nur = f64x2.sub(f64x2.mul(cr, eur), f64x2.mul(ci, eui))
     const nui = f64x2.add(f64x2.mul(cr, eui), f64x2.mul(ci, eur))
     cr = f64x2.mul(f64x2.sub(vOne, qs), rs)
-    ci = f64x2.mul(phiS, rs)
+    ci = f64x2.mul(ts, rs)
     const nvr = f64x2.sub(f64x2.mul(cr, evr), f64x2.mul(ci, evi))
     const nvi = f64x2.add(f64x2.mul(cr, evi), f64x2.mul(ci, evr))
     v128.store(uRe + o, nur)
@@ -371,8 +377,10 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const vi = load<f64>(vIm + o)
     const br = load<f64>(bRe + o)
     const bi = load<f64>(bIm + o)
-    const d0r = -K * (ui * vr - ur * vi)
-    const d0i = K * (ur * vr + ui * vi)
+    const pr = ur * vr + ui * vi
+    const pi = ui * vr - ur * vi
+    const d0r = -K * pi
+    const d0i = K * pr
     const tr = br + h * d0r
     const ti = bi + h * d0i
     const btr = 0.5 * (br + (Er * tr - Ei * ti))
@@ -384,50 +392,40 @@ function exchangeKerr(uRe: usize, uIm: usize, vRe: usize, vIm: usize, bRe: usize
     const ei = g * bti
     const bbr = btr + (m2r * er - m2i * ei)
     const bbi = bti + (m2r * ei + m2i * er)
-    let pp = kp * uu
-    let ps = ks * vv
-    let total = pp + ps
-    let phiP = fp * (2.0 * total - pp)
-    let phiS = fs * (2.0 * total - ps)
-    let qp = 0.25 * phiP * phiP
-    let qs = 0.25 * phiS * phiS
-    let dp = 1.0 + qp
-    let ds = 1.0 + qs
+    const phiP = app * uu + aps * vv
+    const phiS = asp * uu + ass * vv
+    const y = btr * pi - bti * pr
+    const tp0 = 2.0 * phiP + dpc * y
+    const ts0 = 2.0 * phiS + dsc * y
+    const tp = tp0 * (1.0 + TWELFTH * tp0 * tp0)
+    const ts = ts0 * (1.0 + TWELFTH * ts0 * ts0)
+    const dphi = phiS - phiP
+    const qr = 0.25 * dphi * dphi
+    const qp = 0.25 * tp * tp
+    const qs = 0.25 * ts * ts
+    const dp = 1.0 + qp
+    const ds = 1.0 + qs
     const betaR = c * bbr
     const betaI = c * bbi
     const qe = 0.25 * (betaR * betaR + betaI * betaI)
-    const a = 1.0 - qe
-    const den = 1.0 / ((1.0 + qe) * (dp * ds))
-    let cr = (1.0 - qp) * ds
-    let ci = phiP * ds
-    const kur = cr * ur - ci * ui
-    const kui = cr * ui + ci * ur
-    cr = (1.0 - qs) * dp
-    ci = phiS * dp
-    const kvr = cr * vr - ci * vi
-    const kvi = cr * vi + ci * vr
-    const eur = (a * kur - betaR * kvi - betaI * kvr) * den
-    const eui = (a * kui + betaR * kvr - betaI * kvi) * den
-    const evr = (a * kvr - betaR * kui + betaI * kur) * den
-    const evi = (a * kvi + betaR * kur + betaI * kui) * den
-    pp = kp * (eur * eur + eui * eui)
-    ps = ks * (evr * evr + evi * evi)
-    total = pp + ps
-    phiP = fp * (2.0 * total - pp)
-    phiS = fs * (2.0 * total - ps)
-    qp = 0.25 * phiP * phiP
-    qs = 0.25 * phiS * phiS
-    dp = 1.0 + qp
-    ds = 1.0 + qs
-    const r = 1.0 / (dp * ds)
+    const dr = 1.0 + qr
+    const r = 1.0 / (((1.0 + qe) * dr) * (dp * ds))
+    const a = (1.0 - qe) * dr
+    const cr0 = 1.0 - qr
+    const xr = betaR * cr0 - betaI * dphi
+    const xi = betaR * dphi + betaI * cr0
+    const eur = a * ur - xr * vi - xi * vr
+    const eui = a * ui + xr * vr - xi * vi
+    const evr = a * vr - xr * ui + xi * ur
+    const evi = a * vi + xr * ur + xi * ui
     const rp = ds * r
     const rs = dp * r
-    cr = (1.0 - qp) * rp
-    ci = phiP * rp
+    let cr = (1.0 - qp) * rp
+    let ci = tp * rp
     const nur = cr * eur - ci * eui
     const nui = cr * eui + ci * eur
     cr = (1.0 - qs) * rs
-    ci = phiS * rs
+    ci = ts * rs
     const nvr = cr * evr - ci * evi
     const nvi = cr * evi + ci * evr
     store<f64>(uRe + o, nur)
