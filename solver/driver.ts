@@ -15,6 +15,7 @@ import { planStorageReference, type ReferencePlan } from './storage-reference'
 import { EngineUnavailableError, resolveEngine, WasmSveaEngine, type EngineChoice } from './engine/wasm-engine'
 import { interactSveaKerr, kerrFastPathApplies } from './steppers/svea-kerr-kernel'
 import { interactSveaNoise, noiseFastPathApplies } from './steppers/svea-noise-kernel'
+import { interactSveaKerrNoise, kerrNoiseFastPathApplies } from './steppers/svea-kerr-noise-kernel'
 import { higherOrderFastPathApplies, interactHigherOrder } from './steppers/higher-order-kernel'
 import { channelsFastPathApplies, interactSveaChannels } from './steppers/svea-channels-kernel'
 import { ZigguratNormal } from './steppers/ziggurat-normal'
@@ -49,6 +50,8 @@ export class SimulationRun {
   private readonly fast: boolean
   /** One channel, SVEA, Kerr, no noise: the flat Kerr kernel (same bits as the general one). */
   private readonly kerrFast: boolean
+  /** One channel, SVEA, Kerr and thermal noise together: their flat kernel (same bits as the general one). */
+  private readonly kerrNoiseFast: boolean
   /** One channel, SVEA, thermal noise, no Kerr / one channel, higher-order term, no Kerr: flat kernels (same bits). */
   private readonly noiseFast: boolean
   private readonly higherOrderFast: boolean
@@ -110,6 +113,7 @@ export class SimulationRun {
     this.fast = !this.profile && !this.forceGeneral && fastPathApplies(m)
     this.kerrFast = !this.profile && !this.forceGeneral && kerrFastPathApplies(m)
     this.noiseFast = !this.profile && !this.forceGeneral && this.rng !== null && !this.fast && noiseFastPathApplies(m)
+    this.kerrNoiseFast = !this.profile && !this.forceGeneral && this.rng !== null && kerrNoiseFastPathApplies(m)
     this.higherOrderFast = !this.profile && !this.forceGeneral && higherOrderFastPathApplies(m)
     this.channelsFast = !this.profile && !this.forceGeneral && this.rng === null && channelsFastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
@@ -136,6 +140,7 @@ export class SimulationRun {
     if (this.fast) return 'plain'
     if (this.kerrFast) return 'kerr'
     if (this.noiseFast) return 'noise'
+    if (this.kerrNoiseFast) return 'kerr-noise'
     if (this.higherOrderFast) return 'higher-order'
     if (this.channelsFast) return 'channels'
     return 'general'
@@ -214,6 +219,11 @@ export class SimulationRun {
         interactSveaKerr(m, s, 0, 0, 0.5)
         interactSveaKerr(m, s, 1, nz - 1, 1)
         interactSveaKerr(m, s, nz, nz, 0.5)
+      } else if (this.kerrNoiseFast) {
+        // Node order 0, 1..nz−1, nz: the order of the random draws (as the general kernel's).
+        interactSveaKerrNoise(m, s, 0, 0, 0.5, this.rng!)
+        interactSveaKerrNoise(m, s, 1, nz - 1, 1, this.rng!)
+        interactSveaKerrNoise(m, s, nz, nz, 0.5, this.rng!)
       } else if (this.noiseFast) {
         // Node order 0, 1..nz−1, nz: the order of the random draws (as the general kernel's).
         interactSveaNoise(m, s, 0, 0, 0.5, this.rng!)

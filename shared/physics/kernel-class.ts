@@ -4,12 +4,12 @@
 import { z } from 'zod'
 
 /**
- * The interaction kernel: the plain SVEA fast path, its flat Kerr, thermal-noise and second-order-acoustic
- * variants, the flat kernel of several channels without options, the per-node kernel of a longitudinal profile,
+ * The interaction kernel: the plain SVEA fast path, its flat Kerr, thermal-noise, Kerr-with-noise and
+ * second-order-acoustic variants, the flat kernel of several channels without options, the per-node kernel of a longitudinal profile,
  * the multi-wave solver, and the general reference kernel that takes every other combination (several channels
  * with an option, or two options together).
  */
-export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'higher-order', 'channels', 'profile', 'network', 'general'])
+export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'kerr-noise', 'higher-order', 'channels', 'profile', 'network', 'general'])
 export type KernelPath = z.infer<typeof KernelPath>
 
 export const KernelClass = z.object({
@@ -28,6 +28,7 @@ const PATH_WORDS: Record<KernelPath, string> = {
   plain: 'plain scheme',
   kerr: 'Kerr effect',
   noise: 'thermal noise',
+  'kerr-noise': 'Kerr effect with thermal noise',
   'higher-order': 'second-order acoustic equation',
   channels: 'several channels',
   profile: 'properties varying along the length',

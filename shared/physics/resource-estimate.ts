@@ -152,11 +152,13 @@ export function predictKernel(config: SimulationConfig, grid: GridCounts, engine
     if (engine === 'ts') return { engine: 'ts', threads: 1, path: kerr ? 'kerr' : 'plain' }
     return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
   }
-  // One flat kernel per option, and one for several channels without options; Kerr with another option, or
-  // several channels with one, take the general kernel.
-  const single = config.channels.length === 1 && !kerr
+  // One flat kernel per option, one for Kerr with thermal noise and one for several channels without options;
+  // Kerr with the higher-order term, or several channels with an option, take the general kernel.
+  const one = config.channels.length === 1
   const several = config.channels.length > 1 && !kerr && !o.noise.enabled && !o.higherOrderAcoustic
-  const path = single && o.higherOrderAcoustic ? 'higher-order' : single && o.noise.enabled ? 'noise' : several ? 'channels' : 'general'
+  const path = one && kerr
+    ? o.noise.enabled && !o.higherOrderAcoustic ? 'kerr-noise' : 'general'
+    : one && o.higherOrderAcoustic ? 'higher-order' : one && o.noise.enabled ? 'noise' : several ? 'channels' : 'general'
   return { engine: 'ts', threads: 1, path }
 }
 

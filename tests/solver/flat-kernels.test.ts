@@ -1,5 +1,6 @@
-// The flat one-channel kernels for thermal noise (solver/steppers/svea-noise-kernel.ts) and for the
-// higher-order acoustic equation (higher-order-kernel.ts), and the flat kernel for several channels
+// The flat one-channel kernels for thermal noise (solver/steppers/svea-noise-kernel.ts), for Kerr with thermal
+// noise (svea-kerr-noise-kernel.ts) and for the higher-order acoustic equation (higher-order-kernel.ts), and the
+// flat kernel for several channels
 // (svea-channels-kernel.ts), against the general kernel they are written from:
 // whole runs with the same seed, every returned array compared bit for bit (Object.is on each number). The
 // flat kernels claim the general kernel's IEEE operations in its order and its order of random draws, so a
@@ -23,6 +24,16 @@ const NOISE_CASES: Record<string, SimulationConfig> = {
   'chip, 40 cells, CW pump only (spontaneous Stokes), acoustic advection, seed 9': chipConfig({ windowNs: 3, grid: cells(40), channels: [{ pump: { backgroundPowerW: 0.3 } }], options: { acousticAdvection: true, noise: noise(9) } }),
   // The storage example forks its reference run mid-way; the fork continues the parent's stream of draws.
   'storage 150 ps with its reference run, seed 2': withNoise(example('storage-150ps-svea'), 2),
+}
+
+// n₂ of a chalcogenide glass scale (1e-17 m²/W on the 1 µm² chip: strong self-phase, every Kerr term visible).
+const KERR_NOISE_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, lossy, crossing pulses, detuned, seed 6': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30, kerrN2M2PerW: 1e-17 }, channels: [crossing], options: { kerr: true, noise: noise(6) } }),
+  'chip, 40 cells, CW pump only, acoustic advection, seed 8': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { kerrN2M2PerW: 1e-17 }, channels: [{ pump: { backgroundPowerW: 0.3 } }], options: { kerr: true, acousticAdvection: true, noise: noise(8) } }),
+  'storage 150 ps with its reference run, Kerr, seed 2': (() => {
+    const c = withNoise(example('storage-150ps-svea'), 2)
+    return { ...c, waveguide: { ...c.waveguide, kerrN2M2PerW: 1e-17 }, options: { ...c.options, kerr: true } }
+  })(),
 }
 
 const HIGHER_ORDER_CASES: Record<string, SimulationConfig> = {
@@ -55,7 +66,7 @@ function firstDifference(a: SimulationResult, b: SimulationResult): string | nul
   return null
 }
 
-function compare(config: SimulationConfig, flag: 'noiseFast' | 'higherOrderFast' | 'channelsFast'): void {
+function compare(config: SimulationConfig, flag: 'noiseFast' | 'kerrNoiseFast' | 'higherOrderFast' | 'channelsFast'): void {
   // The automatic choice takes the flat kernel (read off the run, so the comparison is not general vs general).
   expect(new SimulationRun(config, planGrid(config))[flag]).toBe(true)
   const flat = simulateSync(config, { engine: 'ts' })
@@ -68,6 +79,10 @@ function compare(config: SimulationConfig, flag: 'noiseFast' | 'higherOrderFast'
 
 describe('flat thermal-noise kernel: bit-identical to the general kernel', () => {
   for (const [name, config] of Object.entries(NOISE_CASES)) it(name, () => compare(config, 'noiseFast'))
+})
+
+describe('flat Kerr-with-noise kernel: bit-identical to the general kernel', () => {
+  for (const [name, config] of Object.entries(KERR_NOISE_CASES)) it(name, () => compare(config, 'kerrNoiseFast'))
 })
 
 describe('flat higher-order kernel: bit-identical to the general kernel', () => {
