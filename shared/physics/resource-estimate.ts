@@ -65,7 +65,9 @@ export const SPEED_FACTOR_NOISE = 0.45
  * plain one: benchmarks/kerr-noise-kernels.ts 2026-12-04 04:30 UTC (benchmarks/README.md), 0.67–0.71 at load
  * average 0.7–0.9 (TypeScript kernels 0.62–0.70); estimate-check.ts 04:35 UTC, load 1.1: 0.65 (85.1 M/s against the
  * engine's 2 × 65.4). Before, with two half steps: 0.55–0.59. Runs that need the general kernel (several channels,
- * noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel.
+ * noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel. Kerr with noise
+ * on one channel has its own flat kernel, 0.35–0.40 of the plain TypeScript path (general kernel 0.12–0.14); the
+ * product of this factor and the noise factor, 0.29, errs long by 1.2–1.4× there.
  */
 export const SPEED_FACTOR_KERR = 0.65
 /**
