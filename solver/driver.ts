@@ -55,7 +55,7 @@ export class SimulationRun {
   /** One channel, SVEA, thermal noise, no Kerr / one channel, higher-order term, no Kerr: flat kernels (same bits). */
   private readonly noiseFast: boolean
   private readonly higherOrderFast: boolean
-  /** Several channels, SVEA, no option: the flat several-channel kernel (same bits). */
+  /** Several channels, SVEA, no option but Kerr: the flat several-channel kernel (same bits). */
   private readonly channelsFast: boolean
   /** Per-node constants of a waveguide with a longitudinal profile (its own kernel), else null. */
   readonly profile: ProfileArrays | null
@@ -142,7 +142,7 @@ export class SimulationRun {
     if (this.noiseFast) return 'noise'
     if (this.kerrNoiseFast) return 'kerr-noise'
     if (this.higherOrderFast) return 'higher-order'
-    if (this.channelsFast) return 'channels'
+    if (this.channelsFast) return this.model.kerrHalfPump !== 0 || this.model.kerrHalfStokes !== 0 ? 'channels-kerr' : 'channels'
     return 'general'
   }
 

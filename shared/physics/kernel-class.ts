@@ -5,11 +5,11 @@ import { z } from 'zod'
 
 /**
  * The interaction kernel: the plain SVEA fast path, its flat Kerr, thermal-noise, Kerr-with-noise and
- * second-order-acoustic variants, the flat kernel of several channels without options, the per-node kernel of a longitudinal profile,
- * the multi-wave solver, and the general reference kernel that takes every other combination (several channels
- * with an option, or two options together).
+ * second-order-acoustic variants, the flat kernel of several channels (without options, or with Kerr), the
+ * per-node kernel of a longitudinal profile, the multi-wave solver, and the general reference kernel that takes
+ * every other combination (several channels with noise or the second-order term, Kerr with that term).
  */
-export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'kerr-noise', 'higher-order', 'channels', 'profile', 'network', 'general'])
+export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'kerr-noise', 'higher-order', 'channels', 'channels-kerr', 'profile', 'network', 'general'])
 export type KernelPath = z.infer<typeof KernelPath>
 
 export const KernelClass = z.object({
@@ -31,9 +31,10 @@ const PATH_WORDS: Record<KernelPath, string> = {
   'kerr-noise': 'Kerr effect with thermal noise',
   'higher-order': 'second-order acoustic equation',
   channels: 'several channels',
+  'channels-kerr': 'several channels with the Kerr effect',
   profile: 'properties varying along the length',
   network: 'several waves',
-  general: 'general kernel (several channels with options, or options together)',
+  general: 'general kernel (several channels with noise or the second-order acoustic term, or Kerr with that term)',
 }
 
 /** The class in words a user reads ("WebAssembly engine, plain scheme, 2 threads"). */

@@ -154,13 +154,13 @@ export function predictKernel(config: SimulationConfig, grid: GridCounts, engine
     if (engine === 'ts') return { engine: 'ts', threads: 1, path: kerr ? 'kerr' : 'plain' }
     return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
   }
-  // One flat kernel per option, one for Kerr with thermal noise and one for several channels without options;
-  // Kerr with the higher-order term, or several channels with an option, take the general kernel.
+  // One flat kernel per option, one for Kerr with thermal noise, one for several channels with Kerr or without
+  // options; Kerr with the higher-order term, or several channels with noise or that term, take the general kernel.
   const one = config.channels.length === 1
-  const several = config.channels.length > 1 && !kerr && !o.noise.enabled && !o.higherOrderAcoustic
+  const several = config.channels.length > 1 && !o.noise.enabled && !o.higherOrderAcoustic
   const path = one && kerr
     ? o.noise.enabled && !o.higherOrderAcoustic ? 'kerr-noise' : 'general'
-    : one && o.higherOrderAcoustic ? 'higher-order' : one && o.noise.enabled ? 'noise' : several ? 'channels' : 'general'
+    : one && o.higherOrderAcoustic ? 'higher-order' : one && o.noise.enabled ? 'noise' : several ? (kerr ? 'channels-kerr' : 'channels') : 'general'
   return { engine: 'ts', threads: 1, path }
 }
 
@@ -222,7 +222,7 @@ export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts, engin
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr && config.waveguide.kerrN2M2PerW > 0 ? SPEED_FACTOR_KERR : 1) *
-    (config.channels.length > 1 && !network && !o.kerr && !o.noise.enabled && !o.higherOrderAcoustic ? SPEED_FACTOR_SEVERAL_CHANNELS : 1) *
+    (config.channels.length > 1 && !network && !o.noise.enabled && !o.higherOrderAcoustic ? SPEED_FACTOR_SEVERAL_CHANNELS : 1) *
     (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasm ? SPEED_FACTOR_WASM_ENGINE : 1) *
     (wasm && twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
   )

@@ -1,6 +1,6 @@
 /*
- * Fast path for several channels: SVEA, no Kerr, no thermal noise, no higher-order term, 2 to 8 pump–Stokes
- * pairs, each with its own grating b_k. The steps of the contract in interaction-kernel.ts, as `interactGeneral`
+ * Fast path for several channels: SVEA, no thermal noise, no higher-order term, Kerr on or off, 2 to 8
+ * pump–Stokes pairs, each with its own grating b_k. The steps of the contract in interaction-kernel.ts, as `interactGeneral`
  * computes them for that case (predictAcoustic, averageAcoustic, fieldSeenByOptics, stepMean, exchangeOptics,
  * correctSvea), written flat per node with the general kernel's rounding order, so the results are the same bits.
  * At node z_j, with phases p_k = e^{i q_k z_j} (Model.phaseRe/phaseIm):
@@ -9,6 +9,9 @@
  *   b̄_k = b̂_k + hφ₃·K·c·w·B̂_k·(|u_k|² − |v_k|²)   (the step-mean: steppers/step-mean.ts)
  *   B_k = p_k*·Σ_m b̄_m p_m,  exchange of (u_k, v_k) with β = c·w·B_k (Cayley, unitary)
  *   b_k ← E(b_k + h/2·D₀,k) + h/2·D₁,k.
+ * With Kerr, the general kernel's kerrExchange in place of the exchange (kerr-phase.ts): the node's total power T and
+ * Σ_m y_m (y_k = Re(B̂_k)·Im(u_k v_k*) − Im(B̂_k)·Re(u_k v_k*)) are summed over the channels in order, then each
+ * channel's phases take the other channels' share, T − P_k and Σy − y_k; always in blocks, also for two channels.
  * The sum over channels is formed once per node and rotated for each k, where the general kernel forms it again
  * for each k: the same operations in the same order, so the same bits, with O(channels) work per node instead of
  * O(channels²). Each pass runs over a block of one channel's nodes (contiguous in memory), channel after channel,
@@ -17,6 +20,7 @@
  */
 import type { Model } from '../problem/coupled-modes'
 import type { FieldState } from './interaction-kernel'
+import { kerrPhaseCoefficients, TWELFTH } from './kerr-phase'
 import { sveaStepMean } from './step-mean'
 
 /** The configuration's limit on channels (shared/physics/simulation-config.ts). */
@@ -30,35 +34,44 @@ const hatRe = new Float64Array(MAX_CHANNELS * BLOCK)
 const hatIm = new Float64Array(MAX_CHANNELS * BLOCK)
 /** |u|² − |v|² from the entry fields, for the step-mean. */
 const powerDiff = new Float64Array(MAX_CHANNELS * BLOCK)
+/** With Kerr: per channel and node y_k; per node the total power and Σ_m y_m (kerr-phase.ts). */
+const yk = new Float64Array(MAX_CHANNELS * BLOCK)
+const totalPower = new Float64Array(BLOCK)
+const ySum = new Float64Array(BLOCK)
 /** Per node of the block: Σ_m b̂_m p_m, then Σ_m b̄_m p_m. */
 const sumRe = new Float64Array(BLOCK)
 const sumIm = new Float64Array(BLOCK)
 const barSumRe = new Float64Array(BLOCK)
 const barSumIm = new Float64Array(BLOCK)
 
-/** True when the several-channel SVEA path applies (no Kerr, no noise, no higher-order term). */
+/** True when the several-channel SVEA path applies (no noise, no higher-order term; Kerr on or off). */
 export function channelsFastPathApplies(m: Model): boolean {
-  return m.nCh > 1 && m.nCh <= MAX_CHANNELS && m.higherOrder === null && m.kerrHalfPump === 0 && m.kerrHalfStokes === 0 && m.noiseKickRms === 0
+  return m.nCh > 1 && m.nCh <= MAX_CHANNELS && m.higherOrder === null && m.noiseKickRms === 0
 }
 
 /** The interaction step at nodes j0..j1 of trapezoid weight `weight`, every channel. */
 export function interactSveaChannels(m: Model, s: FieldState, j0: number, j1: number, weight: number): void {
-  if (m.nCh === 2) return interactTwoChannels(m, s, j0, j1, weight)
+  const kerr = m.kerrHalfPump !== 0 || m.kerrHalfStokes !== 0
+  if (m.nCh === 2 && !kerr) return interactTwoChannels(m, s, j0, j1, weight)
   for (let a = j0; a <= j1; a += BLOCK) {
     const n = Math.min(j1, a + BLOCK - 1) - a + 1
     sumRe.fill(0, 0, n)
     sumIm.fill(0, 0, n)
     barSumRe.fill(0, 0, n)
     barSumIm.fill(0, 0, n)
+    if (kerr) totalPower.fill(0, 0, n), ySum.fill(0, 0, n)
     // Channel by channel, so that every node's sums are taken over the channels in order 0, 1, …, as in the general kernel.
-    for (let k = 0; k < m.nCh; k++) predictBlock(m, s, k * m.nodes + a, k * BLOCK, n)
-    for (let k = 0; k < m.nCh; k++) stepMeanBlock(m, k * m.nodes + a, k * BLOCK, n, weight)
-    for (let k = 0; k < m.nCh; k++) exchangeBlock(m, s, k * m.nodes + a, k * BLOCK, n, weight)
+    for (let k = 0; k < m.nCh; k++) predictBlock(m, s, k * m.nodes + a, k * BLOCK, n, kerr)
+    for (let k = 0; k < m.nCh; k++) stepMeanBlock(m, s, k * m.nodes + a, k * BLOCK, n, weight, kerr)
+    for (let k = 0; k < m.nCh; k++) {
+      if (kerr) kerrExchangeBlock(m, s, k * m.nodes + a, k * BLOCK, n, weight)
+      else exchangeBlock(m, s, k * m.nodes + a, k * BLOCK, n, weight)
+    }
   }
 }
 
-/** D₀, b̂ = ½(b + E(b + h·D₀)) of one channel's nodes i0..i0+n−1, and Σ b̂_m p_m. */
-function predictBlock(m: Model, s: FieldState, i0: number, o: number, n: number): void {
+/** D₀, b̂ = ½(b + E(b + h·D₀)) of one channel's nodes i0..i0+n−1, and Σ b̂_m p_m (with Kerr also the total power). */
+function predictBlock(m: Model, s: FieldState, i0: number, o: number, n: number, kerr: boolean): void {
   const { uRe, uIm, vRe, vIm, bRe, bIm } = s
   const pr = m.phaseRe!, pim = m.phaseIm!
   const K = m.driveK, h = m.dtS, Er = m.svea.eRe, Ei = m.svea.eIm
@@ -79,11 +92,15 @@ function predictBlock(m: Model, s: FieldState, i0: number, o: number, n: number)
     const cr = pr[i], ci = pim[i]
     sumRe[t] += x * cr - y * ci
     sumIm[t] += x * ci + y * cr
+    if (kerr) totalPower[t] += m.kappaP * (ur * ur + ui * ui) + m.rates.kappa * (vr * vr + vi * vi)
   }
 }
 
-/** b̄ = b̂ + hφ₃·K·c·w·B̂·(|u|² − |v|²) of one channel, B̂ its light's view of Σ b̂_m p_m; adds b̄ p to Σ b̄_m p_m. */
-function stepMeanBlock(m: Model, i0: number, o: number, n: number, weight: number): void {
+/**
+ * b̄ = b̂ + hφ₃·K·c·w·B̂·(|u|² − |v|²) of one channel, B̂ its light's view of Σ b̂_m p_m; adds b̄ p to Σ b̄_m p_m
+ * (with Kerr also y = Re(B̂)·Im(uv*) − Im(B̂)·Re(uv*) and its sum).
+ */
+function stepMeanBlock(m: Model, s: FieldState, i0: number, o: number, n: number, weight: number, kerr: boolean): void {
   const pr = m.phaseRe!, pim = m.phaseIm!
   const kc = m.driveK * (m.exchangePerB * weight)
   const { m2r, m2i } = sveaStepMean(m.svea.eRe, m.svea.eIm, m.dtS)
@@ -96,6 +113,12 @@ function stepMeanBlock(m: Model, i0: number, o: number, n: number, weight: numbe
     const g = kc * powerDiff[o + t]
     const er = g * Br
     const ei = g * Bi
+    if (kerr) {
+      const ur = s.uRe[i], ui = s.uIm[i], vr = s.vRe[i], vi = s.vIm[i]
+      const y = Br * (ui * vr - ur * vi) - Bi * (ur * vr + ui * vi)
+      yk[o + t] = y
+      ySum[t] += y
+    }
     const x = hatRe[o + t] + (m2r * er - m2i * ei)
     const y = hatIm[o + t] + (m2r * ei + m2i * er)
     barSumRe[t] += x * kr - y * ki
@@ -123,6 +146,77 @@ function exchangeBlock(m: Model, s: FieldState, i0: number, o: number, n: number
     const nui = (a * ui + betaR * vr - betaI * vi) * den
     const nvr = (a * vr - betaR * ui + betaI * ur) * den
     const nvi = (a * vi + betaR * ur + betaI * ui) * den
+    uRe[i] = nur
+    uIm[i] = nui
+    vRe[i] = nvr
+    vIm[i] = nvi
+    const d1r = -K * (nui * nvr - nur * nvi)
+    const d1i = K * (nur * nvr + nui * nvi)
+    const br = bRe[i], bi = bIm[i]
+    const sbr = br + hh * d0Re[o + t]
+    const sbi = bi + hh * d0Im[o + t]
+    bRe[i] = Er * sbr - Ei * sbi + hh * d1r
+    bIm[i] = Er * sbi + Ei * sbr + hh * d1i
+  }
+}
+
+/**
+ * With Kerr: the general kernel's kerrExchange for one channel (kerr-phase.ts; equations at the top of
+ * general-kernel.ts), with β = c·w·B, B its light's view of Σ b̄_m p_m; then the corrector of its b.
+ */
+function kerrExchangeBlock(m: Model, s: FieldState, i0: number, o: number, n: number, weight: number): void {
+  const { uRe, uIm, vRe, vIm, bRe, bIm } = s
+  const pr = m.phaseRe!, pim = m.phaseIm!
+  const K = m.driveK, hh = 0.5 * m.dtS, Er = m.svea.eRe, Ei = m.svea.eIm
+  const kp = m.kappaP
+  const ks = m.rates.kappa
+  const c = m.exchangePerB * weight
+  const { app, aps, asp, ass, dpc, dsc, gp, gs, epc, esc } = kerrPhaseCoefficients(m.kerrHalfPump * weight, m.kerrHalfStokes * weight, kp, ks, c)
+  for (let t = 0; t < n; t++) {
+    const i = i0 + t
+    const kr = pr[i], ki = pim[i]
+    const sr = barSumRe[t], si = barSumIm[t]
+    const betaR = c * (sr * kr + si * ki)
+    const betaI = c * (si * kr - sr * ki)
+    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i]
+    const uu = ur * ur + ui * ui
+    const vv = vr * vr + vi * vi
+    const other = totalPower[t] - (kp * uu + ks * vv)
+    const y = yk[o + t]
+    const yOther = ySum[t] - y
+    const phiP = app * uu + aps * vv + gp * other
+    const phiS = asp * uu + ass * vv + gs * other
+    const tp0 = 2 * phiP + dpc * y + epc * yOther
+    const ts0 = 2 * phiS + dsc * y + esc * yOther
+    const tp = tp0 * (1 + TWELFTH * tp0 * tp0)
+    const ts = ts0 * (1 + TWELFTH * ts0 * ts0)
+    const dphi = phiS - phiP
+    const qr = 0.25 * dphi * dphi
+    const qp = 0.25 * tp * tp
+    const qs = 0.25 * ts * ts
+    const dp = 1 + qp
+    const ds = 1 + qs
+    const qe = 0.25 * (betaR * betaR + betaI * betaI)
+    const dr = 1 + qr
+    const r = 1 / (((1 + qe) * dr) * (dp * ds))
+    const a = (1 - qe) * dr
+    const cr0 = 1 - qr
+    const xr = betaR * cr0 - betaI * dphi
+    const xi = betaR * dphi + betaI * cr0
+    const eur = a * ur - xr * vi - xi * vr
+    const eui = a * ui + xr * vr - xi * vi
+    const evr = a * vr - xr * ui + xi * ur
+    const evi = a * vi + xr * ur + xi * ui
+    const rp = ds * r
+    const rs = dp * r
+    let cr = (1 - qp) * rp
+    let ci = tp * rp
+    const nur = cr * eur - ci * eui
+    const nui = cr * eui + ci * eur
+    cr = (1 - qs) * rs
+    ci = ts * rs
+    const nvr = cr * evr - ci * evi
+    const nvi = cr * evi + ci * evr
     uRe[i] = nur
     uIm[i] = nui
     vRe[i] = nvr

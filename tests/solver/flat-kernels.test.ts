@@ -54,6 +54,18 @@ const CHANNELS_CASES: Record<string, SimulationConfig> = {
   'chip, 101 cells, four channels 0.5 GHz apart, lossless': chipConfig({ windowNs: 3, grid: cells(101), channels: [0, 0.5, 1, 1.5].map((offsetGHz) => ({ ...crossing, offsetGHz })) }),
 }
 
+// Several channels with Kerr: each channel's light turns with the other channels' power (cross-phase) too.
+const CHANNELS_KERR_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, two channels 1 GHz apart, Kerr, lossy, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30, kerrN2M2PerW: 1e-17 }, channels: [crossing, { ...crossing, offsetGHz: 1 }], options: { kerr: true } }),
+  'chip, 40 cells, three channels (0, 0.7, −1.5 GHz), Kerr, CW and pulses, acoustic advection': chipConfig({
+    windowNs: 3,
+    grid: cells(40),
+    waveguide: { kerrN2M2PerW: 1e-17 },
+    channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }, { ...crossing, offsetGHz: 0.7 }, { offsetGHz: -1.5, pump: { pulses: [gaussian(0.5, 1, 0.4)] } }],
+    options: { kerr: true, acousticAdvection: true },
+  }),
+}
+
 /** The first number that differs between two runs (by array name and index), or null when every bit agrees. */
 function firstDifference(a: SimulationResult, b: SimulationResult): string | null {
   const names = Object.keys(a.arrays)
@@ -91,4 +103,5 @@ describe('flat higher-order kernel: bit-identical to the general kernel', () => 
 
 describe('flat several-channel kernel: bit-identical to the general kernel', () => {
   for (const [name, config] of Object.entries(CHANNELS_CASES)) it(name, () => compare(config, 'channelsFast'))
+  for (const [name, config] of Object.entries(CHANNELS_KERR_CASES)) it(name, () => compare(config, 'channelsFast'))
 })
