@@ -115,7 +115,7 @@ export class SimulationRun {
     this.noiseFast = !this.profile && !this.forceGeneral && this.rng !== null && !this.fast && noiseFastPathApplies(m)
     this.kerrNoiseFast = !this.profile && !this.forceGeneral && this.rng !== null && kerrNoiseFastPathApplies(m)
     this.higherOrderFast = !this.profile && !this.forceGeneral && higherOrderFastPathApplies(m)
-    this.channelsFast = !this.profile && !this.forceGeneral && this.rng === null && channelsFastPathApplies(m)
+    this.channelsFast = !this.profile && !this.forceGeneral && channelsFastPathApplies(m)
     if (this.rng) this.thermalStart(this.rng)
     this.inject(0)
     this.referencePlan = planStorageReference(config, m.dtS)
@@ -141,8 +141,13 @@ export class SimulationRun {
     if (this.kerrFast) return 'kerr'
     if (this.noiseFast) return 'noise'
     if (this.kerrNoiseFast) return 'kerr-noise'
-    if (this.higherOrderFast) return 'higher-order'
-    if (this.channelsFast) return this.model.kerrHalfPump !== 0 || this.model.kerrHalfStokes !== 0 ? 'channels-kerr' : 'channels'
+    if (this.higherOrderFast) return this.model.kerrHalfPump !== 0 || this.model.kerrHalfStokes !== 0 ? 'higher-order-kerr' : 'higher-order'
+    if (this.channelsFast) {
+      const kerr = this.model.kerrHalfPump !== 0 || this.model.kerrHalfStokes !== 0
+      if (this.model.higherOrder !== null) return 'channels-higher-order'
+      if (this.rng) return kerr ? 'channels-kerr-noise' : 'channels-noise'
+      return kerr ? 'channels-kerr' : 'channels'
+    }
     return 'general'
   }
 
@@ -234,9 +239,10 @@ export class SimulationRun {
         interactHigherOrder(m, s, 1, nz - 1, 1, this.rng)
         interactHigherOrder(m, s, nz, nz, 0.5, this.rng)
       } else if (this.channelsFast) {
-        interactSveaChannels(m, s, 0, 0, 0.5)
-        interactSveaChannels(m, s, 1, nz - 1, 1)
-        interactSveaChannels(m, s, nz, nz, 0.5)
+        // Node order 0, 1..nz−1, nz: the order of the random draws with noise (as the general kernel's).
+        interactSveaChannels(m, s, 0, 0, 0.5, this.rng)
+        interactSveaChannels(m, s, 1, nz - 1, 1, this.rng)
+        interactSveaChannels(m, s, nz, nz, 0.5, this.rng)
       } else {
         // Node order 0, 1..nz−1, nz: the order of the random draws.
         interactGeneral(m, s, 0, 0, 0.5, this.rng)

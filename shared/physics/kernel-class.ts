@@ -5,11 +5,12 @@ import { z } from 'zod'
 
 /**
  * The interaction kernel: the plain SVEA fast path, its flat Kerr, thermal-noise, Kerr-with-noise and
- * second-order-acoustic variants, the flat kernel of several channels (without options, or with Kerr), the
- * per-node kernel of a longitudinal profile, the multi-wave solver, and the general reference kernel that takes
- * every other combination (several channels with noise or the second-order term, Kerr with that term).
+ * second-order-acoustic (with or without Kerr) variants, the flat kernel of several channels (its classes: without
+ * options, with Kerr, with noise, with both, with the second-order term), the per-node kernel of a longitudinal
+ * profile, the multi-wave solver, and the general reference kernel, which the solver takes only when told to (the
+ * flat kernels are checked against it bit for bit).
  */
-export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'kerr-noise', 'higher-order', 'channels', 'channels-kerr', 'profile', 'network', 'general'])
+export const KernelPath = z.enum(['plain', 'kerr', 'noise', 'kerr-noise', 'higher-order', 'higher-order-kerr', 'channels', 'channels-kerr', 'channels-noise', 'channels-kerr-noise', 'channels-higher-order', 'profile', 'network', 'general'])
 export type KernelPath = z.infer<typeof KernelPath>
 
 export const KernelClass = z.object({
@@ -30,11 +31,15 @@ const PATH_WORDS: Record<KernelPath, string> = {
   noise: 'thermal noise',
   'kerr-noise': 'Kerr effect with thermal noise',
   'higher-order': 'second-order acoustic equation',
+  'higher-order-kerr': 'second-order acoustic equation with the Kerr effect',
   channels: 'several channels',
   'channels-kerr': 'several channels with the Kerr effect',
+  'channels-noise': 'several channels with thermal noise',
+  'channels-kerr-noise': 'several channels with the Kerr effect and thermal noise',
+  'channels-higher-order': 'several channels with the second-order acoustic equation',
   profile: 'properties varying along the length',
   network: 'several waves',
-  general: 'general kernel (several channels with noise or the second-order acoustic term, or Kerr with that term)',
+  general: 'general reference kernel',
 }
 
 /** The class in words a user reads ("WebAssembly engine, plain scheme, 2 threads"). */

@@ -45,8 +45,10 @@ export const SPEED_FACTOR_PROFILE = 0.55
  * Relative speed with the second-order acoustic equation (2×2 propagator per cell), one channel, on its flat
  * kernel (solver/steppers/higher-order-kernel.ts) against the plain TypeScript path: benchmark 2026-12-03,
  * interleaved side by side (benchmarks/README.md, "Options on the fast path"), 0.61–0.69 at load average 2.5–4.9
- * (0.48–1.15 heavily loaded); a little under, so estimates err long. Several channels take the general kernel:
- * 0.20–0.31 there.
+ * (0.48–1.15 heavily loaded); a little under, so estimates err long. With Kerr (the same kernel) the product with
+ * SPEED_FACTOR_KERR, 0.42, against 0.34–0.37 measured (benchmarks/option-pairs.ts, estimate-check.ts 2026-12-04 10:15
+ * UTC, load 1.0: the estimate 0.88 of the measured time); several channels with the term (several-channel kernel):
+ * 0.42 against 0.35–0.39.
  */
 // estimate-check.ts 2026-12-04 02:00 UTC, idle: 0.69.
 export const SPEED_FACTOR_HIGHER_ORDER = 0.65
@@ -54,8 +56,9 @@ export const SPEED_FACTOR_HIGHER_ORDER = 0.65
  * Relative speed with thermal noise (four normal deviates per cell and step by the ziggurat), one channel, on
  * its flat kernel (solver/steppers/svea-noise-kernel.ts) against the plain TypeScript path: benchmark
  * 2026-12-03, side by side, 0.37–0.44 at load average 2.5–4.9 (0.22–0.34 heavily loaded, before the last change of the
- * generator's fill). Several channels or Kerr with noise take the general kernel, which measured 0.10–0.12 with
- * the former generator.
+ * generator's fill). Several channels with noise run on the several-channel kernel: the product with
+ * SPEED_FACTOR_SEVERAL_CHANNELS, 0.29, against 0.30–0.32 measured (and with Kerr, 0.19 against 0.23–0.24:
+ * benchmarks/option-pairs.ts and estimate-check.ts 2026-12-04, the estimate 1.36 of the measured time there).
  */
 // kerr-noise-kernels.ts 2026-12-04: 0.42–0.46; estimate-check.ts 02:00 UTC, idle: 0.48.
 export const SPEED_FACTOR_NOISE = 0.45
@@ -64,10 +67,9 @@ export const SPEED_FACTOR_NOISE = 0.45
  * phase, one division per cell: solver/steppers/kerr-phase.ts), on the WebAssembly engine's Kerr path against its
  * plain one: benchmarks/kerr-noise-kernels.ts 2026-12-04 04:30 UTC (benchmarks/README.md), 0.67–0.71 at load
  * average 0.7–0.9 (TypeScript kernels 0.62–0.70); estimate-check.ts 04:35 UTC, load 1.1: 0.65 (85.1 M/s against the
- * engine's 2 × 65.4). Before, with two half steps: 0.55–0.59. Runs that need the general kernel (several channels,
- * noise) are slower still: there Kerr measured 0.25 of the plain path before the flat Kerr kernel. Kerr with noise
- * on one channel has its own flat kernel, 0.35–0.40 of the plain TypeScript path (general kernel 0.12–0.14); the
- * product of this factor and the noise factor, 0.29, errs long by 1.2–1.4× there.
+ * engine's 2 × 65.4). Before, with two half steps: 0.55–0.59. Every combination with Kerr has a flat kernel; Kerr
+ * with noise on one channel, 0.35–0.40 of the plain TypeScript path (general kernel 0.12–0.14), where the product of
+ * this factor and the noise factor, 0.29, errs long by 1.2–1.4×.
  */
 export const SPEED_FACTOR_KERR = 0.65
 /**
@@ -119,6 +121,7 @@ export const SPEED_FACTOR_WAVE_NETWORK = 0.18
  * svea-channels-kernel.ts): benchmarks/option-kernels.ts 2026-12-04 (benchmarks/README.md), 0.76–0.80 with two
  * channels and 0.61 with four at load average 1.6–2.2; the four-channel figure, so estimates err long with two.
  * Through the general kernel, before that kernel: 0.20–0.31 (benchmarks/estimate-check.ts, load average 4–5).
+ * The same kernel runs several channels with Kerr, noise or the higher-order term; the estimate multiplies their factors.
  */
 // estimate-check.ts 2026-12-04 02:00 UTC, idle, two channels: 0.74.
 export const SPEED_FACTOR_SEVERAL_CHANNELS = 0.65
@@ -154,14 +157,15 @@ export function predictKernel(config: SimulationConfig, grid: GridCounts, engine
     if (engine === 'ts') return { engine: 'ts', threads: 1, path: kerr ? 'kerr' : 'plain' }
     return { engine: 'wasm', threads: twoThreadsApply(config, grid) ? 2 : 1, path: kerr ? 'kerr' : 'plain' }
   }
-  // One flat kernel per option, one for Kerr with thermal noise, one for several channels with Kerr or without
-  // options; Kerr with the higher-order term, or several channels with noise or that term, take the general kernel.
-  const one = config.channels.length === 1
-  const several = config.channels.length > 1 && !o.noise.enabled && !o.higherOrderAcoustic
-  const path = one && kerr
-    ? o.noise.enabled && !o.higherOrderAcoustic ? 'kerr-noise' : 'general'
-    : one && o.higherOrderAcoustic ? 'higher-order' : one && o.noise.enabled ? 'noise' : several ? (kerr ? 'channels-kerr' : 'channels') : 'general'
-  return { engine: 'ts', threads: 1, path }
+  // One flat kernel per option, one for Kerr with thermal noise, one for the higher-order term with Kerr and noise
+  // each on or off, one for several channels with every option on or off (classed by its options).
+  const noise = o.noise.enabled
+  if (config.channels.length > 1) {
+    if (o.higherOrderAcoustic) return { engine: 'ts', threads: 1, path: 'channels-higher-order' }
+    return { engine: 'ts', threads: 1, path: kerr ? (noise ? 'channels-kerr-noise' : 'channels-kerr') : noise ? 'channels-noise' : 'channels' }
+  }
+  if (o.higherOrderAcoustic) return { engine: 'ts', threads: 1, path: kerr ? 'higher-order-kerr' : 'higher-order' }
+  return { engine: 'ts', threads: 1, path: kerr ? 'kerr-noise' : noise ? 'noise' : 'general' }
 }
 
 /**
@@ -222,7 +226,7 @@ export function benchmarkSpeed(config: SimulationConfig, grid: GridCounts, engin
     (o.higherOrderAcoustic ? SPEED_FACTOR_HIGHER_ORDER : 1) *
     (o.noise.enabled ? SPEED_FACTOR_NOISE : 1) *
     (o.kerr && config.waveguide.kerrN2M2PerW > 0 ? SPEED_FACTOR_KERR : 1) *
-    (config.channels.length > 1 && !network && !o.noise.enabled && !o.higherOrderAcoustic ? SPEED_FACTOR_SEVERAL_CHANNELS : 1) *
+    (config.channels.length > 1 && !network ? SPEED_FACTOR_SEVERAL_CHANNELS : 1) *
     (profileIsActive(config.waveguide.profile) ? SPEED_FACTOR_PROFILE : wasm ? SPEED_FACTOR_WASM_ENGINE : 1) *
     (wasm && twoThreadsApply(config, grid) ? SPEED_FACTOR_TWO_THREADS : 1)
   )

@@ -1,7 +1,8 @@
 // The flat one-channel kernels for thermal noise (solver/steppers/svea-noise-kernel.ts), for Kerr with thermal
-// noise (svea-kerr-noise-kernel.ts) and for the higher-order acoustic equation (higher-order-kernel.ts), and the
-// flat kernel for several channels
-// (svea-channels-kernel.ts), against the general kernel they are written from:
+// noise (svea-kerr-noise-kernel.ts) and for the higher-order acoustic equation (higher-order-kernel.ts, with Kerr and
+// noise each on or off), and the
+// flat kernel for several channels (svea-channels-kernel.ts, with Kerr, thermal noise and the higher-order term each on
+// or off), against the general kernel they are written from:
 // whole runs with the same seed, every returned array compared bit for bit (Object.is on each number). The
 // flat kernels claim the general kernel's IEEE operations in its order and its order of random draws, so a
 // reordered sum, a draw taken out of turn or a wrong facet weight shows as a differing bit.
@@ -40,6 +41,8 @@ const HIGHER_ORDER_CASES: Record<string, SimulationConfig> = {
   'chip, 41 cells, 1 GHz shift, crossing pulses, detuned': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: 20, waveguide: { brillouinShiftGHz: 1, lossDbPerM: 10 }, channels: [crossing], options: { higherOrderAcoustic: true } }),
   'chip, 40 cells, 1 GHz shift, with noise, seed 3': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { brillouinShiftGHz: 1 }, channels: [crossing], options: { higherOrderAcoustic: true, noise: noise(3) } }),
   'chip, 40 cells, 1 GHz shift, CW, advection, with noise, seed 4': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { brillouinShiftGHz: 1 }, channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }], options: { higherOrderAcoustic: true, acousticAdvection: true, noise: noise(4) } }),
+  'chip, 41 cells, 1 GHz shift, Kerr, crossing pulses, detuned, lossy': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: 20, waveguide: { brillouinShiftGHz: 1, lossDbPerM: 10, kerrN2M2PerW: 1e-17 }, channels: [crossing], options: { higherOrderAcoustic: true, kerr: true } }),
+  'chip, 40 cells, 1 GHz shift, Kerr, CW, advection, with noise, seed 15': chipConfig({ windowNs: 3, grid: cells(40), waveguide: { brillouinShiftGHz: 1, kerrN2M2PerW: 1e-17 }, channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }], options: { higherOrderAcoustic: true, kerr: true, acousticAdvection: true, noise: noise(15) } }),
 }
 
 // Channel spacings of ≥ 10 linewidths (34 MHz on the chip), as the configuration's rule asks.
@@ -64,6 +67,32 @@ const CHANNELS_KERR_CASES: Record<string, SimulationConfig> = {
     channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }, { ...crossing, offsetGHz: 0.7 }, { offsetGHz: -1.5, pump: { pulses: [gaussian(0.5, 1, 0.4)] } }],
     options: { kerr: true, acousticAdvection: true },
   }),
+}
+
+// Several channels with thermal noise (Kerr off and on): every channel's grating draws its own kick and mean draw.
+const CHANNELS_NOISE_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, two channels 1 GHz apart, noise, lossy, crossing pulses, detuned, seed 11': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: -15, waveguide: { lossDbPerM: 30 }, channels: [crossing, { ...crossing, offsetGHz: 1 }], options: { noise: noise(11) } }),
+  'chip, 40 cells, three channels (0, 0.7, −1.5 GHz), noise, CW and pulses, acoustic advection, seed 12': chipConfig({
+    windowNs: 3,
+    grid: cells(40),
+    channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }, { ...crossing, offsetGHz: 0.7 }, { offsetGHz: -1.5, pump: { pulses: [gaussian(0.5, 1, 0.4)] } }],
+    options: { acousticAdvection: true, noise: noise(12) },
+  }),
+  'chip, 41 cells, two channels 1 GHz apart, Kerr and noise, lossy, crossing pulses, seed 13': chipConfig({ windowNs: 3, grid: cells(41), waveguide: { lossDbPerM: 30, kerrN2M2PerW: 1e-17 }, channels: [crossing, { ...crossing, offsetGHz: 1 }], options: { kerr: true, noise: noise(13) } }),
+  'chip, 300 cells (two blocks of draws), two channels, CW pumps only (spontaneous Stokes), seed 14': chipConfig({ windowNs: 1, grid: cells(300), channels: [{ pump: { backgroundPowerW: 0.3 } }, { offsetGHz: 1, pump: { backgroundPowerW: 0.2 } }], options: { noise: noise(14) } }),
+}
+
+// Several channels with the higher-order acoustic term (1 GHz shift), alone, with noise, and with Kerr and noise.
+const CHANNELS_HIGHER_ORDER_CASES: Record<string, SimulationConfig> = {
+  'chip, 41 cells, 1 GHz shift, two channels 0.5 GHz apart, crossing pulses, detuned, lossy': chipConfig({ windowNs: 3, grid: cells(41), detuningMHz: 20, waveguide: { brillouinShiftGHz: 1, lossDbPerM: 10 }, channels: [crossing, { ...crossing, offsetGHz: 0.5 }], options: { higherOrderAcoustic: true } }),
+  'chip, 40 cells, 1 GHz shift, three channels, CW and pulses, advection, noise, seed 16': chipConfig({
+    windowNs: 3,
+    grid: cells(40),
+    waveguide: { brillouinShiftGHz: 1 },
+    channels: [{ pump: { backgroundPowerW: 0.3 }, stokes: { backgroundPowerW: 1e-3 } }, { ...crossing, offsetGHz: 0.4 }, { offsetGHz: -0.6, pump: { pulses: [gaussian(0.5, 1, 0.4)] } }],
+    options: { higherOrderAcoustic: true, acousticAdvection: true, noise: noise(16) },
+  }),
+  'chip, 300 cells, 1 GHz shift, two channels, Kerr and noise, seed 17': chipConfig({ windowNs: 3, grid: cells(300), waveguide: { brillouinShiftGHz: 1, kerrN2M2PerW: 1e-17 }, channels: [crossing, { ...crossing, offsetGHz: 0.5 }], options: { higherOrderAcoustic: true, kerr: true, noise: noise(17) } }),
 }
 
 /** The first number that differs between two runs (by array name and index), or null when every bit agrees. */
@@ -104,4 +133,6 @@ describe('flat higher-order kernel: bit-identical to the general kernel', () => 
 describe('flat several-channel kernel: bit-identical to the general kernel', () => {
   for (const [name, config] of Object.entries(CHANNELS_CASES)) it(name, () => compare(config, 'channelsFast'))
   for (const [name, config] of Object.entries(CHANNELS_KERR_CASES)) it(name, () => compare(config, 'channelsFast'))
+  for (const [name, config] of Object.entries(CHANNELS_NOISE_CASES)) it(name, () => compare(config, 'channelsFast'))
+  for (const [name, config] of Object.entries(CHANNELS_HIGHER_ORDER_CASES)) it(name, () => compare(config, 'channelsFast'))
 })
