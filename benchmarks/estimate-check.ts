@@ -47,6 +47,11 @@ const cases: Array<[string, SimulationConfig]> = [
   ['two channels', { ...base, channels: [base.channels[0], { ...base.channels[0], offsetGHz: 5 }] }],
   ['forward resonance (multi-wave)', { ...base, waveguide: { ...base.waveguide, forwardResonances: [{ frequencyMHz: 2000, linewidthMHz: 80, gainCoefficientMPerW: 3e-10, antiStokesMismatchPerM: 40 }] } }],
   ['long grid N_z = 8000 (threads auto)', gridCase(8000, 40000)],
+  // Option pairs on their flat kernels: the estimate multiplies the options' factors.
+  ['two channels with thermal noise', gridCase(2000, 40000, { channels: 2, noise: true })],
+  ['two channels with Kerr and thermal noise', kerr(gridCase(2000, 40000, { channels: 2, noise: true }))],
+  ['higher-order acoustic with Kerr', kerr(gridCase(2000, 40000, { higherOrderAcoustic: true }))],
+  ['two channels with higher-order acoustic', gridCase(2000, 40000, { channels: 2, higherOrderAcoustic: true })],
 ]
 if (!process.argv.includes('--skip-1km')) cases.push(['1 km sensing fibre, 1 m resolution (profile)', fibre(1000, 800)])
 /** The history of a case: three runs of half its window, or with --scan-1km for the 1 km point, three earlier points of its scan. */
