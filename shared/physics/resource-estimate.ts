@@ -165,7 +165,8 @@ export function predictKernel(config: SimulationConfig, grid: GridCounts, engine
     return { engine: 'ts', threads: 1, path: kerr ? (noise ? 'channels-kerr-noise' : 'channels-kerr') : noise ? 'channels-noise' : 'channels' }
   }
   if (o.higherOrderAcoustic) return { engine: 'ts', threads: 1, path: kerr ? 'higher-order-kerr' : 'higher-order' }
-  return { engine: 'ts', threads: 1, path: kerr ? 'kerr-noise' : noise ? 'noise' : 'general' }
+  // One channel the engine does not cover, without the higher-order term: thermal noise is on.
+  return { engine: 'ts', threads: 1, path: kerr ? 'kerr-noise' : 'noise' }
 }
 
 /**

@@ -2,9 +2,11 @@
  * The general interaction kernel: any number of channels, optional higher-order acoustics, Kerr and thermal
  * noise. It implements steps 1–5 of the contract at the top of interaction-kernel.ts (equations there), one
  * named function per step; interactSvea is the same arithmetic written flat for the plain one-channel case, and
- * interactSveaKerr, interactSveaNoise and interactHigherOrder for one channel with Kerr, with thermal noise and
- * with the higher-order term (svea-kerr-kernel.ts, svea-noise-kernel.ts, higher-order-kernel.ts): a change of
- * rounding order or of the order of draws here must be made there too (tests/solver/flat-kernels.test.ts).
+ * interactSveaKerr, interactSveaNoise, interactSveaKerrNoise and interactHigherOrder for one channel with Kerr, with
+ * thermal noise, with both and with the higher-order term (Kerr and noise on or off), interactSveaChannels for several
+ * channels with any options (svea-kerr-kernel.ts, svea-noise-kernel.ts, svea-kerr-noise-kernel.ts,
+ * higher-order-kernel.ts, svea-channels-kernel.ts): a change of rounding order or of the order of draws here must be
+ * made there too (tests/solver/flat-kernels.test.ts). The solver runs this kernel only when told to, as their reference.
  * Kerr step (kerrExchange below; coefficients and midpoint powers in kerr-phase.ts), with q = (·)²/4, a = (1 − q_e)(1 + q_r):
  *   r = 1/(((1 + q_e)(1 + q_r))((1 + q_p)(1 + q_s))),  β' = β·((1 − q_r) + iΔφ),  Δφ = φ_s − φ_p  (first half step's phases),
  *   (u, v) ← (((1 − q_p) + iθ_p)(1 + q_s)·(a·u + iβ'·v), ((1 − q_s) + iθ_s)(1 + q_p)·(a·v + iβ'*·u))·r,

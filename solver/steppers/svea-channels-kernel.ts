@@ -86,10 +86,7 @@ export function interactSveaChannels(m: Model, s: FieldState, j0: number, j1: nu
     barSumIm.fill(0, 0, n)
     if (kerr) totalPower.fill(0, 0, n), ySum.fill(0, 0, n)
     // Channel by channel, so that every node's sums are taken over the channels in order 0, 1, …, as in the general kernel.
-    for (let k = 0; k < m.nCh; k++) {
-      if (ho) predictHigherOrderBlock(m, s, k * m.nodes + a, k, n, kerr, noise)
-      else predictBlock(m, s, k * m.nodes + a, k, n, kerr, noise)
-    }
+    for (let k = 0; k < m.nCh; k++) predictBlock(m, s, k * m.nodes + a, k, n, kerr, noise)
     for (let k = 0; k < m.nCh; k++) stepMeanBlock(m, s, k * m.nodes + a, k * BLOCK, n, weight, kerr)
     for (let k = 0; k < m.nCh; k++) {
       if (kerr) kerrExchangeBlock(m, s, k * m.nodes + a, k, n, weight)
@@ -103,74 +100,53 @@ export function interactSveaChannels(m: Model, s: FieldState, j0: number, j1: nu
 }
 
 /**
- * D₀, b̂ = ½(b + E(b + h·D₀)) of channel k's nodes i0..i0+n−1 (with noise ½(b + E(b + h·D₀) + X) + Y), and
- * Σ b̂_m p_m (with Kerr also the total power).
+ * D₀, b̂ = ½(b + E(b + h·D₀)) of channel k's nodes i0..i0+n−1 (with noise ½(b + E(b + h·D₀) + X) + Y; higher order
+ * ½(b + b̃), b̃ = E₀₀b + E₀₁w + P₀,b·g₀ (+ P₀,b·(0, f)·F with noise)), and Σ b̂_m p_m (with Kerr also the total power).
  */
 function predictBlock(m: Model, s: FieldState, i0: number, k: number, n: number, kerr: boolean, noise: NoiseSd | null): void {
-  const { uRe, uIm, vRe, vIm, bRe, bIm } = s
+  const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm } = s
   const pr = m.phaseRe!, pim = m.phaseIm!
   const K = m.driveK, h = m.dtS, Er = m.svea.eRe, Ei = m.svea.eIm
+  const ho = m.higherOrder
+  const f = ho === null ? 0 : ho.sourceFactor[1]
+  const [e00r, e00i] = ho === null ? [0, 0] : ho.e00
+  const [e01r, e01i] = ho === null ? [0, 0] : ho.e01
+  const [p0br, p0bi] = ho === null ? [0, 0] : ho.p0b
   const o = k * BLOCK
   for (let t = 0; t < n; t++) {
     const i = i0 + t
     const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i]
     const d0r = -K * (ui * vr - ur * vi)
     const d0i = K * (ur * vr + ui * vi)
-    const tr = br + h * d0r
-    const ti = bi + h * d0i
     let x: number, y: number
     // Separate expressions, not a zero kick added: −0 + 0 is +0, and the bits must be the general kernel's.
-    if (noise === null) {
-      x = 0.5 * (br + (Er * tr - Ei * ti))
-      y = 0.5 * (bi + (Er * ti + Ei * tr))
+    if (ho !== null) {
+      const wr = wRe[i], wi = wIm[i]
+      const g0r = -f * d0i
+      const g0i = f * d0r
+      let tbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + p0br * g0r - p0bi * g0i
+      let tbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + p0br * g0i + p0bi * g0r
+      if (noise !== null) {
+        const d = 2 * (t * noise.nCh + k)
+        const gfr = -f * (noise.sd * draws[d + 1])
+        const gfi = f * (noise.sd * draws[d])
+        tbr += p0br * gfr - p0bi * gfi
+        tbi += p0br * gfi + p0bi * gfr
+      }
+      x = 0.5 * (br + tbr)
+      y = 0.5 * (bi + tbi)
     } else {
-      const d = 4 * (t * noise.nCh + k)
-      x = 0.5 * (br + (Er * tr - Ei * ti + noise.sd * draws[d])) + noise.sdMean * draws[d + 2]
-      y = 0.5 * (bi + (Er * ti + Ei * tr + noise.sd * draws[d + 1])) + noise.sdMean * draws[d + 3]
+      const tr = br + h * d0r
+      const ti = bi + h * d0i
+      if (noise === null) {
+        x = 0.5 * (br + (Er * tr - Ei * ti))
+        y = 0.5 * (bi + (Er * ti + Ei * tr))
+      } else {
+        const d = 4 * (t * noise.nCh + k)
+        x = 0.5 * (br + (Er * tr - Ei * ti + noise.sd * draws[d])) + noise.sdMean * draws[d + 2]
+        y = 0.5 * (bi + (Er * ti + Ei * tr + noise.sd * draws[d + 1])) + noise.sdMean * draws[d + 3]
+      }
     }
-    d0Re[o + t] = d0r
-    d0Im[o + t] = d0i
-    hatRe[o + t] = x
-    hatIm[o + t] = y
-    powerDiff[o + t] = ur * ur + ui * ui - vr * vr - vi * vi
-    const cr = pr[i], ci = pim[i]
-    sumRe[t] += x * cr - y * ci
-    sumIm[t] += x * ci + y * cr
-    if (kerr) totalPower[t] += m.kappaP * (ur * ur + ui * ui) + m.rates.kappa * (vr * vr + vi * vi)
-  }
-}
-
-/**
- * The higher-order predictor of channel k's nodes: b̃ = E₀₀b + E₀₁w + P₀,b·g₀ (+ P₀,b·(0, f)·F with noise),
- * b̂ = ½(b + b̃), D₀ and |u|² − |v|² for the later passes, and Σ b̂_m p_m (with Kerr also the total power).
- */
-function predictHigherOrderBlock(m: Model, s: FieldState, i0: number, k: number, n: number, kerr: boolean, noise: NoiseSd | null): void {
-  const { uRe, uIm, vRe, vIm, bRe, bIm, wRe, wIm } = s
-  const pr = m.phaseRe!, pim = m.phaseIm!
-  const ho = m.higherOrder!
-  const K = m.driveK
-  const f = ho.sourceFactor[1]
-  const e00r = ho.e00[0], e00i = ho.e00[1], e01r = ho.e01[0], e01i = ho.e01[1]
-  const p0br = ho.p0b[0], p0bi = ho.p0b[1]
-  const o = k * BLOCK
-  for (let t = 0; t < n; t++) {
-    const i = i0 + t
-    const ur = uRe[i], ui = uIm[i], vr = vRe[i], vi = vIm[i], br = bRe[i], bi = bIm[i], wr = wRe[i], wi = wIm[i]
-    const d0r = -K * (ui * vr - ur * vi)
-    const d0i = K * (ur * vr + ui * vi)
-    const g0r = -f * d0i
-    const g0i = f * d0r
-    let tbr = e00r * br - e00i * bi + e01r * wr - e01i * wi + p0br * g0r - p0bi * g0i
-    let tbi = e00r * bi + e00i * br + e01r * wi + e01i * wr + p0br * g0i + p0bi * g0r
-    if (noise !== null) {
-      const d = 2 * (t * noise.nCh + k)
-      const gfr = -f * (noise.sd * draws[d + 1])
-      const gfi = f * (noise.sd * draws[d])
-      tbr += p0br * gfr - p0bi * gfi
-      tbi += p0br * gfi + p0bi * gfr
-    }
-    const x = 0.5 * (br + tbr)
-    const y = 0.5 * (bi + tbi)
     d0Re[o + t] = d0r
     d0Im[o + t] = d0i
     hatRe[o + t] = x
