@@ -3,7 +3,7 @@
 import { readFileSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import type { Browser, BrowserContext, Page } from 'playwright-core'
+import type { Browser, BrowserContext, Download, Page } from 'playwright-core'
 import { ARTIFACTS, DEMO, launchBrowser, newContext, screenshot, signIn } from './browser'
 
 const base = inject('e2eBaseUrl')
@@ -19,22 +19,34 @@ afterAll(async () => {
 })
 
 /**
- * Opens the Figure menu and picks one entry. On a busy machine a click can land while the menu is still opening,
- * so each step is repeated until it took (the menu shows the entry; the entry has gone once picked), and the file
- * (a PDF is converted in the page) is given two minutes.
+ * Opens the Figure menu and picks one entry, until the file arrives. On a busy machine a click can land while the
+ * menu is still opening, or close the menu without picking: so each step is repeated until it took (the menu shows
+ * the entry; the entry has gone once picked), and the whole pick again when no file came and the button shows no
+ * figure being made (a PDF is converted in the page, which may take a while then).
  */
 async function save(page: Page, menu: ReturnType<Page['locator']>, choice: string): Promise<Buffer> {
   const item = page.getByTestId(choice)
-  const download = page.waitForEvent('download', { timeout: 120_000 })
-  // Mid-screen, so the button is not under the fixed app bar and its menu opens in view.
-  await menu.evaluate((node) => (node as unknown as { scrollIntoView(o: { block: string }): void }).scrollIntoView({ block: 'center' }))
-  for (let i = 0; i < 5 && !(await item.isVisible()); i++) {
-    await menu.click({ timeout: 10_000 }).catch(() => {})
-    await item.waitFor({ timeout: 10_000 }).catch(() => {})
-  }
-  for (let i = 0; i < 5 && (await item.isVisible()); i++) {
-    await item.click({ timeout: 10_000 }).catch(() => {})
-    await item.waitFor({ state: 'hidden', timeout: 10_000 }).catch(() => {})
+  let file: Download | null = null
+  const download = page.waitForEvent('download', { timeout: 280_000 })
+  download.then((d) => (file = d)).catch(() => {})
+  const making = () => menu.evaluate((node) => (node as unknown as { classList: { contains(c: string): boolean } }).classList.contains('v-btn--loading')).catch(() => false)
+  for (let attempt = 0; attempt < 5 && file === null; attempt++) {
+    // Mid-screen, so the button is not under the fixed app bar and its menu opens in view.
+    await menu.evaluate((node) => (node as unknown as { scrollIntoView(o: { block: string }): void }).scrollIntoView({ block: 'center' }))
+    for (let i = 0; i < 5 && !(await item.isVisible()); i++) {
+      await menu.click({ timeout: 10_000 }).catch(() => {})
+      await item.waitFor({ timeout: 10_000 }).catch(() => {})
+    }
+    for (let i = 0; i < 5 && (await item.isVisible()); i++) {
+      await item.click({ timeout: 10_000 }).catch(() => {})
+      await item.waitFor({ state: 'hidden', timeout: 10_000 }).catch(() => {})
+    }
+    // Wait while a figure is being made; 10 s after it stopped (or never started) without a file, pick again.
+    let idleSince = Date.now()
+    while (file === null && Date.now() - idleSince < 10_000) {
+      await page.waitForTimeout(250)
+      if (await making()) idleSince = Date.now()
+    }
   }
   return readFileSync(await (await download).path())
 }
@@ -80,5 +92,5 @@ describe('chart figures', () => {
     const view = await ctx.newPage()
     await view.setContent(`<body style="margin:0;background:#fff">${svg}<br>${map}</body>`)
     await screenshot(view, 'figure-export-svg')
-  }, 300_000)
+  }, 600_000)
 })
