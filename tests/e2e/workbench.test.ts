@@ -91,9 +91,16 @@ describe('workbench', () => {
     await page.route(/\/api\/runs\/[0-9a-f-]{36}\/events/, holdCloneStream)
     const cloneRecord = page.waitForResponse((res) => /^\/api\/runs\/[0-9a-f-]{36}$/.test(new URL(res.url()).pathname) && !res.url().includes(firstId))
     cloneRecord.catch(() => {}) // awaited below; a failure before then is reported by the step that failed
-    await page.getByRole('button', { name: 'Clone' }).click()
-    await page.getByText('Queue an identical run').click()
-    await page.waitForURL((u) => /\/runs\/[0-9a-f-]{36}/.test(u.pathname) && !u.pathname.endsWith(firstId))
+    // On a busy machine a click can land while the Clone menu is still opening and pick nothing: open and pick again
+    // until the clone's page is reached.
+    const onClone = (u: URL) => /\/runs\/[0-9a-f-]{36}/.test(u.pathname) && !u.pathname.endsWith(firstId)
+    const queueIdentical = page.getByText('Queue an identical run')
+    for (let i = 0; i < 5 && !onClone(new URL(page.url())); i++) {
+      if (!(await queueIdentical.isVisible())) await page.getByRole('button', { name: 'Clone' }).click({ timeout: 10_000 }).catch(() => {})
+      await queueIdentical.click({ timeout: 10_000 }).catch(() => {})
+      await page.waitForURL(onClone, { timeout: 15_000 }).catch(() => {})
+    }
+    await page.waitForURL(onClone)
     await page.locator('h1', { hasText: 'E2E store and retrieve (copy)' }).waitFor()
     const statusAtFirstPaint = (await page.locator('[data-testid=run-status]').first().textContent())?.trim()
     const recordStatus = ((await (await cloneRecord).json()) as { status: string }).status
